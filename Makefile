@@ -1,0 +1,33 @@
+# Two commands do all set-up on a fresh machine: `make demo` and `make test`.
+PYTHON ?= python3
+VENV := .venv
+PY := $(VENV)/bin/python
+STAMP := $(VENV)/.installed
+
+.PHONY: demo test lint nbval benchmark clean venv
+
+venv: $(STAMP)
+
+$(STAMP): pyproject.toml
+	$(PYTHON) -m venv $(VENV)
+	$(PY) -m pip install --quiet --upgrade pip
+	$(PY) -m pip install --quiet -e ".[notebook,dev]"
+	$(PY) -m ipykernel install --sys-prefix --name calcpad --display-name "calcpad (venv)" > /dev/null
+	touch $(STAMP)
+
+demo: $(STAMP)
+	$(PY) -m calcpad.cli demo
+
+test: $(STAMP)
+	$(VENV)/bin/ruff check calcpad tests benchmarks
+	$(VENV)/bin/pytest -q tests
+	$(VENV)/bin/pytest -q --nbval notebooks/ --nbval-current-env --nbval-sanitize-with notebooks/nbval-sanitize.cfg -p no:randomly
+
+lint: $(STAMP)
+	$(VENV)/bin/ruff check calcpad tests benchmarks
+
+benchmark: $(STAMP)
+	$(PY) benchmarks/bench_core.py
+
+clean:
+	rm -rf $(VENV) build

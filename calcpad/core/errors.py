@@ -1,0 +1,42 @@
+"""Errors calcpad raises for bad input. Each message names the field or step, the value and
+what was expected, so faces (CLI, widgets, runner) can show it without a traceback."""
+
+from __future__ import annotations
+
+__all__ = [
+    "CalcpadError",
+    "DimensionError",
+    "FormulaError",
+    "InputError",
+    "NotCoveredError",
+    "SheetError",
+    "UnitInputError",
+]
+
+
+class CalcpadError(Exception):
+    """Base of every error calcpad raises on purpose (bad input, not a bug)."""
+
+
+class InputError(CalcpadError, ValueError):
+    """A value given to an engineering function is out of range or inconsistent."""
+
+
+class UnitInputError(InputError):
+    """A value-with-unit or unit string could not be read, or has the wrong dimension."""
+
+
+class FormulaError(CalcpadError, ValueError):
+    """A formula string is not allowed or cannot be parsed."""
+
+
+class SheetError(CalcpadError):
+    """A sheet is inconsistent: unknown name, duplicate name, dependency cycle, ..."""
+
+
+class DimensionError(SheetError):
+    """A step combines quantities whose dimensions do not agree."""
+
+
+class NotCoveredError(CalcpadError):
+    """The requested shape / limit-state combination is not covered by a check."""

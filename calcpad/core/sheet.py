@@ -1,0 +1,576 @@
+"""The sheet: an ordered list of steps, evaluated by dependency into a result model.
+
+    sh = Sheet("Leg L1 bending")
+    sh.given("P", "250 lbf", "Lateral load at top of leg")
+    sh.given("L", "84 in", "Leg length")
+    sh.step("M", "P*L", "Base moment", ref="statics")
+    sh.evaluate()
+
+Names are resolved wherever they are defined in the sheet (display order is the author's).
+Changing a given with :meth:`Sheet.set` and evaluating again recomputes only the steps
+downstream of it.
+"""
+
+from __future__ import annotations
+
+import difflib
+import hashlib
+import importlib
+import io
+import re
+from collections.abc import Iterable, Mapping, Sequence
+from typing import Any
+
+import pint
+import sympy as sp
+
+from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, SheetError
+from calcpad.core.formula import Formula, formula_from_sympy, parse_condition, parse_formula
+from calcpad.core.names import is_valid_name
+from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr
+from calcpad.core.results import (
+    NG,
+    OK,
+    BranchCase,
+    BranchResult,
+    CheckResult,
+    FigureResult,
+    FormulaResult,
+    GivenResult,
+    HeadingResult,
+    SelectCandidate,
+    SelectResult,
+    SheetResult,
+    TableResult,
+    TextResult,
+)
+from calcpad.core.steps import Branch, Case, Check, Figure, FormulaStep, Given, Heading, Select, Step, Table, Text
+from calcpad.core.units import Q_, DisplayPrefs, format_number, parse_quantity, parse_unit, unit_symbol
+
+__all__ = ["DISPLAY_HOOK", "Sheet"]
+
+#: Where notebook display comes from. The engine does not import printers; this dotted path is
+#: loaded the first time a sheet is shown in Jupyter (dependency inversion, not a sideways import).
+DISPLAY_HOOK = "calcpad.render.notebook:mimebundle"
+
+_METHODS = ("ASD", "LRFD")
+
+
+def _to_formula(text_or_expr: str | sp.Basic, condition: bool = False) -> Formula:
+    if isinstance(text_or_expr, str):
+        return parse_condition(text_or_expr) if condition else parse_formula(text_or_expr)
+    return formula_from_sympy(text_or_expr)
+
+
+def _slug(text: str) -> str:
+    slug = re.sub(r"[^A-Za-z0-9]+", "_", text).strip("_").lower()
+    return slug or "check"
+
+
+class Sheet:
+    """An ordered calc sheet of givens, steps, branches, selections and checks.
+
+    Args:
+        title: Sheet title, shown as its first heading.
+        system: Display unit system, ``"US"`` or ``"SI"``.
+        sig: Significant figures for results (per-step ``sig=`` overrides).
+        method: ``"ASD"`` or ``"LRFD"``; engineering checks read it to pick Ω or φ.
+        display: Per-kind display units, e.g. ``{"moment": "kip*ft"}``.
+        meta: Free title-block data (member mark, template, ...), carried into the record.
+    """
+
+    def __init__(
+        self,
+        title: str,
+        system: str = "US",
+        sig: int = 4,
+        method: str = "ASD",
+        display: Mapping[str, str] | None = None,
+        meta: Mapping[str, str] | None = None,
+    ) -> None:
+        if method not in _METHODS:
+            raise SheetError(f"sheet {title!r}: method {method!r}; expected 'ASD' or 'LRFD'")
+        self.title = title
+        self.prefs = DisplayPrefs(system=system, sig=sig, overrides=dict(display or {}))
+        self.method = method
+        self.meta: dict[str, str] = dict(meta or {})
+        self._steps: list[Step] = []
+        self._defs: dict[str, Step] = {}
+        self._dirty: set[str] = set()
+        self._values: dict[str, pint.Quantity] = {}
+        self._shown: dict[str, pint.Quantity] = {}
+        self._results: dict[str, Any] = {}
+        self._result: SheetResult | None = None
+        self.last_recomputed: list[str] = []
+
+    # ------------------------------------------------------------------ building
+
+    @property
+    def system(self) -> str:
+        """Display unit system ("US" or "SI")."""
+        return self.prefs.system
+
+    @property
+    def steps(self) -> list[Step]:
+        """The step definitions, in author order (read-only view)."""
+        return list(self._steps)
+
+    def _add(self, step: Step) -> None:
+        name = step.defines
+        if name is not None:
+            if not is_valid_name(name):
+                raise SheetError(
+                    f"sheet {self.title!r}: {name!r} is not a valid name (letters, digits and single underscores; starts with a letter)"
+                )
+            if name in self._defs:
+                raise SheetError(f"sheet {self.title!r}: {name!r} is defined twice; every name in a sheet is unique")
+            self._defs[name] = step
+            self._dirty.add(name)
+        self._steps.append(step)
+        self._result = None
+
+    def _formula(self, name: str, text: str | sp.Basic, condition: bool = False) -> Formula:
+        try:
+            return _to_formula(text, condition)
+        except FormulaError as exc:
+            raise FormulaError(f"step {name!r}: {exc}") from None
+
+    def _unit(self, name: str, unit: str | None) -> str | None:
+        if unit is None:
+            return None
+        try:
+            parse_unit(unit, f"step {name!r} unit")
+        except CalcpadError as exc:
+            raise SheetError(str(exc)) from None
+        return unit
+
+    def given(
+        self,
+        name: str,
+        value: str | pint.Quantity | float,
+        description: str = "",
+        source: str = "",
+        *,
+        sig: int | None = None,
+        min: str | pint.Quantity | float | None = None,  # noqa: A002 - reads naturally at call sites
+        max: str | pint.Quantity | float | None = None,  # noqa: A002
+        choices: Sequence[str] | None = None,
+    ) -> None:
+        """Add an input value with its unit (``"84 in"``, ``Q_(84, "in")`` or a plain number).
+
+        ``min``/``max``/``choices`` describe the allowed range a what-if control offers.
+        """
+        q = parse_quantity(value, f"given {name!r}")
+        control: dict[str, Any] = {}
+        for key, bound in (("min", min), ("max", max)):
+            if bound is not None:
+                b = parse_quantity(bound, f"given {name!r} {key}")
+                if b.dimensionality != q.dimensionality:
+                    raise SheetError(f"given {name!r}: {key} {bound!r} does not have the dimension of {value!r}")
+                control[key] = b
+        if choices:
+            control["choices"] = list(choices)
+        self._add(Given(name, q, description, source, sig, control))
+
+    def step(
+        self,
+        name: str,
+        formula: str | sp.Basic,
+        description: str = "",
+        *,
+        unit: str | None = None,
+        ref: str = "",
+        sig: int | None = None,
+    ) -> None:
+        """Add ``name = formula`` (a formula string or a sympy expression)."""
+        self._add(FormulaStep(name, self._formula(name, formula), description, self._unit(name, unit), ref, sig))
+
+    def branch(
+        self,
+        name: str,
+        cases: Sequence[tuple[str | sp.Basic | None, str | sp.Basic, str]],
+        description: str = "",
+        *,
+        unit: str | None = None,
+        ref: str = "",
+        sig: int | None = None,
+    ) -> None:
+        """Add a step whose formula is picked by the first condition that holds.
+
+        ``cases`` is a list of ``(condition, formula, label)``; a ``None`` condition is
+        "otherwise" and must come last. The label names the governing equation.
+        """
+        if not cases:
+            raise SheetError(f"branch {name!r}: needs at least one case")
+        built = []
+        for i, (cond, formula, label) in enumerate(cases):
+            if cond is None and i != len(cases) - 1:
+                raise SheetError(f"branch {name!r}: the 'otherwise' case (condition None) must be last")
+            built.append(
+                Case(
+                    self._formula(name, cond, condition=True) if cond is not None else None,
+                    self._formula(name, formula),
+                    str(label),
+                )
+            )
+        self._add(Branch(name, built, description, self._unit(name, unit), ref, sig))
+
+    def select(
+        self,
+        name: str,
+        mode: str,
+        candidates: Mapping[str, str] | Sequence[str],
+        description: str = "",
+        *,
+        unit: str | None = None,
+        ref: str = "",
+        sig: int | None = None,
+    ) -> None:
+        """Add ``name = min(...)`` or ``max(...)`` of named steps, showing which governs.
+
+        ``candidates`` maps step names to labels (e.g. ``{"M_p": "yielding (F7-1)"}``).
+        """
+        if mode not in ("min", "max"):
+            raise SheetError(f"selection {name!r}: mode {mode!r}; expected 'min' or 'max'")
+        cands = dict(candidates) if isinstance(candidates, Mapping) else {c: c for c in candidates}
+        if not cands:
+            raise SheetError(f"selection {name!r}: needs at least one candidate")
+        self._add(Select(name, mode, cands, description, self._unit(name, unit), ref, sig))
+
+    def check(
+        self,
+        title: str,
+        demand: str,
+        capacity: str,
+        *,
+        ref: str = "",
+        required_fs: float | None = None,
+        show_fs: bool | None = None,
+        limit: float = 1.0,
+        key: str | None = None,
+        sig: int | None = None,
+    ) -> str:
+        """Add a check of ``demand`` against ``capacity`` (names of givens or steps).
+
+        ratio = demand / capacity, OK when ratio ≤ ``limit``. With ``required_fs`` the check is a
+        factor-of-safety check: FS = capacity / demand, OK when FS ≥ required_fs, and
+        ratio = required_fs / FS. Returns the check's key.
+        """
+        if required_fs is not None and not required_fs > 0:
+            raise SheetError(f"check {title!r}: required_fs {required_fs!r}; expected a number > 0")
+        if not limit > 0:
+            raise SheetError(f"check {title!r}: limit {limit!r}; expected a number > 0")
+        k = key or "chk_" + _slug(title)
+        base, n = k, 2
+        while k in self._defs:
+            k, n = f"{base}_{n}", n + 1
+        fs_line = (required_fs is not None) if show_fs is None else show_fs
+        self._add(Check(k, title, demand, capacity, ref, required_fs, fs_line, float(limit), sig))
+        return k
+
+    def heading(self, text: str, level: int = 1) -> None:
+        """Add a heading (level 1 or 2)."""
+        self._add(Heading(text, 1 if level <= 1 else 2))
+
+    def note(self, text: str) -> None:
+        """Add a note."""
+        self._add(Text(text, "note"))
+
+    def assume(self, text: str) -> None:
+        """Add an assumption (listed as such in the submittal)."""
+        self._add(Text(text, "assumption"))
+
+    def reference(self, text: str) -> None:
+        """Add a reference line (standard, table, drawing)."""
+        self._add(Text(text, "reference"))
+
+    def table(self, title: str, data: Any, columns: Sequence[str] | None = None, note: str = "") -> None:
+        """Add a table from a DataFrame or rows; quantities and floats are formatted here."""
+        if hasattr(data, "columns") and hasattr(data, "itertuples"):
+            cols = [str(c) for c in data.columns]
+            raw_rows: Iterable[Sequence[Any]] = [list(r) for r in data.itertuples(index=False)]
+        else:
+            if columns is None:
+                raise SheetError(f"table {title!r}: give columns= with a list of rows")
+            cols = [str(c) for c in columns]
+            raw_rows = data
+        rows = [[self._cell(v) for v in row] for row in raw_rows]
+        for i, row in enumerate(rows):
+            if len(row) != len(cols):
+                raise SheetError(f"table {title!r}: row {i + 1} has {len(row)} cells; expected {len(cols)}")
+        self._add(Table(title, cols, rows, note))
+
+    def _cell(self, v: Any) -> str:
+        if isinstance(v, pint.Quantity):
+            unit = self.prefs.unit_for(v)
+            return f"{format_number(v.to(unit).magnitude, self.prefs.sig)} {unit_symbol(unit)}".strip()
+        if isinstance(v, float):
+            return format_number(v, self.prefs.sig)
+        return str(v)
+
+    def figure(self, title: str, fig: Any, caption: str = "") -> None:
+        """Add a figure (a matplotlib figure or PNG bytes)."""
+        if isinstance(fig, (bytes, bytearray)):
+            png = bytes(fig)
+        elif hasattr(fig, "savefig"):
+            buf = io.BytesIO()
+            fig.savefig(buf, format="png", dpi=110, bbox_inches="tight", metadata={"Software": None})
+            png = buf.getvalue()
+        else:
+            raise SheetError(f"figure {title!r}: expected a matplotlib figure or PNG bytes, got {type(fig).__name__}")
+        self._add(Figure(title, png, caption))
+
+    # ------------------------------------------------------------------ changing
+
+    def givens(self) -> list[Given]:
+        """The given definitions, in author order."""
+        return [s for s in self._steps if isinstance(s, Given)]
+
+    def set(self, **values: str | pint.Quantity | float) -> None:
+        """Change givens by name (``sh.set(P="300 lbf")``); the next evaluation updates downstream."""
+        for name, value in values.items():
+            step = self._defs.get(name)
+            if not isinstance(step, Given):
+                raise SheetError(f"sheet {self.title!r}: {name!r} is not a given{self._did_you_mean(name, given_only=True)}")
+            q = parse_quantity(value, f"given {name!r}")
+            if q.dimensionality != step.value.dimensionality:
+                raise SheetError(
+                    f"given {name!r}: {value!r} does not have the dimension of its default {step.value:~}; "
+                    f"expected a value like '{step.value.magnitude:g} {unit_symbol(step.value.units, 'ascii')}'"
+                )
+            step.value = q
+            self._dirty.add(name)
+            self._result = None
+
+    def _did_you_mean(self, name: str, given_only: bool = False) -> str:
+        pool = [n for n, s in self._defs.items() if not given_only or isinstance(s, Given)]
+        close = difflib.get_close_matches(name, pool, n=3, cutoff=0.5)
+        return f"; did you mean {', '.join(repr(c) for c in close)}?" if close else ""
+
+    # ------------------------------------------------------------------ evaluation
+
+    def order(self) -> list[str]:
+        """Names in evaluation order (dependencies first). Raises SheetError on cycles/unknowns."""
+        for step in self._steps:
+            for dep in step.depends:
+                if dep not in self._defs:
+                    who = step.defines or getattr(step, "title", "?")
+                    raise SheetError(f"step {who!r}: unknown name {dep!r}{self._did_you_mean(dep)}")
+        order: list[str] = []
+        state: dict[str, int] = {}
+
+        def visit(name: str, chain: list[str]) -> None:
+            mark = state.get(name, 0)
+            if mark == 2:
+                return
+            if mark == 1:
+                cycle = chain[chain.index(name) :] + [name]
+                raise SheetError("dependency cycle between steps: " + " -> ".join(cycle))
+            state[name] = 1
+            for dep in self._defs[name].depends:
+                visit(dep, chain + [name])
+            state[name] = 2
+            order.append(name)
+
+        for name in self._defs:
+            visit(name, [])
+        return order
+
+    def evaluate(self) -> SheetResult:
+        """Evaluate (incrementally) and return the result model."""
+        if self._result is not None and not self._dirty:
+            return self._result
+        recomputed: set[str] = set()
+        for name in self.order():
+            step = self._defs[name]
+            if name in self._dirty or name not in self._results or any(d in recomputed for d in step.depends):
+                self._results[name] = self._evaluate_step(step)
+                recomputed.add(name)
+        self._dirty.clear()
+        self.last_recomputed = [n for n in self.order() if n in recomputed]
+        self._result = self._assemble()
+        return self._result
+
+    def _sig(self, step: Any) -> int:
+        if getattr(step, "sig", None):
+            return step.sig
+        # givens show as entered (no padding zeros) unless a sig is set on them
+        return 0 if isinstance(step, Given) else self.prefs.sig
+
+    def _show(self, name: str, value: pint.Quantity, unit: str | None) -> pint.Quantity:
+        try:
+            shown = value.to(unit) if unit else value.to(self.prefs.unit_for(value))
+        except pint.DimensionalityError:
+            raise DimensionError(
+                f"step {name!r}: the result is a {value.dimensionality} quantity ({value.units:~}); it cannot be shown in {unit!r}"
+            ) from None
+        self._values[name] = value
+        self._shown[name] = shown
+        return shown
+
+    def _env(self, names: Iterable[str]) -> dict[str, pint.Quantity]:
+        return {n: self._shown[n] for n in names}
+
+    def _formula_result(self, name: str, step: Any, formula: Formula) -> FormulaResult:
+        env = self._env(formula.names)
+        value = evaluate_expr(formula.expr, env, name)
+        shown = self._show(name, value, step.unit)
+        sigs = {n: self._sig(self._defs[n]) for n in formula.names}
+        return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs)
+
+    def _evaluate_step(self, step: Step) -> Any:
+        if isinstance(step, Given):
+            value = step.value
+            self._values[step.name] = value
+            shown = value
+            if value.dimensionless and str(value.units) == "dimensionless":
+                shown = Q_(float(value.magnitude), "")
+            self._shown[step.name] = shown
+            return GivenResult(step.name, shown, step.description, step.source, self._sig(step))
+        if isinstance(step, FormulaStep):
+            return self._formula_result(step.name, step, step.formula)
+        if isinstance(step, Branch):
+            return self._evaluate_branch(step)
+        if isinstance(step, Select):
+            return self._evaluate_select(step)
+        if isinstance(step, Check):
+            return self._evaluate_check(step)
+        raise SheetError(f"cannot evaluate {type(step).__name__}")  # pragma: no cover
+
+    def _evaluate_branch(self, step: Branch) -> BranchResult:
+        cases = [BranchCase(c.condition.expr if c.condition else None, c.formula.expr, c.label) for c in step.cases]
+        tested, held, sides, cond_env = 0, False, None, {}
+        chosen = len(step.cases) - 1
+        for i, case in enumerate(step.cases):
+            if case.condition is None:
+                break
+            cond_env = self._env(case.condition.names)
+            held, raw = evaluate_condition(case.condition.expr, cond_env, step.name)
+            tested = i
+            if raw is not None:
+                lhs, rhs = raw
+                lhs = lhs.to(self.prefs.unit_for(lhs))
+                sides = (lhs, rhs.to(lhs.units))
+            if held:
+                chosen = i
+                break
+        formula = self._formula_result(step.name, step, step.cases[chosen].formula)
+        return BranchResult(step.name, cases, chosen, cond_env, sides, held, formula, step.description, step.ref, tested)
+
+    def _evaluate_select(self, step: Select) -> SelectResult:
+        cands = []
+        first = self._values[next(iter(step.candidates))]
+        for name, label in step.candidates.items():
+            v = self._values[name]
+            if v.dimensionality != first.dimensionality:
+                raise DimensionError(f"selection {step.name!r}: candidate {name!r} is not the same kind of quantity as the others")
+            cands.append((name, label, v))
+        mags = [float(v.to(first.units).magnitude) for _, _, v in cands]
+        pick = mags.index(min(mags) if step.mode == "min" else max(mags))
+        shown = self._show(step.name, cands[pick][2], step.unit)
+        shown_unit = shown.units
+        candidates = [SelectCandidate(n, lab, self._shown[n].to(shown_unit)) for n, lab, _ in cands]
+        return SelectResult(step.name, step.mode, candidates, pick, shown, step.description, step.ref, self._sig(step))
+
+    def _evaluate_check(self, step: Check) -> CheckResult:
+        demand, capacity = self._shown[step.demand], self._shown[step.capacity]
+        if demand.dimensionality != capacity.dimensionality:
+            raise DimensionError(
+                f"check {step.title!r}: demand {step.demand!r} ({demand.units:~}) and capacity {step.capacity!r} "
+                f"({capacity.units:~}) are different kinds of quantity"
+            )
+        cap = float(capacity.to(demand.units).magnitude)
+        dem = abs(float(demand.magnitude))
+        if not cap > 0:
+            raise SheetError(f"check {step.title!r}: capacity {step.capacity!r} = {capacity:~} must be greater than zero")
+        ratio = dem / cap
+        fs = cap / dem if dem > 0 else float("inf")
+        if step.required_fs is not None:
+            ratio = step.required_fs / fs if dem > 0 else 0.0
+        status = OK if ratio <= step.limit else NG
+        self._values[step.key] = Q_(ratio, "")
+        self._shown[step.key] = Q_(ratio, "")
+        return CheckResult(
+            step.key,
+            step.title,
+            step.demand,
+            step.capacity,
+            demand,
+            capacity,
+            ratio,
+            status,
+            fs if (step.show_fs or step.required_fs is not None) else None,
+            step.required_fs,
+            step.show_fs,
+            step.limit,
+            step.ref,
+            self._sig(step),
+        )
+
+    def _assemble(self) -> SheetResult:
+        out: list[Any] = []
+        for step in self._steps:
+            if step.defines is not None:
+                out.append(self._results[step.defines])
+            elif isinstance(step, Heading):
+                out.append(HeadingResult(step.text, step.level))
+            elif isinstance(step, Text):
+                out.append(TextResult(step.text, step.kind))
+            elif isinstance(step, Table):
+                out.append(TableResult(step.title, step.columns, step.rows, step.note))
+            elif isinstance(step, Figure):
+                out.append(FigureResult(step.title, step.png, step.caption))
+        return SheetResult(self.title, out, self.system, self.method, self.digest(), dict(self.meta))
+
+    def digest(self) -> str:
+        """SHA-256 over every given (name, magnitude, unit) — identifies the inputs of a run."""
+        h = hashlib.sha256()
+        for g in self.givens():
+            h.update(f"{g.name}={g.value.magnitude!r} {g.value.units}\n".encode())
+        return h.hexdigest()
+
+    # ------------------------------------------------------------------ reading
+
+    def __getitem__(self, name: str) -> pint.Quantity:
+        self.evaluate()
+        if name not in self._shown:
+            raise KeyError(f"{name!r} is not a name in sheet {self.title!r}{self._did_you_mean(name)}")
+        return self._shown[name]
+
+    def __contains__(self, name: str) -> bool:
+        return name in self._defs
+
+    def summary(self) -> list[CheckResult]:
+        """All checks of the evaluated sheet."""
+        return self.evaluate().checks
+
+    def summary_frame(self) -> Any:
+        """Checks as a pandas DataFrame (name, demand, capacity, ratio, status)."""
+        import pandas as pd  # lazy: pandas is slow to import
+
+        rows = []
+        for c in self.summary():
+            rows.append(
+                {
+                    "check": c.title,
+                    "demand": f"{format_number(c.demand.magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
+                    "capacity": f"{format_number(c.capacity.to(c.demand.units).magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
+                    "ratio": round(c.ratio, 3),
+                    "status": c.status,
+                    "reference": c.ref,
+                }
+            )
+        return pd.DataFrame(rows, columns=["check", "demand", "capacity", "ratio", "status", "reference"])
+
+    def compile(self) -> Any:
+        """Compile into a vectorised numpy function (see :mod:`calcpad.core.compiled`)."""
+        from calcpad.core.compiled import CompiledSheet
+
+        return CompiledSheet(self)
+
+    def _repr_mimebundle_(self, include: Any = None, exclude: Any = None) -> dict[str, Any]:
+        module, _, attr = DISPLAY_HOOK.partition(":")
+        return getattr(importlib.import_module(module), attr)(self.evaluate())
+
+    def __repr__(self) -> str:
+        return f"<Sheet {self.title!r}: {len(self._steps)} steps>"

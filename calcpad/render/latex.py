@@ -1,0 +1,141 @@
+"""LaTeX printer for a sheet result: one ``array`` row per step, for MathJax in Jupyter.
+
+Row layout: description | symbolic = substituted = result | reference.
+"""
+
+from __future__ import annotations
+
+from calcpad.core.names import name_latex
+from calcpad.core.results import (
+    BranchResult,
+    CheckResult,
+    FigureResult,
+    FormulaResult,
+    GivenResult,
+    HeadingResult,
+    SelectResult,
+    SheetResult,
+    TableResult,
+    TextResult,
+)
+from calcpad.core.units import format_number
+from calcpad.render.expressions import quantity_latex, substituted_latex, symbolic_latex
+
+__all__ = ["REL_LATEX", "formula_line_latex", "sheet_latex", "step_latex"]
+
+REL_LATEX = {"<": "<", "<=": r"\le", ">": ">", ">=": r"\ge"}
+
+
+def _text(s: str) -> str:
+    """Escape plain text for ``\\text{}``."""
+    repl = {
+        "\\": r"\backslash ",
+        "{": r"\{",
+        "}": r"\}",
+        "$": r"\$",
+        "&": r"\&",
+        "#": r"\#",
+        "%": r"\%",
+        "_": r"\_",
+        "^": r"\^{}",
+        "~": r"\~{}",
+    }
+    return "".join(repl.get(ch, ch) for ch in s)
+
+
+def formula_line_latex(f: FormulaResult) -> str:
+    """``M = P \\cdot L = 250\\ lbf \\times 84\\ in = 1.750\\ kip \\cdot ft``."""
+    sym = symbolic_latex(f.expr)
+    parts = [name_latex(f.name), sym]
+    sub = substituted_latex(f.expr, f.values, f.sigs, f.sig)
+    result = quantity_latex(f.value, f.sig)
+    if sub not in (sym, result):
+        parts.append(sub)
+    parts.append(result)
+    return " = ".join(parts)
+
+
+def _condition_latex(b: BranchResult) -> str:
+    cond = b.cases[b.tested].condition
+    if cond is None or b.condition_sides is None or not hasattr(cond, "rel_op"):
+        return ""
+    lhs, rhs = b.condition_sides
+    rel = REL_LATEX[cond.rel_op]
+    if not b.condition_held:  # show the test as it came out
+        rel = {r"\le": ">", "<": r"\ge", r"\ge": "<", ">": r"\le"}[rel]
+    return rf"{symbolic_latex(cond.lhs)} = {quantity_latex(lhs)} \; {rel} \; {symbolic_latex(cond.rhs)} = {quantity_latex(rhs)}"
+
+
+def step_latex(step: object) -> list[tuple[str, str, str]]:
+    """Rows ``(description, math, reference)`` for one step result."""
+    if isinstance(step, GivenResult):
+        src = step.source
+        return [(_text(step.description), f"{name_latex(step.name)} = {quantity_latex(step.value, step.sig)}", _text(src))]
+    if isinstance(step, FormulaResult):
+        return [(_text(step.description), formula_line_latex(step), _text(step.ref))]
+    if isinstance(step, BranchResult):
+        rows = []
+        cond = _condition_latex(step)
+        label = step.cases[step.chosen].label
+        if cond:
+            rows.append((_text(step.description), cond + r" \;\Rightarrow\; \text{" + _text(label) + "}", _text(step.ref)))
+            rows.append(("", formula_line_latex(step.formula), _text(label)))
+        else:
+            rows.append((_text(step.description), formula_line_latex(step.formula), _text(label or step.ref)))
+        return rows
+    if isinstance(step, SelectResult):
+        names = ", ".join(name_latex(c.name) for c in step.candidates)
+        vals = ", ".join(quantity_latex(c.value, step.sig) for c in step.candidates)
+        gov = step.candidates[step.governing]
+        math = (
+            rf"{name_latex(step.name)} = \{step.mode}\left({names}\right) = \{step.mode}\left({vals}\right) = "
+            rf"{quantity_latex(step.value, step.sig)} \;\; \text{{({_text(gov.label)} governs)}}"
+        )
+        return [(_text(step.description), math, _text(step.ref))]
+    if isinstance(step, CheckResult):
+        return check_rows_latex(step)
+    if isinstance(step, HeadingResult):
+        return [(rf"\textbf{{{_text(step.text)}}}", "", "")]
+    if isinstance(step, TextResult):
+        lead = {"assumption": "Assumption: ", "reference": "Reference: "}.get(step.kind, "Note: ")
+        return [(rf"\textit{{{_text(lead + step.text)}}}", "", "")]
+    if isinstance(step, TableResult):
+        cols = " & ".join(rf"\text{{{_text(c)}}}" for c in step.columns)
+        body = r" \\ ".join(" & ".join(rf"\text{{{_text(c)}}}" for c in row) for row in step.rows)
+        table = rf"\begin{{array}}{{{'l' * len(step.columns)}}} {cols} \\ \hline {body} \end{{array}}"
+        return [(rf"\textbf{{{_text(step.title)}}}", table, _text(step.note))]
+    if isinstance(step, FigureResult):
+        return [(rf"\text{{Figure: {_text(step.title)}}}", r"\text{(shown in the submittal)}", "")]
+    return []
+
+
+def check_rows_latex(c: CheckResult) -> list[tuple[str, str, str]]:
+    """Rows for a check: ratio line, FS line when asked, and the verdict."""
+    d, cap = name_latex(c.demand_name), name_latex(c.capacity_name)
+    dq, cq = quantity_latex(c.demand, c.sig), quantity_latex(c.capacity, c.sig)
+    verdict = r"\textbf{OK}" if c.ok else r"\textbf{NG}"
+    rows = []
+    if c.required_fs is not None:
+        rel = r"\ge" if c.ok else "<"
+        math = rf"\mathit{{FS}} = \frac{{{cap}}}{{{d}}} = \frac{{{cq}}}{{{dq}}} = {format_number(c.fs, c.sig, 'latex')} \; {rel} \; {format_number(c.required_fs, 3, 'latex')} \;\; {verdict}"
+        rows.append((rf"\textbf{{{_text(c.title)}}}", math, _text(c.ref)))
+        return rows
+    rel = r"\le" if c.ok else ">"
+    math = rf"\frac{{{d}}}{{{cap}}} = \frac{{{dq}}}{{{cq}}} = {format_number(c.ratio, 3, 'latex')} \; {rel} \; {format_number(c.limit, 3, 'latex')} \;\; {verdict}"
+    rows.append((rf"\textbf{{{_text(c.title)}}}", math, _text(c.ref)))
+    if c.show_fs and c.fs is not None:
+        rows.append(("", rf"\mathit{{FS}} = \frac{{{cap}}}{{{d}}} = {format_number(c.fs, c.sig, 'latex')}", ""))
+    return rows
+
+
+def sheet_latex(result: SheetResult) -> str:
+    """The whole sheet as one display-math ``array`` (MathJax renders it in JupyterLab)."""
+    rows = [(rf"\textbf{{{_text(result.title)}}}", "", "")]
+    for step in result.steps:
+        rows.extend(step_latex(step))
+    body = " \\\\\n".join(
+        f"{desc if desc.startswith(chr(92)) or not desc else chr(92) + 'text{' + desc + '}'} & {math} & "
+        + (rf"\text{{[{ref}]}}" if ref else "")
+        for desc, math, ref in rows
+    )
+    return "$$\n\\begin{array}{lll}\n" + body + "\n\\end{array}\n$$"

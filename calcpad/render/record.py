@@ -1,0 +1,70 @@
+"""The JSON record of a sheet: every input, result and check ratio, in stated units.
+
+Format (``"format": "calcpad-record/1"``)::
+
+    {"format": ..., "title": ..., "system": "US", "method": "ASD", "digest": sha256-of-givens,
+     "meta": {...},
+     "inputs":  {name: {"value": float, "unit": "in", "description": ...}},
+     "results": {name: {"value": float, "unit": "kip*ft"}},
+     "checks":  [{"key", "title", "demand": {value, unit}, "capacity": {value, unit},
+                  "ratio", "status", "fs", "required_fs", "ref"}]}
+
+Values are in the unit shown on the sheet (unit strings use pint's ASCII abbreviations).
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+import pint
+
+from calcpad.core.results import BranchResult, CheckResult, FormulaResult, GivenResult, SelectResult, SheetResult
+from calcpad.core.units import unit_symbol
+
+__all__ = ["RECORD_FORMAT", "quantity_record", "sheet_record"]
+
+RECORD_FORMAT = "calcpad-record/1"
+
+
+def quantity_record(q: pint.Quantity) -> dict[str, Any]:
+    """``{"value": 1.75, "unit": "kip*ft"}``."""
+    return {"value": float(q.magnitude), "unit": unit_symbol(q.units, "ascii")}
+
+
+def sheet_record(result: SheetResult) -> dict[str, Any]:
+    """Build the record dictionary for one evaluated sheet."""
+    inputs: dict[str, Any] = {}
+    results: dict[str, Any] = {}
+    checks: list[dict[str, Any]] = []
+    for s in result.steps:
+        if isinstance(s, GivenResult):
+            inputs[s.name] = {**quantity_record(s.value), "description": s.description}
+        elif isinstance(s, (FormulaResult, SelectResult)):
+            results[s.name] = quantity_record(s.value)
+        elif isinstance(s, BranchResult):
+            results[s.name] = {**quantity_record(s.value), "case": s.cases[s.chosen].label}
+        elif isinstance(s, CheckResult):
+            checks.append(
+                {
+                    "key": s.key,
+                    "title": s.title,
+                    "demand": quantity_record(s.demand),
+                    "capacity": quantity_record(s.capacity.to(s.demand.units)),
+                    "ratio": s.ratio,
+                    "status": s.status,
+                    "fs": s.fs,
+                    "required_fs": s.required_fs,
+                    "ref": s.ref,
+                }
+            )
+    return {
+        "format": RECORD_FORMAT,
+        "title": result.title,
+        "system": result.system,
+        "method": result.method,
+        "digest": result.digest,
+        "meta": dict(result.meta),
+        "inputs": inputs,
+        "results": results,
+        "checks": checks,
+    }

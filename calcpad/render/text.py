@@ -1,0 +1,131 @@
+"""Plain-text and Markdown printers (terminal, diffs, README snippets)."""
+
+from __future__ import annotations
+
+from calcpad.core.names import name_text
+from calcpad.core.results import (
+    BranchResult,
+    CheckResult,
+    FigureResult,
+    FormulaResult,
+    GivenResult,
+    HeadingResult,
+    SelectResult,
+    SheetResult,
+    TableResult,
+    TextResult,
+)
+from calcpad.core.units import format_number
+from calcpad.render.expressions import quantity_text, substituted_text, symbolic_text
+
+__all__ = ["sheet_markdown", "sheet_text", "step_text"]
+
+_REL = {"<": "<", "<=": "≤", ">": ">", ">=": "≥"}
+_FLIP = {"<": "≥", "<=": ">", ">": "≤", ">=": "<"}
+
+
+def _formula(f: FormulaResult) -> str:
+    sym = symbolic_text(f.expr)
+    sub = substituted_text(f.expr, f.values, f.sigs, f.sig)
+    res = quantity_text(f.value, f.sig)
+    parts = [name_text(f.name), sym] + ([sub] if sub not in (sym, res) else []) + [res]
+    return " = ".join(parts)
+
+
+def _with(line: str, desc: str, ref: str) -> str:
+    lead = f"{desc}: " if desc else ""
+    tail = f"   [{ref}]" if ref else ""
+    return f"{lead}{line}{tail}"
+
+
+def step_text(step: object) -> list[str]:
+    """Lines of plain text for one step result."""
+    if isinstance(step, GivenResult):
+        return [_with(f"{name_text(step.name)} = {quantity_text(step.value, step.sig)}", step.description, step.source)]
+    if isinstance(step, FormulaResult):
+        return [_with(_formula(step), step.description, step.ref)]
+    if isinstance(step, BranchResult):
+        cond = step.cases[step.tested].condition
+        label = step.cases[step.chosen].label
+        lines = []
+        if cond is not None and step.condition_sides is not None and hasattr(cond, "rel_op"):
+            lhs, rhs = step.condition_sides
+            rel = _REL[cond.rel_op] if step.condition_held else _FLIP[cond.rel_op]
+            test = f"{symbolic_text(cond.lhs)} = {quantity_text(lhs)} {rel} {symbolic_text(cond.rhs)} = {quantity_text(rhs)} → use {label}"
+            lines.append(_with(test, step.description, step.ref))
+            lines.append("    " + _with(_formula(step.formula), "", label))
+        else:
+            lines.append(_with(_formula(step.formula), step.description, label or step.ref))
+        return lines
+    if isinstance(step, SelectResult):
+        names = ", ".join(name_text(c.name) for c in step.candidates)
+        vals = ", ".join(quantity_text(c.value, step.sig) for c in step.candidates)
+        gov = step.candidates[step.governing]
+        line = f"{name_text(step.name)} = {step.mode}({names}) = {step.mode}({vals}) = {quantity_text(step.value, step.sig)} — {gov.label} governs"
+        return [_with(line, step.description, step.ref)]
+    if isinstance(step, CheckResult):
+        d, cap = name_text(step.demand_name), name_text(step.capacity_name)
+        dq, cq = quantity_text(step.demand, step.sig), quantity_text(step.capacity, step.sig)
+        if step.required_fs is not None:
+            rel = "≥" if step.ok else "<"
+            line = (
+                f"FS = {cap}/{d} = {cq}/{dq} = {format_number(step.fs, step.sig)} {rel} {format_number(step.required_fs, 3)}  {step.status}"
+            )
+            return [_with(line, step.title, step.ref)]
+        rel = "≤" if step.ok else ">"
+        lines = [
+            _with(
+                f"{d}/{cap} = {dq}/{cq} = {format_number(step.ratio, 3)} {rel} {format_number(step.limit, 3)}  {step.status}",
+                step.title,
+                step.ref,
+            )
+        ]
+        if step.show_fs and step.fs is not None:
+            lines.append(f"    FS = {cap}/{d} = {format_number(step.fs, step.sig)}")
+        return lines
+    if isinstance(step, HeadingResult):
+        return ["", step.text.upper() if step.level == 1 else step.text, "-" * len(step.text)]
+    if isinstance(step, TextResult):
+        lead = {"assumption": "Assumption", "reference": "Reference"}.get(step.kind, "Note")
+        return [f"{lead}: {step.text}"]
+    if isinstance(step, TableResult):
+        widths = [max(len(c), *(len(r[i]) for r in step.rows)) if step.rows else len(c) for i, c in enumerate(step.columns)]
+        fmt = "  ".join(f"{{:>{w}}}" for w in widths)
+        return [step.title, fmt.format(*step.columns), fmt.format(*("-" * w for w in widths))] + [fmt.format(*r) for r in step.rows]
+    if isinstance(step, FigureResult):
+        return [f"[Figure: {step.title}]"]
+    return []
+
+
+def sheet_text(result: SheetResult) -> str:
+    """The whole sheet as plain text."""
+    lines = [result.title, "=" * len(result.title)]
+    for step in result.steps:
+        lines.extend(step_text(step))
+    return "\n".join(lines) + "\n"
+
+
+def sheet_markdown(result: SheetResult) -> str:
+    """The sheet as Markdown: headings and notes as text, each step as display math."""
+    from calcpad.render.latex import step_latex
+
+    out = [f"# {result.title}", ""]
+    for step in result.steps:
+        if isinstance(step, HeadingResult):
+            out += [f"{'#' * (step.level + 1)} {step.text}", ""]
+        elif isinstance(step, TextResult):
+            lead = {"assumption": "Assumption", "reference": "Reference"}.get(step.kind, "Note")
+            out += [f"*{lead}:* {step.text}", ""]
+        elif isinstance(step, TableResult):
+            out += [f"**{step.title}**", "", "| " + " | ".join(step.columns) + " |", "|" + "---|" * len(step.columns)]
+            out += ["| " + " | ".join(r) + " |" for r in step.rows] + [""]
+        elif isinstance(step, FigureResult):
+            out += [f"*Figure: {step.title}*", ""]
+        else:
+            for desc, math, ref in step_latex(step):
+                label = desc.replace(r"\textbf{", "**").replace("}", "**") if desc.startswith(r"\textbf") else desc
+                head = " — ".join(x for x in (label, f"[{ref}]" if ref else "") if x)
+                if head:
+                    out.append(head.replace("\\", ""))
+                out += [f"$$ {math} $$", ""]
+    return "\n".join(out)

@@ -1,0 +1,1 @@
+"""Running templates: executing notebooks, storing them with outputs, jobs and records."""

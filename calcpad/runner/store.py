@@ -1,0 +1,49 @@
+"""Keep template notebooks stored executed: the ``.py`` (jupytext percent) file is the source
+reviewers read in diffs; the ``.ipynb`` beside it holds the outputs nbval compares.
+
+``python -m calcpad.runner.store notebooks/*.py`` rebuilds each ``.ipynb`` from its ``.py``,
+executes it in a fresh kernel of the current interpreter and writes it atomically.
+"""
+
+from __future__ import annotations
+
+import os
+import sys
+import tempfile
+from pathlib import Path
+
+__all__ = ["refresh_notebook", "main"]
+
+KERNEL = "python3"
+
+
+def refresh_notebook(source: Path, timeout: int = 600) -> Path:
+    """Rebuild and execute ``source`` (``.py``), writing ``source.with_suffix('.ipynb')``."""
+    import jupytext  # lazy: notebook tooling is slow to import
+    import nbformat
+    from nbclient import NotebookClient
+
+    nb = jupytext.read(source)
+    nb.metadata["kernelspec"] = {"name": KERNEL, "display_name": "Python 3", "language": "python"}
+    nb.metadata.pop("jupytext", None)
+    client = NotebookClient(nb, timeout=timeout, kernel_name=KERNEL, resources={"metadata": {"path": str(source.parent)}})
+    client.execute()
+    target = source.with_suffix(".ipynb")
+    fd, tmp = tempfile.mkstemp(dir=target.parent, suffix=".ipynb.tmp")
+    with os.fdopen(fd, "w", encoding="utf-8") as fh:
+        nbformat.write(nb, fh)
+    os.replace(tmp, target)
+    return target
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Refresh each notebook named on the command line."""
+    args = argv if argv is not None else sys.argv[1:]
+    for name in args:
+        print(f"refreshing {name} ...", flush=True)
+        refresh_notebook(Path(name))
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())

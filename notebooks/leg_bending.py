@@ -1,0 +1,40 @@
+# %% [markdown]
+# # Leg in bending: cantilever tube, yield-based check
+#
+# A leg of a light frame fixed at its base and loaded sideways at its top acts as a cantilever.
+# This template shows the base moment, the tube's section properties, the bending stress and the
+# factor of safety against yield, each as formula = substituted values = result.
+#
+# *For review by a qualified, licensed engineer. Local building codes and the authority having
+# jurisdiction govern.*
+
+# %% tags=["parameters"]
+P = "85 lbf"  # lateral load at the top of the leg; 0 < P <= 20 kip
+L = "42 in"  # leg length from base to load; 6 in to 30 ft
+D_o = "1.900 in"  # tube outside diameter; > 0
+t = "0.145 in"  # tube wall thickness; 0 < t < D_o/2
+F_y = "35 ksi"  # specified minimum yield stress of the tube (ASTM A53 Gr B: 35 ksi)
+FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
+
+# %%
+from calcpad import Sheet
+
+sh = Sheet("Leg - bending at base")
+sh.heading("Inputs")
+sh.given("P", P, "Lateral load at top of leg")
+sh.given("L", L, "Leg length, base to load")
+sh.given("D_o", D_o, "Outside diameter")
+sh.given("t", t, "Wall thickness")
+sh.given("F_y", F_y, "Yield stress", source="ASTM A53 Gr B")
+sh.heading("Section properties")
+sh.step("D_i", "D_o - 2*t", "Inside diameter")
+sh.step("I", "pi/64*(D_o**4 - D_i**4)", "Moment of inertia", unit="in^4")
+sh.step("c", "D_o/2", "Extreme fibre distance")
+sh.heading("Demand and check")
+sh.step("M", "P*L", "Base moment", ref="cantilever, statics")
+sh.step("sigma_b", "M*c/I", "Bending stress at base", unit="ksi")
+sh.check("Bending stress vs yield", demand="sigma_b", capacity="F_y", required_fs=FS_req, ref="yield-based, common practice")
+sh
+
+# %%
+sh.summary_frame()
