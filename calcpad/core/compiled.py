@@ -2,14 +2,14 @@
 
 At compile time every quantity is resolved to SI base units: each given gets a scale factor
 from its own unit to base, and each result a factor from base to its display unit. Each step
-becomes one ``lambdify``-ed numpy function of the steps it uses, so a chain of steps runs as a
-chain of array operations with no pint and no sympy at call time. Branches become
-``numpy.where``; selections ``numpy.minimum``/``maximum``; check ratios plain divisions.
+becomes a numpy closure built from the already-whitelisted formula tree, with the unit factors
+folded into one coefficient per product and scalars combined before arrays are touched, so a
+chain of steps runs as a short chain of array operations with no pint and no sympy at call time.
+Branches become ``numpy.where``; selections ``numpy.minimum``/``maximum``.
 """
 
 from __future__ import annotations
 
-import functools
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
@@ -27,25 +27,140 @@ if TYPE_CHECKING:
 __all__ = ["CompiledSheet"]
 
 
-def _min(*args: Any) -> Any:
-    return functools.reduce(np.minimum, args)
-
-
-def _max(*args: Any) -> Any:
-    return functools.reduce(np.maximum, args)
-
-
-_MODULES = [{"Min": _min, "Max": _max}, "numpy"]
-
-
 def _base_factor(q: pint.Quantity) -> float:
     """Factor that turns a magnitude in ``q``'s unit into SI base magnitude."""
     return float(Q_(1.0, q.units).to_base_units().magnitude)
 
 
-def _lambdify(names: tuple[str, ...], expr: sp.Basic) -> Callable[..., Any]:
-    symbols = [sp.Symbol(n) for n in names]
-    return sp.lambdify(symbols, expr, modules=_MODULES)
+Fn = Callable[[dict[str, Any]], Any]
+
+_UFUNCS: dict[type, Callable[[Any], Any]] = {
+    sp.sin: np.sin, sp.cos: np.cos, sp.tan: np.tan, sp.asin: np.arcsin, sp.acos: np.arccos,
+    sp.atan: np.arctan, sp.exp: np.exp, sp.Abs: np.abs,
+}
+_COMPARE = {"<": np.less, "<=": np.less_equal, ">": np.greater, ">=": np.greater_equal}
+
+
+def _product(coef: float, num: list[Fn], den: list[Fn]) -> Fn:
+    """coef · Πnum / Πden, multiplying scalars first so arrays are touched as few times as possible."""
+
+    def run(env: dict[str, Any]) -> Any:
+        scal, arrs = coef, []
+        for f in num:
+            v = f(env)
+            if np.ndim(v) == 0:
+                scal = scal * v
+            else:
+                arrs.append((v, False))
+        for f in den:
+            v = f(env)
+            if np.ndim(v) == 0:
+                scal = scal / v
+            else:
+                arrs.append((v, True))
+        if not arrs:
+            return scal
+        first, inv = arrs[0]
+        out = scal / first if inv else (first * scal if scal != 1.0 else first)
+        for v, inv in arrs[1:]:
+            out = out / v if inv else out * v
+        return out
+
+    return run
+
+
+def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
+    """Compile a parsed formula into a numpy closure over display-unit values.
+
+    Unit factors of every name (display unit → SI base) are folded into one coefficient per
+    product, so no separate conversion passes run. Written by hand rather than with
+    ``lambdify`` so constants and scalars are combined before any array is touched.
+    """
+
+    def term(e: sp.Basic) -> tuple[float, list[Fn], list[Fn]]:
+        if isinstance(e, sp.Symbol):
+            name = e.name
+            return scale.get(name, 1.0), [lambda env: env[name]], []
+        if e is sp.pi:
+            return float(np.pi), [], []
+        if isinstance(e, sp.Number):
+            return float(e), [], []
+        if isinstance(e, sp.Mul):
+            coef, num, den = 1.0, [], []
+            for arg in e.args:
+                c, n, d = term(arg)
+                coef, num, den = coef * c, num + n, den + d
+            return coef, num, den
+        if isinstance(e, sp.Pow) and e.args[1].is_Integer and e.args[1] != 0:
+            k = int(e.args[1])
+            c, n, d = term(e.args[0])
+            inner = _product(1.0, n, d) if (n or d) else None
+            if inner is None:
+                return c**k, [], []
+            kk = abs(k)
+            powered: Fn = inner if kk == 1 else (lambda env, f=inner, kk=kk: f(env) ** kk)
+            return (c**k, [], [powered]) if k < 0 else (c**k, [powered], [])
+        return 1.0, [build(e)], []
+
+    def build(e: sp.Basic) -> Fn:
+        if isinstance(e, (sp.Symbol, sp.Number, sp.Mul)) or e is sp.pi or (isinstance(e, sp.Pow) and e.args[1].is_Integer):
+            coef, num, den = term(e)
+            return _product(coef, num, den)
+        if isinstance(e, sp.Add):
+            parts = [build(a) for a in e.args]
+
+            def add(env: dict[str, Any]) -> Any:
+                out = parts[0](env)
+                for f in parts[1:]:
+                    out = out + f(env)
+                return out
+
+            return add
+        if isinstance(e, sp.Pow):
+            base, exp = build(e.args[0]), build(e.args[1])
+            if e.args[1] == sp.Rational(1, 2):
+                return lambda env: np.sqrt(base(env))
+            return lambda env: np.power(base(env), exp(env))
+        if isinstance(e, (sp.Min, sp.Max)):
+            parts = [build(a) for a in e.args]
+            pick = np.minimum if isinstance(e, sp.Min) else np.maximum
+
+            def select(env: dict[str, Any]) -> Any:
+                out = parts[0](env)
+                for f in parts[1:]:
+                    out = pick(out, f(env))
+                return out
+
+            return select
+        if type(e) in _UFUNCS:
+            func, arg = _UFUNCS[type(e)], build(e.args[0])
+            return lambda env: func(arg(env))
+        if isinstance(e, sp.log):
+            arg = build(e.args[0])
+            if len(e.args) == 2:
+                div = float(np.log(float(e.args[1])))
+                return lambda env: np.log(arg(env)) / div
+            return lambda env: np.log(arg(env))
+        if isinstance(e, sp.core.relational.Relational):
+            lhs, rhs, cmp = build(e.lhs), build(e.rhs), _COMPARE[e.rel_op]
+            return lambda env: cmp(lhs(env), rhs(env))
+        if isinstance(e, (sp.And, sp.Or)):
+            parts = [build(a) for a in e.args]
+            op = np.logical_and if isinstance(e, sp.And) else np.logical_or
+
+            def logic(env: dict[str, Any]) -> Any:
+                out = parts[0](env)
+                for f in parts[1:]:
+                    out = op(out, f(env))
+                return out
+
+            return logic
+        if isinstance(e, sp.Not):
+            arg = build(e.args[0])
+            return lambda env: np.logical_not(arg(env))
+        raise SheetError(f"cannot compile {type(e).__name__} in {e}")
+
+    return build(expr)
 
 
 class CompiledSheet:
@@ -54,6 +169,8 @@ class CompiledSheet:
     Call with arrays (or scalars) for any givens, as plain numbers in each given's own unit or
     as pint quantities; givens not passed keep the sheet's value. Returns a dict of arrays for
     every step (in its display unit, see :attr:`units`) and every check ratio (by check key).
+    Each step is a numpy closure over the display-unit values of what it uses, with the unit
+    factors folded in, so there are no separate conversion passes.
     """
 
     def __init__(self, sheet: Sheet) -> None:
@@ -61,100 +178,77 @@ class CompiledSheet:
         self.title = sheet.title
         self.units: dict[str, str] = {}
         self.given_units: dict[str, pint.Unit] = {}
-        self._given_scale: dict[str, float] = {}
-        self._defaults: dict[str, float] = {}
-        self._plan: list[tuple[str, Callable[[dict[str, Any]], Any]]] = []
+        self._defaults: dict[str, Any] = {}
+        self._plan: list[tuple[str, Fn]] = []
+        self._checks: list[str] = [c.key for c in result.checks]
         shown = {s.name: s.value for s in result.steps if hasattr(s, "name") and hasattr(s, "value")}
+        scale: dict[str, float] = {}  # display-unit value -> SI base value
         for name in sheet.order():
             step = sheet._defs[name]
             if isinstance(step, Given):
                 self.given_units[name] = step.value.units
-                self._given_scale[name] = _base_factor(step.value)
-                self._defaults[name] = float(step.value.magnitude) * self._given_scale[name]
+                scale[name] = _base_factor(step.value)
+                self._defaults[name] = float(step.value.magnitude)
                 self.units[name] = str(step.value.units)
                 continue
             if isinstance(step, Check):
-                self._plan.append((name, self._check_fn(step)))
+                d, c = step.demand, step.capacity
+                ratio_expr = sp.Mul(sp.Abs(sp.Symbol(d)), sp.Pow(sp.Symbol(c), -1), sp.Float(step.required_fs or 1.0), evaluate=False)
+                self._plan.append((name, compile_expr(ratio_expr, {d: 1.0, c: scale[c] / scale[d]})))
                 self.units[name] = ""
+                scale[name] = 1.0
                 continue
             out_unit = shown[name].units
-            to_display = 1.0 / _base_factor(Q_(1.0, out_unit))
+            k_out = _base_factor(Q_(1.0, out_unit))
+            inv_out = sp.Pow(sp.Float(k_out), -1, evaluate=False)
             self.units[name] = str(out_unit)
             if isinstance(step, FormulaStep):
-                fn = self._formula_fn(step.formula.names, step.formula.expr)
+                fn = compile_expr(sp.Mul(step.formula.expr, inv_out, evaluate=False), scale)
             elif isinstance(step, Branch):
-                fn = self._branch_fn(step)
+                fn = self._branch(step, scale, inv_out)
             elif isinstance(step, Select):
-                fn = self._select_fn(step)
+                func = sp.Min if step.mode == "min" else sp.Max
+                syms = [sp.Symbol(n) for n in step.candidates]
+                expr = syms[0] if len(syms) == 1 else func(*syms, evaluate=False)
+                fn = compile_expr(sp.Mul(expr, inv_out, evaluate=False), scale)
             else:  # pragma: no cover - every defining step kind is handled above
                 raise SheetError(f"cannot compile {type(step).__name__}")
             self._plan.append((name, fn))
-            self._display_scale = getattr(self, "_display_scale", {})
-            self._display_scale[name] = to_display
-        self._display_scale = getattr(self, "_display_scale", {})
-        self._checks = {s.key for s in result.checks}
+            scale[name] = k_out
 
     @staticmethod
-    def _formula_fn(names: tuple[str, ...], expr: sp.Basic) -> Callable[[dict[str, Any]], Any]:
-        f = _lambdify(names, expr)
-        return lambda env: f(*(env[n] for n in names))
-
-    def _branch_fn(self, step: Branch) -> Callable[[dict[str, Any]], Any]:
+    def _branch(step: Branch, scale: dict[str, float], inv_out: sp.Basic) -> Fn:
         parts = []
         for case in step.cases:
-            value = self._formula_fn(case.formula.names, case.formula.expr)
-            cond = self._formula_fn(case.condition.names, case.condition.expr) if case.condition else None
+            value = compile_expr(sp.Mul(case.formula.expr, inv_out, evaluate=False), scale)
+            cond = compile_expr(case.condition.expr, scale) if case.condition else None
             parts.append((cond, value))
 
         def run(env: dict[str, Any]) -> Any:
-            with np.errstate(all="ignore"):
-                out = parts[-1][1](env)
-                for cond, value in reversed(parts[:-1]):
-                    out = np.where(cond(env), value(env), out)
+            out = parts[-1][1](env)
+            for cond, value in reversed(parts[:-1]):
+                out = np.where(cond(env), value(env), out)
             return out
-
-        return run
-
-    @staticmethod
-    def _select_fn(step: Select) -> Callable[[dict[str, Any]], Any]:
-        names = list(step.candidates)
-        pick = _min if step.mode == "min" else _max
-        return lambda env: pick(*(env[n] for n in names))
-
-    @staticmethod
-    def _check_fn(step: Check) -> Callable[[dict[str, Any]], Any]:
-        req = step.required_fs
-
-        def run(env: dict[str, Any]) -> Any:
-            ratio = np.abs(env[step.demand]) / env[step.capacity]
-            return ratio * req if req is not None else ratio
 
         return run
 
     def _inputs(self, values: dict[str, Any]) -> dict[str, Any]:
         env: dict[str, Any] = dict(self._defaults)
         for name, v in values.items():
-            if name not in self._given_scale:
+            if name not in self.given_units:
                 raise SheetError(f"compiled sheet {self.title!r}: {name!r} is not a given")
             if isinstance(v, pint.Quantity):
                 v = v.to(self.given_units[name]).magnitude
-            env[name] = np.asarray(v, dtype=float) * self._given_scale[name]
+            env[name] = np.asarray(v, dtype=float)
         return env
 
     def __call__(self, **values: Any) -> dict[str, Any]:
-        """Evaluate for arrays of givens; returns every step and check ratio."""
+        """Evaluate for arrays of givens; returns every given, step and check ratio."""
         env = self._inputs(values)
-        for name, fn in self._plan:
-            env[name] = fn(env)
-        out: dict[str, Any] = {}
-        for name, value in env.items():
-            if name in self._display_scale:
-                out[name] = value * self._display_scale[name]
-            elif name in self._given_scale:
-                out[name] = value / self._given_scale[name]
-            else:
-                out[name] = value
-        return out
+        with np.errstate(all="ignore"):
+            for name, fn in self._plan:
+                env[name] = fn(env)
+        return env
 
     def ratios(self, **values: Any) -> dict[str, Any]:
         """Only the check ratios, by check key."""

@@ -36,7 +36,7 @@ __all__ = [
 
 ureg: pint.UnitRegistry = pint.UnitRegistry(
     autoconvert_offset_to_baseunit=True,
-    cache_folder=None,
+    cache_folder=":auto:",  # parsed definitions cached on disk: ~0.3 s faster start-up
 )
 ureg.formatter.default_sort_func = None  # keep kip·ft, not ft·kip
 # Trade units that pint does not define (common practice).
