@@ -12,7 +12,7 @@ import sys
 import tempfile
 from pathlib import Path
 
-__all__ = ["refresh_notebook", "main"]
+__all__ = ["main", "refresh_notebook"]
 
 KERNEL = "python3"
 
