@@ -1,0 +1,278 @@
+"""Drawings for analysis results: the frame model (members, supports, releases, loads), internal
+force diagrams on the frame, and shear / moment / deflection plots for one beam or member.
+
+matplotlib is imported lazily and only through its object-oriented API (``Figure`` with the Agg
+canvas): no pyplot state and no backend switching, so the figures work in scripts, tests and
+notebooks alike and can go straight into ``Sheet.figure``.
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING, Any
+
+import numpy as np
+
+from calcpad.core.errors import InputError
+
+if TYPE_CHECKING:  # pragma: no cover
+    from matplotlib.figure import Figure
+
+    from calcpad.eng.analysis.beams import BeamSolution
+    from calcpad.eng.analysis.frame import Frame, FrameResult
+
+__all__ = ["draw_frame", "draw_frame_diagram", "plot_beam", "plot_member", "png_bytes"]
+
+_LOAD = "#b03a2e"
+_MEMBER = "#1f3b57"
+_DEFL = "#2e86c1"
+
+
+def _figure(w: float = 7.0, h: float = 5.0) -> Figure:
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+    from matplotlib.figure import Figure
+
+    fig = Figure(figsize=(w, h))
+    FigureCanvasAgg(fig)
+    return fig
+
+
+def png_bytes(fig: Figure, dpi: int = 100) -> bytes:
+    """PNG of a figure (for ``IPython.display.Image`` or files); no date metadata, so reruns match."""
+    import io
+
+    buf = io.BytesIO()
+    fig.savefig(buf, format="png", dpi=dpi, bbox_inches="tight", metadata={"Software": None})
+    return buf.getvalue()
+
+
+def _extent(frame: Frame) -> float:
+    xy = np.array(list(frame.nodes.values()), dtype=float)
+    span = np.ptp(xy, axis=0).max() if len(xy) > 1 else 1.0
+    return float(span if span > 0 else 1.0)
+
+
+def _support(ax: Any, x: float, y: float, kind: tuple[bool, bool, bool], s: float) -> None:
+    from matplotlib.patches import Circle, Polygon, Rectangle
+
+    hx, hy, hr = kind
+    if hx and hy and hr:  # fixed: a hatched block
+        ax.add_patch(Rectangle((x - s, y - 0.6 * s), 2 * s, 0.6 * s, fill=False, hatch="////", ec="k", lw=1))
+        return
+    if hy:
+        tri = Polygon([[x, y], [x - 0.7 * s, y - s], [x + 0.7 * s, y - s]], closed=True, fill=False, ec="k", lw=1.2)
+        ax.add_patch(tri)
+        if not hx:  # roller on a horizontal surface
+            ax.add_patch(Circle((x, y - 1.2 * s), 0.2 * s, fill=False, ec="k"))
+            ax.plot([x - s, x + s], [y - 1.45 * s, y - 1.45 * s], "k-", lw=1)
+        else:
+            ax.plot([x - s, x + s], [y - s, y - s], "k-", lw=1)
+        return
+    if hx:  # holds x only: a triangle on its side
+        tri = Polygon([[x, y], [x - s, y - 0.7 * s], [x - s, y + 0.7 * s]], closed=True, fill=False, ec="k", lw=1.2)
+        ax.add_patch(tri)
+        ax.add_patch(Circle((x - 1.2 * s, y), 0.2 * s, fill=False, ec="k"))
+
+
+def draw_frame(
+    frame: Frame,
+    result: FrameResult | None = None,
+    case: str | None = None,
+    *,
+    show_loads: bool = True,
+    deflection_scale: float | None = None,
+    title: str | None = None,
+) -> Figure:
+    """Draw the frame model: members, node names, supports, end releases (open circles), the
+    loads of ``case`` and, with ``result``, the deflected shape (magnified automatically to
+    about 8 % of the frame size unless ``deflection_scale`` is given)."""
+    from matplotlib.patches import FancyArrowPatch
+
+    fig = _figure()
+    ax = fig.add_subplot(1, 1, 1)
+    ext = _extent(frame)
+    s = 0.03 * ext
+    for m in frame.members.values():
+        (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
+        ax.plot([x1, x2], [y1, y2], "-", color=_MEMBER, lw=2.5, solid_capstyle="round", zorder=2)
+        L = np.hypot(x2 - x1, y2 - y1)
+        ux, uy = (x2 - x1) / L, (y2 - y1) / L
+        ax.text((x1 + x2) / 2 - uy * s, (y1 + y2) / 2 + ux * s, m.name, fontsize=8, color=_MEMBER,
+                ha="center", va="center")
+        for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)):
+            if flag:
+                ax.plot(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s, "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
+    for n, (x, y) in frame.nodes.items():
+        ax.plot(x, y, "s", color="k", ms=3, zorder=3)
+        ax.text(x + 0.6 * s, y + 0.6 * s, n, fontsize=9, fontweight="bold")
+        if n in frame.supports:
+            _support(ax, x, y, frame.supports[n], s)
+    if show_loads and case is not None:
+        if case in frame.cases:
+            cases = {case: 1.0}
+        elif case in frame.combos:
+            cases = frame.combos[case]
+        else:
+            raise InputError(f"case {case!r} not found; expected one of {list(frame.cases) + list(frame.combos)}")
+        _draw_loads(ax, frame, cases, s, FancyArrowPatch)
+    if result is not None and case is not None:
+        dmax = 0.0
+        dgs = [result.diagram(m, case, n=31) for m in frame.members]
+        for dg in dgs:
+            x0 = np.array([frame.nodes[frame.members[dg.member].i]]).T
+            c, sn = result.direction(dg.member)
+            base = x0 + np.vstack([c * dg.x, sn * dg.x])
+            dmax = max(dmax, float(np.abs(np.vstack([dg.xg, dg.yg]) - base).max()))
+        scale = deflection_scale if deflection_scale is not None else (0.08 * ext / dmax if dmax > 0 else 1.0)
+        for dg in dgs:
+            m = frame.members[dg.member]
+            x0, y0 = frame.nodes[m.i]
+            c, sn = result.direction(dg.member)
+            bx, by = x0 + c * dg.x, y0 + sn * dg.x
+            ax.plot(bx + scale * (dg.xg - bx), by + scale * (dg.yg - by), "--", color=_DEFL, lw=1.2, zorder=1)
+        ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{scale:.3g}")
+        ax.legend(loc="best", fontsize=8)
+    ax.set_aspect("equal", adjustable="datalim")
+    ax.margins(0.15)
+    ax.set_xlabel(f"x [{frame.lu}]")
+    ax.set_ylabel(f"y [{frame.lu}]")
+    ax.set_title(title or ("Frame model" + (f" - {case}" if case else "")), fontsize=10)
+    ax.grid(alpha=0.2)
+    return fig
+
+
+def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arrow: Any) -> None:
+    L0 = 4 * s
+    nodal: dict[str, np.ndarray] = {}
+    for cn, f in factors.items():
+        case = frame.cases[cn]
+        for n, fx, fy, mz in case.node:
+            nodal[n] = nodal.get(n, np.zeros(3)) + f * np.array([fx, fy, mz])
+        for mname, w, d in case.udl:
+            m = frame.members[mname]
+            (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
+            L = np.hypot(x2 - x1, y2 - y1)
+            c, sn = (x2 - x1) / L, (y2 - y1) / L
+            dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
+            sign = np.sign(w * f) or 1.0
+            for t in np.linspace(0.05, 0.95, 7):
+                px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
+                ax.add_patch(Arrow((px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
+                                   arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
+            ax.text(x1 + 0.5 * (x2 - x1) - sign * dx * L0 * 0.8, y1 + 0.5 * (y2 - y1) - sign * dy * L0 * 0.8,
+                    f"{cn}: w={w:g}", fontsize=7, color=_LOAD, ha="center")
+        for mname, P, a, d in case.point:
+            m = frame.members[mname]
+            (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
+            L = np.hypot(x2 - x1, y2 - y1)
+            c, sn = (x2 - x1) / L, (y2 - y1) / L
+            dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
+            sign = np.sign(P * f) or 1.0
+            px, py = x1 + c * a, y1 + sn * a
+            ax.add_patch(Arrow((px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
+                               mutation_scale=12, color=_LOAD, lw=1.5))
+            ax.text(px - sign * dx * L0 * 1.1, py - sign * dy * L0 * 1.1, f"{cn}: {P:g}", fontsize=7, color=_LOAD)
+    for n, (fx, fy, mz) in nodal.items():
+        x, y = frame.nodes[n]
+        mag = np.hypot(fx, fy)
+        if mag > 0:
+            ux, uy = fx / mag, fy / mag
+            ax.add_patch(Arrow((x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
+                               color=_LOAD, lw=1.8))
+            ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{mag:.3g} {frame.fu}", fontsize=8, color=_LOAD,
+                    ha="center", va="center")
+        if mz:
+            ax.add_patch(Arrow((x + 1.5 * s, y - 1.0 * s), (x + 1.5 * s, y + 1.0 * s),
+                               connectionstyle=f"arc3,rad={0.8 if mz > 0 else -0.8}", arrowstyle="-|>",
+                               mutation_scale=10, color=_LOAD, lw=1.2))
+            ax.text(x + 2.6 * s, y, f"{mz:.3g} {frame.fu}·{frame.lu}", fontsize=7, color=_LOAD)
+
+
+def draw_frame_diagram(
+    result: FrameResult,
+    case: str,
+    quantity: str = "M",
+    *,
+    scale: float | None = None,
+    members: list[str] | None = None,
+) -> Figure:
+    """Draw ``N``, ``V`` or ``M`` of ``case`` on the frame, offset normal to each member (moment
+    on the tension side: positive M drawn on the member's local -y side). ``members`` limits the
+    diagram to some members (the others are drawn plain)."""
+    if quantity not in ("N", "V", "M"):
+        raise InputError(f"quantity: got {quantity!r}; expected 'N', 'V' or 'M'")
+    frame = result.frame
+    chosen = list(frame.members) if members is None else list(members)
+    for m in chosen:
+        if m not in frame.members:
+            raise InputError(f"members: {m!r} not found; expected some of {list(frame.members)}")
+    fig = _figure()
+    ax = fig.add_subplot(1, 1, 1)
+    ext = _extent(frame)
+    for m in frame.members.values():
+        if m.name not in chosen:
+            (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
+            ax.plot([x1, x2], [y1, y2], "-", color="0.6", lw=1.5)
+    dgs = [result.diagram(m, case, n=41) for m in chosen]
+    vmax = max(float(np.abs(getattr(dg, quantity)).max()) for dg in dgs)
+    k = scale if scale is not None else (0.12 * ext / vmax if vmax > 0 else 1.0)
+    unit = result.units["moment"] if quantity == "M" else result.units["force"]
+    sgn = -1.0 if quantity == "M" else 1.0
+    for dg in dgs:
+        m = frame.members[dg.member]
+        (x1, y1) = frame.nodes[m.i]
+        c, sn = result.direction(dg.member)
+        bx, by = x1 + c * dg.x, y1 + sn * dg.x
+        val = getattr(dg, quantity)
+        ox, oy = bx + sgn * k * val * (-sn), by + sgn * k * val * c
+        ax.plot(bx, by, "-", color=_MEMBER, lw=2)
+        ax.fill(np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]], color=_LOAD, alpha=0.25, lw=0)
+        ax.plot(ox, oy, "-", color=_LOAD, lw=1)
+        for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
+            if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
+                ax.text(ox[idx], oy[idx], f"{val[idx]:.3g}", fontsize=7, color=_LOAD)
+    ax.set_aspect("equal", adjustable="datalim")
+    ax.margins(0.15)
+    ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
+    ax.grid(alpha=0.2)
+    return fig
+
+
+def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
+    fig = _figure(7.0, 2.1 * len(rows))
+    axes = [fig.add_subplot(len(rows), 1, i + 1) for i in range(len(rows))]
+    for ax, (lab, y, unit) in zip(axes, rows, strict=True):
+        ax.plot(x, y, color=_MEMBER, lw=1.5)
+        ax.fill_between(x, 0, y, color=_MEMBER, alpha=0.15)
+        ax.axhline(0, color="k", lw=0.6)
+        i = int(np.argmax(np.abs(y)))
+        ax.plot(x[i], y[i], "o", color=_LOAD, ms=4)
+        ax.annotate(f"{y[i]:.4g} {unit}\n@ {x[i]:.4g}", (x[i], y[i]), fontsize=7, color=_LOAD,
+                    xytext=(4, 4), textcoords="offset points")
+        ax.set_ylabel(f"{lab} [{unit}]", fontsize=8)
+        ax.grid(alpha=0.2)
+    axes[0].set_title(title, fontsize=10)
+    axes[-1].set_xlabel(xlabel)
+    fig.tight_layout()
+    return fig
+
+
+def plot_beam(sol: BeamSolution, title: str = "Beam") -> Figure:
+    """Shear, moment and (when available) deflection along a :class:`BeamSolution`."""
+    u = sol.units
+    rows = [("V", sol.V, u.get("force", "")), ("M", sol.M, u.get("moment", ""))]
+    if sol.delta is not None:
+        rows.append(("deflection (down +)", sol.delta, u.get("length", "")))
+    return _three_panels(sol.x, rows, title, f"x [{u.get('length', '')}]")
+
+
+def plot_member(result: FrameResult, member: str, case: str, quantities: tuple[str, ...] = ("N", "V", "M", "delta_rel")) -> Figure:
+    """Diagrams along one frame member (``N``, ``V``, ``M``, ``v`` or ``delta_rel``)."""
+    dg = result.diagram(member, case, n=81)
+    units = {"N": result.units["force"], "V": result.units["force"], "M": result.units["moment"],
+             "v": result.units["length"], "delta_rel": result.units["length"], "u": result.units["length"]}
+    rows = []
+    for q in quantities:
+        if q not in units:
+            raise InputError(f"quantities: {q!r}; expected some of {list(units)}")
+        rows.append((q, getattr(dg, q), units[q]))
+    return _three_panels(dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
