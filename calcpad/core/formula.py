@@ -122,14 +122,22 @@ class _Builder(ast.NodeVisitor):
     def visit_BinOp(self, node: ast.BinOp) -> sp.Basic:
         left, right = self.visit(node.left), self.visit(node.right)
         op = node.op
-        if isinstance(op, ast.Add):
-            return sp.Add(left, right, evaluate=False)
-        if isinstance(op, ast.Sub):
-            return sp.Add(left, sp.Mul(sp.Integer(-1), right, evaluate=False), evaluate=False)
+        # a chain a*b*c (or a + b - c) becomes one flat node, as written, not ((a*b)*c)
+        chained = isinstance(node.left, ast.BinOp)
+        if isinstance(op, (ast.Add, ast.Sub)):
+            term = right if isinstance(op, ast.Add) else sp.Mul(sp.Integer(-1), right, evaluate=False)
+            lead = list(left.args) if chained and isinstance(node.left.op, (ast.Add, ast.Sub)) and isinstance(left, sp.Add) else [left]
+            return sp.Add(*lead, term, evaluate=False)
         if isinstance(op, ast.Mult):
-            return sp.Mul(left, right, evaluate=False)
+            negated = isinstance(node.left, ast.UnaryOp) and isinstance(node.left.op, ast.USub) and isinstance(left, sp.Mul)
+            flat = (chained and isinstance(node.left.op, ast.Mult)) or negated
+            lead = list(left.args) if flat and isinstance(left, sp.Mul) else [left]
+            return sp.Mul(*lead, right, evaluate=False)
         if isinstance(op, ast.Div):
-            return sp.Mul(left, sp.Pow(right, sp.Integer(-1), evaluate=False), evaluate=False)
+            negated = isinstance(node.left, ast.UnaryOp) and isinstance(node.left.op, ast.USub)
+            flat = (chained and isinstance(node.left.op, ast.Mult)) or negated
+            lead = list(left.args) if flat and isinstance(left, sp.Mul) else [left]
+            return sp.Mul(*lead, sp.Pow(right, sp.Integer(-1), evaluate=False), evaluate=False)
         if isinstance(op, ast.Pow):
             return sp.Pow(left, right, evaluate=False)
         symbol = {ast.BitXor: "'^' (write powers as **)", ast.FloorDiv: "'//'", ast.Mod: "'%'", ast.MatMult: "'@'"}

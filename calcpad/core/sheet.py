@@ -67,6 +67,18 @@ def _slug(text: str) -> str:
     return slug or "check"
 
 
+def _column_scale(rows: list[list[Any]], j: int) -> float:
+    """Largest magnitude of the numeric cells in column ``j`` (0 when none)."""
+    mags = []
+    for row in rows:
+        v = row[j] if j < len(row) else None
+        if isinstance(v, pint.Quantity):
+            mags.append(abs(float(v.magnitude)))
+        elif isinstance(v, float):
+            mags.append(abs(v))
+    return max(mags, default=0.0)
+
+
 class Sheet:
     """An ordered calc sheet of givens, steps, branches, selections and checks.
 
@@ -294,13 +306,18 @@ class Sheet:
                 raise SheetError(f"table {title!r}: give columns= with a list of rows")
             cols = [str(c) for c in columns]
             raw_rows = data
-        rows = [[self._cell(v) for v in row] for row in raw_rows]
+        raw_rows = [list(r) for r in raw_rows]
+        rows = [[self._cell(v, _column_scale(raw_rows, j)) for j, v in enumerate(row)] for row in raw_rows]
         for i, row in enumerate(rows):
             if len(row) != len(cols):
                 raise SheetError(f"table {title!r}: row {i + 1} has {len(row)} cells; expected {len(cols)}")
         self._add(Table(title, cols, rows, note))
 
-    def _cell(self, v: Any) -> str:
+    def _cell(self, v: Any, scale: float = 0.0) -> str:
+        if isinstance(v, (pint.Quantity, float)) and scale > 0:
+            mag = float(v.magnitude) if isinstance(v, pint.Quantity) else v
+            if abs(mag) < 1e-9 * scale:  # round-off noise from an analysis, e.g. 1.8e-16
+                v = v * 0.0
         if isinstance(v, pint.Quantity):
             unit = self.prefs.unit_for(v)
             return f"{format_number(v.to(unit).magnitude, self.prefs.sig)} {unit_symbol(unit)}".strip()
@@ -449,7 +466,8 @@ class Sheet:
             tested = i
             if raw is not None:
                 lhs, rhs = raw
-                lhs = lhs.to(self.prefs.unit_for(lhs))
+                if not isinstance(case.condition.expr.lhs, sp.Symbol):  # a name keeps its own unit
+                    lhs = lhs.to(self.prefs.unit_for(lhs))
                 sides = (lhs, rhs.to(lhs.units))
             if held:
                 chosen = i

@@ -33,6 +33,24 @@ __all__ = [
 ]
 
 
+# ---------------------------------------------------------------- products as written
+
+
+def split_product(expr: sp.Mul) -> tuple[bool, list[sp.Basic], list[sp.Basic]]:
+    """(negative, numerator factors, denominator factors) of a product in the author's order.
+
+    sympy's printers re-split unevaluated products with ``fraction()``, which mangles forms such
+    as ``x/(D_o/2)``; our printers use this instead.
+    """
+    args = list(expr.args)
+    negative = False
+    if args and args[0] == -1:
+        negative, args = True, args[1:]
+    num = [a for a in args if not (isinstance(a, sp.Pow) and a.exp.is_Number and a.exp < 0)]
+    den = [a.base if a.exp == -1 else sp.Pow(a.base, -a.exp, evaluate=False) for a in args if a not in num]
+    return negative, num, den
+
+
 # ---------------------------------------------------------------- values with units
 
 
@@ -106,6 +124,20 @@ class _SymbolicLatex(LatexPrinter):
     def _print_Float(self, expr: sp.Float) -> str:
         return _float_text(expr, "latex")
 
+    mul_sep = r" \cdot "
+
+    def _factor(self, e: sp.Basic) -> str:
+        text = self._print(e)
+        if isinstance(e, sp.Add) or (isinstance(e, sp.Mul) and e.args and e.args[0] == -1):
+            return rf"\left({text}\right)"
+        return text
+
+    def _print_Mul(self, expr: sp.Mul) -> str:
+        negative, num, den = split_product(expr)
+        top = self.mul_sep.join(self._factor(f) for f in num) if num else "1"
+        body = top if not den else rf"\frac{{{top}}}{{{self.mul_sep.join(self._factor(f) for f in den)}}}"
+        return ("- " if negative else "") + body
+
 
 def _float_text(expr: sp.Float, style: str) -> str:
     value = float(expr)
@@ -118,8 +150,7 @@ def _float_text(expr: sp.Float, style: str) -> str:
 class _SubstitutedLatex(_SymbolicLatex):
     def __init__(self, values: Mapping[str, pint.Quantity], sigs: Mapping[str, int], sig: int) -> None:
         super().__init__()
-        self._settings["mul_symbol_latex"] = r" \times "
-        self._settings["mul_symbol_latex_numbers"] = r" \times "
+        self.mul_sep = r" \times "
         self.values = values
         self.sigs = sigs
         self.sig = sig
@@ -286,8 +317,22 @@ class _SymbolicText(StrPrinter):
         text = super()._print_Pow(expr)
         return text.replace("**", "^")
 
+    mul_sep = "·"
+
+    def _factor(self, e: sp.Basic, in_den: bool = False) -> str:
+        text = self._print(e)
+        wrap = isinstance(e, sp.Add) or (isinstance(e, sp.Mul) and (in_den or (e.args and e.args[0] == -1)))
+        return f"({text})" if wrap else text
+
     def _print_Mul(self, expr: sp.Mul) -> str:
-        return super()._print_Mul(expr).replace("*", "·")
+        negative, num, den = split_product(expr)
+        top = self.mul_sep.join(self._factor(f) for f in num) if num else "1"
+        if den:
+            bottom = self.mul_sep.join(self._factor(f, True) for f in den)
+            if len(den) > 1:
+                bottom = f"({bottom})"
+            top = f"{top}/{bottom}"
+        return ("-" if negative else "") + top
 
     def _print_Min(self, expr: sp.Min) -> str:
         return "min(" + ", ".join(self._print(a) for a in expr.args) + ")"
@@ -318,8 +363,7 @@ class _SubstitutedText(_SymbolicText):
             return f"({quantity_text(q, self.sigs.get(base.name, self.sig))})^{self._print(exp)}"
         return super()._print_Pow(expr, rational)
 
-    def _print_Mul(self, expr: sp.Mul) -> str:
-        return StrPrinter._print_Mul(self, expr).replace("*", " × ")
+    mul_sep = " × "
 
 
 def symbolic_text(expr: sp.Basic) -> str:

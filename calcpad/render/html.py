@@ -70,6 +70,8 @@ def _row(desc: str, math: str, ref: str, extra: str = "") -> str:
 
 def _formula_ml(f: FormulaResult) -> str:
     sym = symbolic_mathml(f.expr)
+    if f.expr.is_Number:  # a value written into the formula
+        return _m(f"{name_mathml(f.name)}<mo>=</mo>{sym}")
     sub = substituted_mathml(f.expr, f.values, f.sigs, f.sig)
     res = quantity_mathml(f.value, f.sig)
     parts = [name_mathml(f.name), sym]
@@ -83,6 +85,12 @@ _REL = {"<": "&lt;", "<=": "&#x2264;", ">": "&gt;", ">=": "&#x2265;"}
 _FLIP = {"<": ">=", "<=": ">", ">": "<=", ">=": "<"}
 
 
+def _side(expr: object, value: object) -> str:
+    if getattr(expr, "is_Number", False):
+        return symbolic_mathml(expr)
+    return f"{symbolic_mathml(expr)}<mo>=</mo>{quantity_mathml(value)}"
+
+
 def _branch(b: BranchResult) -> str:
     out = []
     cond = b.cases[b.tested].condition
@@ -90,10 +98,7 @@ def _branch(b: BranchResult) -> str:
     if cond is not None and b.condition_sides is not None and hasattr(cond, "rel_op"):
         lhs, rhs = b.condition_sides
         op = cond.rel_op if b.condition_held else _FLIP[cond.rel_op]
-        test = (
-            f"{symbolic_mathml(cond.lhs)}<mo>=</mo>{quantity_mathml(lhs)}<mo>{_REL[op]}</mo>"
-            f"{symbolic_mathml(cond.rhs)}<mo>=</mo>{quantity_mathml(rhs)}"
-        )
+        test = f"{_side(cond.lhs, lhs)}<mo>{_REL[op]}</mo>{_side(cond.rhs, rhs)}"
         out.append(_row(_e(b.description), _m(test) + f" &#x21D2; use {_e(label)}", _e(b.ref)))
         out.append(_row("", _formula_ml(b.formula), _e(label)))
     else:

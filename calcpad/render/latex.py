@@ -46,6 +46,8 @@ def _text(s: str) -> str:
 def formula_line_latex(f: FormulaResult) -> str:
     """``M = P \\cdot L = 250\\ lbf \\times 84\\ in = 1.750\\ kip \\cdot ft``."""
     sym = symbolic_latex(f.expr)
+    if f.expr.is_Number:  # a value written into the formula
+        return f"{name_latex(f.name)} = {sym}"
     parts = [name_latex(f.name), sym]
     sub = substituted_latex(f.expr, f.values, f.sigs, f.sig)
     result = quantity_latex(f.value, f.sig)
@@ -63,7 +65,13 @@ def _condition_latex(b: BranchResult) -> str:
     rel = REL_LATEX[cond.rel_op]
     if not b.condition_held:  # show the test as it came out
         rel = {r"\le": ">", "<": r"\ge", r"\ge": "<", ">": r"\le"}[rel]
-    return rf"{symbolic_latex(cond.lhs)} = {quantity_latex(lhs)} \; {rel} \; {symbolic_latex(cond.rhs)} = {quantity_latex(rhs)}"
+    return rf"{_side(cond.lhs, lhs)} \; {rel} \; {_side(cond.rhs, rhs)}"
+
+
+def _side(expr: object, value: object) -> str:
+    if getattr(expr, "is_Number", False):
+        return symbolic_latex(expr)
+    return f"{symbolic_latex(expr)} = {quantity_latex(value)}"
 
 
 def step_latex(step: object) -> list[tuple[str, str, str]]:

@@ -28,8 +28,17 @@ def _formula(f: FormulaResult) -> str:
     sym = symbolic_text(f.expr)
     sub = substituted_text(f.expr, f.values, f.sigs, f.sig)
     res = quantity_text(f.value, f.sig)
+    if f.expr.is_Number:  # a value written into the formula: "GC_r = 1.9", not "1.9 = 1.900"
+        return f"{name_text(f.name)} = {sym}"
     parts = [name_text(f.name), sym] + ([sub] if sub not in (sym, res) else []) + [res]
     return " = ".join(parts)
+
+
+def _side(expr: object, value: object) -> str:
+    """One side of a branch test: ``KL_r = 85.3``, or just ``0.1`` when it is a number."""
+    if getattr(expr, "is_Number", False):
+        return symbolic_text(expr)
+    return f"{symbolic_text(expr)} = {quantity_text(value)}"
 
 
 def _with(line: str, desc: str, ref: str) -> str:
@@ -51,7 +60,7 @@ def step_text(step: object) -> list[str]:
         if cond is not None and step.condition_sides is not None and hasattr(cond, "rel_op"):
             lhs, rhs = step.condition_sides
             rel = _REL[cond.rel_op] if step.condition_held else _FLIP[cond.rel_op]
-            test = f"{symbolic_text(cond.lhs)} = {quantity_text(lhs)} {rel} {symbolic_text(cond.rhs)} = {quantity_text(rhs)} → use {label}"
+            test = f"{_side(cond.lhs, lhs)} {rel} {_side(cond.rhs, rhs)} → use {label}"
             lines.append(_with(test, step.description, step.ref))
             lines.append("    " + _with(_formula(step.formula), "", label))
         else:

@@ -119,3 +119,18 @@ def test_si_display():
     sh.step("M", "P*L")
     assert str(sh["M"].units) == "kilonewton * meter"
     assert sh["M"].magnitude == pytest.approx(1.8)
+
+
+def test_products_print_flat_as_written():
+    sh = Sheet("flat")
+    for name, value in (("c_q", "0.00256 psf/mph**2"), ("K_z", 0.97), ("K_d", 0.85), ("V", "115 mph"), ("D_o", "2 in")):
+        sh.given(name, value)
+    sh.step("q_z", "c_q*K_z*K_d*V**2")
+    sh.step("S", "D_o**3/(D_o/2)")
+    sh.step("G", "0.85")
+    text = sheet_text(sh.evaluate())
+    assert "q_z = c_q·K_z·K_d·V^2 = 0.00256 psf/mph² × 0.97 × 0.85 × (115 mph)^2 = " in text
+    assert "S = D_o^3/(D_o/2) = " in text
+    assert "G = 0.85\n" in text  # a number written into a formula is not repeated
+    latex = sheet_latex(sh.evaluate())
+    assert r"\frac{D_{o}^{3}}{\frac{D_{o}}{2}}" in latex
