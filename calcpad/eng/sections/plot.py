@@ -1,0 +1,53 @@
+"""Drawings of section outlines (matplotlib figures for sheets and notebooks)."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from typing import Any
+
+import numpy as np
+
+__all__ = ["draw_sections"]
+
+_FILLS = ["#9fb7cf", "#e0b27a", "#a9cf9f", "#cf9fb7", "#c9c39b"]
+
+
+def _members(section: Any) -> list[tuple[str, list[Any]]]:
+    if hasattr(section, "members"):
+        return [(m.label, m.regions()) for m in section.members]
+    return [(section.name, section.regions())]
+
+
+def draw_sections(sections: Sequence[Any], titles: Sequence[str] | None = None, *, size: float = 3.2) -> Any:
+    """Side-by-side drawings of shapes or built-up sections, each with its centroid marked.
+
+    Returns a matplotlib ``Figure`` (for ``sheet.figure(...)`` or display); uses the ``Agg``
+    canvas, so no display is needed.
+    """
+    from matplotlib.figure import Figure
+    from matplotlib.patches import PathPatch
+    from matplotlib.path import Path
+
+    fig = Figure(figsize=(size * len(sections), size), layout="constrained")
+    axes = fig.subplots(1, len(sections), squeeze=False)[0]
+    for k, (ax, sec) in enumerate(zip(axes, sections, strict=True)):
+        for i, (label, regions) in enumerate(_members(sec)):
+            verts: list[np.ndarray] = []
+            codes: list[int] = []
+            for reg in regions:
+                for ring in reg.rings():
+                    closed = np.vstack([ring, ring[:1]])
+                    verts.append(closed)
+                    codes += [Path.MOVETO] + [Path.LINETO] * (len(ring) - 1) + [Path.CLOSEPOLY]
+            path = Path(np.vstack(verts), codes)
+            ax.add_patch(PathPatch(path, facecolor=_FILLS[i % len(_FILLS)], edgecolor="#333333", lw=0.8, label=label))
+        c = sec.moments().central()
+        ax.plot([c.xc], [c.yc], marker="+", color="#b00020", ms=10, mew=1.5)
+        ax.set_aspect("equal")
+        ax.autoscale_view()
+        ax.margins(0.08)
+        ax.set_xlabel("x (in)")
+        ax.set_ylabel("y (in)")
+        ax.set_title(titles[k] if titles else getattr(sec, "name", ""), fontsize=9)
+        ax.legend(fontsize=7, loc="upper center", bbox_to_anchor=(0.5, -0.22), frameon=False, ncol=2)
+    return fig
