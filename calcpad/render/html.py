@@ -38,10 +38,10 @@ math { font-family: "Latin Modern Math", "DejaVu Math TeX Gyre", "STIX Two Math"
 h1 { font-size: 1.35em; border-bottom: 2px solid #333; padding-bottom: .2em; }
 h2 { font-size: 1.15em; margin-top: 1.2em; border-bottom: 1px solid #999; }
 h3 { font-size: 1.0em; margin: 1em 0 .3em; }
-.step { display: grid; grid-template-columns: 14em 1fr 11em; gap: .2em 1em; padding: .25em 0; break-inside: avoid; border-bottom: 1px dotted #ccc; }
+.step { display: grid; grid-template-columns: 14em minmax(0, 1fr) 11em; gap: .2em 1em; padding: .25em 0; break-inside: avoid; border-bottom: 1px dotted #ccc; }
 .desc { color: #333; }
 .ref { color: #555; font-size: .88em; text-align: right; }
-.line { overflow-wrap: anywhere; }
+.line { overflow-wrap: anywhere; min-width: 0; overflow-x: auto; } .line math { max-width: 100%; } .cont { display: inline-block; margin-left: .25em; }
 .check { background: #f6f6f6; }
 .status { font-weight: bold; padding: 0 .4em; border: 1px solid #333; border-radius: 2px; }
 .status.NG { background: #111; color: #fff; }
@@ -78,7 +78,9 @@ def _formula_ml(f: FormulaResult) -> str:
     if sub != sym and sub.replace("<mrow>", "").replace("</mrow>", "") != res.replace("<mrow>", "").replace("</mrow>", ""):
         parts.append(sub)
     parts.append(res)
-    return _m("<mo>=</mo>".join(parts))
+    # one <math> per part so a long line wraps between "= ..." parts (MathML does not line-break)
+    head = _m(f"{parts[0]}<mo>=</mo>{parts[1]}")
+    return head + "".join(f'<span class="cont">{_m("<mo>=</mo>" + p)}</span>' for p in parts[2:])
 
 
 _REL = {"<": "&lt;", "<=": "&#x2264;", ">": "&gt;", ">=": "&#x2265;"}
