@@ -16,7 +16,9 @@ $(STAMP): pyproject.toml
 	touch $(STAMP)
 
 demo: $(STAMP)
-	$(PY) -m calcpad.cli demo
+	$(PY) -m calcpad.cli run examples/harbor_ridge_condenser_stand.toml --out build/demo; \
+	  rc=$$?; if [ $$rc -gt 1 ]; then exit $$rc; fi; \
+	  echo "submittal: $(CURDIR)/build/demo/submittal.html (record: build/demo/record.json)"
 
 test: $(STAMP)
 	$(VENV)/bin/ruff check calcpad tests benchmarks
@@ -28,6 +30,7 @@ lint: $(STAMP)
 
 benchmark: $(STAMP)
 	$(PY) benchmarks/bench_core.py
+	$(PY) benchmarks/bench_runner.py
 
 clean:
 	rm -rf $(VENV) build

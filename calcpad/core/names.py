@@ -7,6 +7,7 @@ multi-letter names print as one italic word, not a product of letters).
 from __future__ import annotations
 
 import functools
+import keyword
 import re
 
 __all__ = ["NAME_PATTERN", "is_valid_name", "name_latex", "name_mathml", "name_text", "split_name"]
@@ -46,8 +47,9 @@ _LATIN_LOOKALIKE = {"Alpha", "Beta", "Epsilon", "Zeta", "Eta", "Iota", "Kappa", 
 
 
 def is_valid_name(name: str) -> bool:
-    """True when ``name`` can name a given or step (letters, digits, underscores; starts with a letter)."""
-    return bool(NAME_PATTERN.match(name)) and "__" not in name and not name.endswith("_")
+    """True when ``name`` can name a given or step (letters, digits, underscores; starts with a
+    letter; not a Python keyword such as ``lambda``, which a formula could not use)."""
+    return bool(NAME_PATTERN.match(name)) and "__" not in name and not name.endswith("_") and not keyword.iskeyword(name)
 
 
 def split_name(name: str) -> tuple[str, list[str]]:

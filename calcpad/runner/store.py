@@ -32,6 +32,7 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
     fd, tmp = tempfile.mkstemp(dir=target.parent, suffix=".ipynb.tmp")
     with os.fdopen(fd, "w", encoding="utf-8") as fh:
         nbformat.write(nb, fh)
+    os.chmod(tmp, 0o644)  # mkstemp makes 0600 files; notebooks are ordinary repo files
     os.replace(tmp, target)
     return target
 

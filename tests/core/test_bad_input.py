@@ -104,3 +104,9 @@ def test_check_capacity_must_be_positive_and_same_kind():
     sh2.check("mixed", "d", "L")
     with pytest.raises(DimensionError, match="different kinds"):
         sh2.evaluate()
+
+
+def test_keyword_names_rejected_at_definition():
+    sh = Sheet("kw")
+    with pytest.raises(SheetError, match="'lambda' is not a valid name"):
+        sh.given("lambda", 2.0)

@@ -1,0 +1,45 @@
+"""Member checks per AISC 360-16 (ASD and LRFD), yield-based stress checks and welds.
+
+Each ``add_*`` function writes traceable steps (given, formula, branch, selection) on a
+:class:`~calcpad.core.sheet.Sheet` with the clause or equation number as reference and ends
+with a check. The available strength uses φ (LRFD) or Ω (ASD) per ``sheet.method``.
+
+Sections come from :mod:`calcpad.eng.sections` (shape objects) or as a mapping of properties
+with ``kind=`` (see :data:`calcpad.eng.checks._section.PROPS`). Limit states outside the
+scope raise :class:`CheckNotCoveredError` ("... is not covered by this check").
+"""
+
+from __future__ import annotations
+
+from calcpad.eng.checks._common import RESISTANCE, CheckInputError, CheckNotCoveredError, CheckWarning
+from calcpad.eng.checks._section import KINDS, PROPS, resolve_section
+from calcpad.eng.checks.classify import add_classification
+from calcpad.eng.checks.combined import add_interaction_check
+from calcpad.eng.checks.compression import add_compression_check
+from calcpad.eng.checks.flexure import add_flexure_check
+from calcpad.eng.checks.member import MemberChecks, check_member
+from calcpad.eng.checks.shear import add_shear_check
+from calcpad.eng.checks.stress import add_stress_check
+from calcpad.eng.checks.tension import add_tension_check
+from calcpad.eng.checks.welds import add_fillet_weld_check, add_stitch_weld_check
+
+__all__ = [
+    "KINDS",
+    "PROPS",
+    "RESISTANCE",
+    "CheckInputError",
+    "CheckNotCoveredError",
+    "CheckWarning",
+    "MemberChecks",
+    "add_classification",
+    "add_compression_check",
+    "add_fillet_weld_check",
+    "add_flexure_check",
+    "add_interaction_check",
+    "add_shear_check",
+    "add_stitch_weld_check",
+    "add_stress_check",
+    "add_tension_check",
+    "check_member",
+    "resolve_section",
+]

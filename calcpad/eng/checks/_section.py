@@ -1,0 +1,174 @@
+"""Reading a section for the checks: a catalog/closed-form shape, a SectionProps, or a mapping.
+
+The checks need a shape *kind* (which AISC 360-16 rules apply) and named properties. A shape
+from :mod:`calcpad.eng.sections` gives both; a mapping of property names to values with units
+(``{"A": "4.21 in^2", "I": "17.5 in^4", ...}``) needs ``kind=``.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any
+
+from calcpad.core.units import parse_quantity
+from calcpad.eng.checks._common import CheckInputError, CheckNotCoveredError
+
+__all__ = ["KINDS", "PROPS", "Sec", "resolve_section"]
+
+#: Shape kinds the checks know.
+KINDS: dict[str, str] = {
+    "round_hss": "round HSS / pipe",
+    "rect_hss": "rectangular or square HSS",
+    "i_shape": "doubly symmetric I-shape (W)",
+    "angle": "single angle",
+    "rect_bar": "solid rectangular bar",
+    "round_bar": "solid round bar",
+}
+
+#: Property name -> (unit, description).
+PROPS: dict[str, tuple[str, str]] = {
+    "A": ("in**2", "Gross area"),
+    "Ix": ("in**4", "Moment of inertia about x"),
+    "Iy": ("in**4", "Moment of inertia about y"),
+    "Sx": ("in**3", "Elastic section modulus about x"),
+    "Sy": ("in**3", "Elastic section modulus about y"),
+    "Zx": ("in**3", "Plastic section modulus about x"),
+    "Zy": ("in**3", "Plastic section modulus about y"),
+    "rx": ("in", "Radius of gyration about x"),
+    "ry": ("in", "Radius of gyration about y"),
+    "r_min": ("in", "Least radius of gyration"),
+    "J": ("in**4", "Torsional constant"),
+    "D": ("in", "Outside diameter"),
+    "t": ("in", "Design wall / leg thickness"),
+    "H": ("in", "Overall depth (along y)"),
+    "B": ("in", "Overall width (along x)"),
+    "d": ("in", "Overall depth"),
+    "bf": ("in", "Flange width"),
+    "tf": ("in", "Flange thickness"),
+    "tw": ("in", "Web thickness"),
+    "b": ("in", "Leg width"),
+    "D_t": ("", "Diameter-to-thickness ratio"),
+    "b_t": ("", "Width-to-thickness ratio of the flange / wall"),
+    "h_t": ("", "Width-to-thickness ratio of the web / wall"),
+    "bf_2tf": ("", "Flange width-to-thickness ratio bf/(2 tf)"),
+    "h_tw": ("", "Web height-to-thickness ratio h/tw"),
+}
+
+_CLASS_KIND = {
+    "RoundTube": "round_hss",
+    "RectTube": "rect_hss",
+    "IShape": "i_shape",
+    "Angle": "angle",
+    "RectBar": "rect_bar",
+    "RoundBar": "round_bar",
+}
+
+
+@dataclass
+class Sec:
+    """A section as the checks read it: kind, label, float properties in inch units."""
+
+    kind: str
+    label: str
+    values: dict[str, float]
+    source: str = ""
+    notes: list[str] = field(default_factory=list)
+
+    def get(self, name: str) -> float | None:
+        """Property in inch units, or None."""
+        return self.values.get(name)
+
+    def need(self, name: str, check: str) -> float:
+        """Property in inch units; a clear error when missing."""
+        v = self.values.get(name)
+        if v is None:
+            unit, desc = PROPS.get(name, ("", name))
+            raise CheckInputError(f"section[{name!r}]", None, f"{desc.lower()} ({unit or 'ratio'}) for the {check}")
+        return v
+
+
+def _from_shape(shape: Any) -> Sec:
+    kind = _CLASS_KIND.get(type(shape).__name__)
+    if kind is None:
+        raise CheckNotCoveredError("section", type(shape).__name__, f"the checks cover {', '.join(KINDS.values())}")
+    p = shape.props
+    v: dict[str, float] = {
+        "A": p.A, "Ix": p.Ix, "Iy": p.Iy, "Sx": p.Sx, "Sy": p.Sy, "Zx": p.Zx, "Zy": p.Zy,
+        "rx": p.rx, "ry": p.ry, "r_min": p.r_min, "J": p.J,
+    }
+    if kind == "round_hss":
+        v.update(D=shape.D, t=shape.t, D_t=shape.D / shape.t)
+    elif kind == "rect_hss":
+        v.update(H=shape.H, B=shape.B, t=shape.t, b_t=p.ratios["b/t"], h_t=p.ratios["h/t"])
+    elif kind == "i_shape":
+        v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_2tf=shape.bf / (2 * shape.tf), h_tw=p.ratios["h/tw"])
+    elif kind == "angle":
+        v.update(d=shape.d, b=shape.b, t=shape.t, b_t=max(shape.d, shape.b) / shape.t)
+    elif kind == "rect_bar":
+        v.update(H=shape.H, B=shape.B)
+    elif kind == "round_bar":
+        v.update(D=shape.D)
+    notes = list(getattr(p, "notes", []))
+    return Sec(kind, shape.name, v, "section properties computed by calcpad.eng.sections", notes)
+
+
+def resolve_section(section: Any, kind: str | None = None) -> Sec:
+    """Read ``section`` (shape object, SectionProps-like, or mapping) into a :class:`Sec`.
+
+    Raises:
+        CheckInputError: unknown kind, a property that is not a positive value of the right unit.
+        CheckNotCoveredError: a shape type the checks do not cover.
+    """
+    if isinstance(section, Sec):
+        return section
+    if section is not None and hasattr(section, "props") and hasattr(section, "moments"):
+        sec = _from_shape(section)
+        if kind is not None and kind != sec.kind:
+            raise CheckInputError("kind", kind, f"{sec.kind!r} for a {type(section).__name__} (or leave kind out)")
+        return sec
+    if hasattr(section, "as_dict") and hasattr(section, "Ix") and hasattr(section, "ratios"):
+        # a SectionProps record (e.g. of a built-up section): its kind must be named
+        if kind not in KINDS:
+            raise CheckInputError("kind", kind, f"one of {', '.join(KINDS)} for a SectionProps record")
+        values = {k: float(v) for k, v in section.as_dict().items() if k in PROPS}
+        _derive(kind, values)
+        return Sec(kind, str(getattr(section, "name", KINDS[kind])), values, "section properties record")
+    if isinstance(section, Mapping):
+        k = kind or section.get("kind")
+        if k not in KINDS:
+            raise CheckInputError("kind", k, f"one of {', '.join(KINDS)} for a section given as a mapping")
+        values: dict[str, float] = {}
+        for name, raw in section.items():
+            if name in ("kind", "name"):
+                continue
+            if name not in PROPS:
+                raise CheckInputError(f"section[{name!r}]", raw, f"one of the property names {', '.join(PROPS)}")
+            unit, desc = PROPS[name]
+            q = parse_quantity(raw, f"section[{name!r}]", expected=unit or None)
+            if unit == "" and not q.dimensionless:
+                raise CheckInputError(f"section[{name!r}]", raw, "a plain number (ratio)")
+            x = float(q.to(unit).magnitude) if unit else float(q.magnitude)
+            if not (math.isfinite(x) and x > 0):
+                raise CheckInputError(f"section[{name!r}]", raw, f"a positive {desc.lower()}")
+            values[name] = x
+        _derive(k, values)
+        return Sec(k, str(section.get("name", KINDS[k])), values, "section properties as given")
+    raise CheckInputError("section", type(section).__name__, "a shape from calcpad.eng.sections or a mapping of properties with kind=")
+
+
+def _derive(kind: str, v: dict[str, float]) -> None:
+    """Fill ratios and radii a mapping leaves out, where they follow directly."""
+    if "rx" not in v and "Ix" in v and "A" in v:
+        v["rx"] = math.sqrt(v["Ix"] / v["A"])
+    if "ry" not in v and "Iy" in v and "A" in v:
+        v["ry"] = math.sqrt(v["Iy"] / v["A"])
+    if "r_min" not in v:
+        rs = [v[k] for k in ("rx", "ry") if k in v]
+        if rs and kind != "angle":
+            v["r_min"] = min(rs)
+    if kind == "round_hss" and "D_t" not in v and "D" in v and "t" in v:
+        v["D_t"] = v["D"] / v["t"]
+    if kind == "i_shape" and "bf_2tf" not in v and "bf" in v and "tf" in v:
+        v["bf_2tf"] = v["bf"] / (2 * v["tf"])

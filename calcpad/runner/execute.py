@@ -1,0 +1,276 @@
+"""Execute calcs: a template's code cells with the job's values in place of its parameters cell.
+
+Two modes give the same sheets (and so the same record):
+
+- ``inprocess`` (default): each code cell of the template (trusted engineering code) is compiled
+  and run in a fresh namespace in this process. The parameters cell is *not* run: the job's
+  values are placed in the namespace as plain Python strings/numbers — they are data, never code.
+- ``kernel``: papermill-style — the notebook gets a cell tagged ``injected-parameters`` after the
+  ``parameters`` cell (papermill writes the values as string/number literals), and nbclient runs
+  it in one Jupyter kernel shared by all calcs of the run (namespace reset between calcs). The
+  executed notebooks are kept. nbclient/nbformat/papermill are imported only on this path.
+
+Sheets are the :class:`~calcpad.core.sheet.Sheet` objects bound to the template's global names
+(also inside top-level lists, tuples and dicts), in the order the names were first bound —
+deterministic for a given template. A failing cell stops that calc only; it is reported with the
+template, the cell number (1-based over all cells, as in the stored ``.ipynb``) and the message.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import io
+import json
+import math
+import os
+import sys
+import time
+from collections.abc import Callable, Iterator
+from dataclasses import dataclass, field
+from typing import Any
+
+from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
+
+__all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
+
+MODES = ("inprocess", "kernel")
+KERNEL = "python3"
+SHEETS_MIME = "application/vnd.calcpad.sheets+json"
+_SKIP = {"In", "Out", "exit", "quit", "get_ipython"}
+
+
+@dataclass
+class CalcOutcome:
+    """What running one calc produced."""
+
+    calc: Calc
+    sheets: list[dict[str, Any]] = field(default_factory=list)  # {"record": ..., "html": ...}
+    error: dict[str, Any] | None = None  # {"cell": n, "message": "..."}
+    seconds: float = 0.0
+    notebook: Any = None  # executed notebook (kernel mode)
+
+    @property
+    def status(self) -> str:
+        """"ERROR" when a cell failed, "NG" when a check is NG, "OK" otherwise."""
+        if self.error is not None:
+            return "ERROR"
+        if any(c["status"] != "OK" for s in self.sheets for c in s["record"]["checks"]):
+            return "NG"
+        return "OK"
+
+
+def _finite(obj: Any) -> Any:
+    """Replace inf/nan floats by None so the record is strict JSON."""
+    if isinstance(obj, float):
+        return obj if math.isfinite(obj) else None
+    if isinstance(obj, dict):
+        return {k: _finite(v) for k, v in obj.items()}
+    if isinstance(obj, list):
+        return [_finite(v) for v in obj]
+    return obj
+
+
+def collect_sheets(namespace: dict[str, Any], template: str, member: str) -> list[dict[str, Any]]:
+    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel)."""
+    from calcpad.core.sheet import Sheet
+    from calcpad.render.html import sheet_html_fragment
+    from calcpad.render.record import sheet_record
+
+    seen: set[int] = set()
+    out: list[dict[str, Any]] = []
+    for name, value in list(namespace.items()):
+        if name.startswith("_") or name in _SKIP:
+            continue
+        if isinstance(value, Sheet):
+            found = [value]
+        elif isinstance(value, (list, tuple)):
+            found = [v for v in value if isinstance(v, Sheet)]
+        elif isinstance(value, dict):
+            found = [v for v in value.values() if isinstance(v, Sheet)]
+        else:
+            continue
+        for sheet in found:
+            if id(sheet) in seen:
+                continue
+            seen.add(id(sheet))
+            result = sheet.evaluate()
+            rec = sheet_record(result)
+            rec["meta"] = {**rec["meta"], "template": template, "member": member}
+            out.append({"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)})
+    return out
+
+
+def _emit(namespace: dict[str, Any], template: str, member: str) -> None:
+    """Kernel side: display the collected sheets as one JSON output."""
+    from IPython.display import display
+
+    display({SHEETS_MIME: {"sheets": collect_sheets(namespace, template, member)}}, raw=True)
+
+
+def _close_figures() -> None:
+    plt = sys.modules.get("matplotlib.pyplot")
+    if plt is not None:
+        plt.close("all")
+
+
+def _values(calc: Calc) -> dict[str, Any]:
+    values: dict[str, Any] = dict(calc.inputs)
+    for name in CONTEXT_PARAMETERS:
+        if name in calc.template.parameters:
+            values[name] = calc.member
+    return {n: values[n] for n in calc.template.parameters if n in values}
+
+
+# ----------------------------------------------------------------------------- in-process
+
+
+def run_calc_inprocess(calc: Calc) -> CalcOutcome:
+    """Run one calc's template cells in this process."""
+    os.environ.setdefault("MPLBACKEND", "Agg")
+    start = time.perf_counter()
+    tpl = calc.template
+    namespace: dict[str, Any] = {"__name__": "__main__", "__builtins__": __builtins__}
+    namespace.update(_values(calc))
+    outcome = CalcOutcome(calc)
+    sink = io.StringIO()
+    try:
+        with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink):
+            for cell in tpl.code_cells:
+                if cell.index == tpl.parameters_cell:
+                    continue
+                try:
+                    code = compile(cell.source, f"<template {tpl.name} cell {cell.index}>", "exec")
+                    exec(code, namespace)  # template code (trusted); job values are data in `namespace`
+                except Exception as exc:
+                    outcome.error = {"cell": cell.index, "message": f"{type(exc).__name__}: {exc}"}
+                    break
+            if outcome.error is None:
+                try:
+                    outcome.sheets = collect_sheets(namespace, tpl.name, calc.member)
+                except Exception as exc:
+                    outcome.error = {"cell": None, "message": f"{type(exc).__name__}: {exc}"}
+    finally:
+        _close_figures()
+    outcome.seconds = time.perf_counter() - start
+    return outcome
+
+
+# ----------------------------------------------------------------------------- kernel
+
+
+_RESET = """\
+import sys as _calcpad_sys
+_calcpad_plt = _calcpad_sys.modules.get("matplotlib.pyplot")
+if _calcpad_plt is not None:
+    _calcpad_plt.close("all")
+get_ipython().run_line_magic("reset", "-f")
+"""
+
+
+class _KernelSession:
+    """One Jupyter kernel shared by the calcs of a run (reset between calcs)."""
+
+    def __init__(self, timeout: int) -> None:
+        from jupyter_client.manager import KernelManager
+
+        self.timeout = timeout
+        self.km = KernelManager(kernel_name=KERNEL, transport="ipc")  # local sockets, not TCP
+        env = dict(os.environ, MPLBACKEND="Agg")
+        self.km.start_kernel(env=env, cwd=os.getcwd())
+        self.kc = self.km.client()
+        self.kc.start_channels()
+        self.kc.wait_for_ready(timeout=120)
+        self.used = False
+
+    def close(self) -> None:
+        self.kc.stop_channels()
+        self.km.shutdown_kernel(now=True)
+
+    def notebook(self, calc: Calc) -> Any:
+        import nbformat
+        from papermill.parameterize import parameterize_notebook
+
+        tpl = calc.template
+        nb = nbformat.v4.new_notebook()
+        nb.metadata["kernelspec"] = {"name": KERNEL, "display_name": "Python 3", "language": "python"}
+        nb.metadata["language_info"] = {"name": "python"}
+        nb.metadata["papermill"] = {}
+        for cell in tpl.cells:
+            new = nbformat.v4.new_markdown_cell(cell.source) if cell.kind == "markdown" else nbformat.v4.new_code_cell(cell.source)
+            new.metadata["tags"] = list(cell.tags)  # papermill reads .tags on every cell
+            new.metadata["calcpad_cell"] = cell.index
+            nb.cells.append(new)
+        nb = parameterize_notebook(nb, _values(calc), comment="Parameters from the calcpad job", kernel_name=KERNEL, language="python")
+        collect = nbformat.v4.new_code_cell(
+            "from calcpad.runner.execute import _emit as _calcpad_emit\n"
+            f"_calcpad_emit(globals(), {tpl.name!r}, {calc.member!r})"
+        )
+        collect.metadata["calcpad_cell"] = "collect"
+        nb.cells.append(collect)
+        return nb
+
+    def run(self, calc: Calc) -> CalcOutcome:
+        from nbclient import NotebookClient
+        from nbclient.exceptions import CellExecutionError
+
+        start = time.perf_counter()
+        outcome = CalcOutcome(calc)
+        if self.used:
+            self.kc.execute_interactive(_RESET, silent=True, store_history=False, timeout=self.timeout)
+        self.used = True
+        nb = self.notebook(calc)
+        client = NotebookClient(nb, km=self.km, timeout=self.timeout, kernel_name=KERNEL, allow_errors=False)
+        client.kc = self.kc
+        try:
+            client.execute(cleanup_kc=False)
+        except CellExecutionError:
+            for cell in nb.cells:
+                errs = [o for o in cell.get("outputs", []) if o.get("output_type") == "error"]
+                if errs:
+                    where = cell.metadata.get("calcpad_cell")
+                    outcome.error = {"cell": where if isinstance(where, int) else None, "message": f"{errs[0]['ename']}: {errs[0]['evalue']}"}
+                    break
+            else:  # pragma: no cover - nbclient always stores the error output
+                outcome.error = {"cell": None, "message": "a cell failed"}
+        if outcome.error is None:
+            data = nb.cells[-1].outputs[0]["data"][SHEETS_MIME]
+            outcome.sheets = json.loads(json.dumps(data["sheets"]))
+        nb.cells = [c for c in nb.cells if c.metadata.get("calcpad_cell") != "collect"]
+        for c in nb.cells:
+            c.metadata.pop("calcpad_cell", None)
+            if not c.metadata.get("tags"):
+                c.metadata.pop("tags", None)
+        outcome.notebook = nb
+        outcome.seconds = time.perf_counter() - start
+        return outcome
+
+
+@contextlib.contextmanager
+def _session(mode: str, timeout: int) -> Iterator[_KernelSession | None]:
+    if mode == "inprocess":
+        yield None
+        return
+    session = _KernelSession(timeout)
+    try:
+        yield session
+    finally:
+        session.close()
+
+
+def run_job(
+    job: Job,
+    mode: str = "inprocess",
+    progress: Callable[[CalcOutcome], None] | None = None,
+    timeout: int = 600,
+) -> list[CalcOutcome]:
+    """Run every calc of ``job``; a failing calc is recorded and the others still run."""
+    if mode not in MODES:
+        raise ValueError(f"mode {mode!r}; expected one of {MODES}")
+    outcomes: list[CalcOutcome] = []
+    with _session(mode, timeout) as session:
+        for calc in job.calcs:
+            outcome = run_calc_inprocess(calc) if session is None else session.run(calc)
+            outcomes.append(outcome)
+            if progress is not None:
+                progress(outcome)
+    return outcomes

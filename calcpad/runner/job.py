@@ -1,0 +1,314 @@
+"""Job files: a TOML title block plus a list of calcs (template, member marks, inputs).
+
+::
+
+    [job]
+    number = "HRM-2417"
+    title = "Rooftop condenser stand CS-2"
+    client = "..."; site = "..."; engineer = "..."; checker = "..."
+    revision = "A"
+    date = 2025-03-14            # a TOML date or a string
+    codes = ["AISC 360-16", "ASCE 7-16"]
+    units = "US"                 # "US" or "SI" (recorded; templates choose their display units)
+
+    [[calcs]]
+    template = "leg_bending"     # a name from `calcpad templates`, or a path relative to the job
+    members = ["L1", "L3"]       # or member = "L1"
+    title = "Legs L1 and L3"     # optional
+    [calcs.inputs]
+    P = "85 lbf"                 # "value unit", { value = 85, unit = "lbf" }, a number or a text
+    ...
+
+Every parameter of the template must be given (the job file is the complete record of what was
+assumed; `calcpad new` writes them all). A template parameter named ``member_mark`` is filled with
+the member mark by the runner. The job file is data only: nothing in it is executed. Validation
+collects every problem, each with its location (``calcs[3].inputs.L``; calcs count from 1 in
+file order) and raises one :class:`JobError`.
+"""
+
+from __future__ import annotations
+
+import datetime as dt
+import difflib
+import hashlib
+import json
+import re
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+import pint
+
+from calcpad.core.errors import InputError
+from calcpad.core.units import parse_quantity, unit_symbol
+from calcpad.runner.template import Template, TemplateError, find_template, load_template
+
+__all__ = ["Calc", "Job", "JobError", "JobInfo", "input_record", "load_job", "parse_job", "single_template_job"]
+
+JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units")
+REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
+CALC_KEYS = ("template", "member", "members", "title", "inputs")
+CONTEXT_PARAMETERS = ("member_mark",)
+_MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
+_TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
+
+
+class JobError(InputError):
+    """A job file with problems; ``problems`` lists ``(location, message)`` pairs."""
+
+    def __init__(self, source: str, problems: list[tuple[str, str]]) -> None:
+        self.source = source
+        self.problems = problems
+        lines = [f"{source}: {len(problems)} problem{'s' if len(problems) != 1 else ''}"]
+        lines += [f"  {loc}: {msg}" if loc else f"  {msg}" for loc, msg in problems]
+        super().__init__("\n".join(lines))
+
+
+@dataclass
+class JobInfo:
+    """The title block of a job."""
+
+    number: str
+    title: str
+    client: str = ""
+    site: str = ""
+    engineer: str = ""
+    checker: str = ""
+    revision: str = ""
+    date: str = ""
+    codes: list[str] = field(default_factory=list)
+    units: str = "US"
+
+    def as_dict(self) -> dict[str, Any]:
+        """Plain dictionary (for the record)."""
+        return {k: (list(v) if isinstance(v, list) else v) for k, v in self.__dict__.items()}
+
+
+@dataclass
+class Calc:
+    """One calc to run: a template for one member with its validated inputs."""
+
+    number: int  # 1-based, in run order
+    location: str  # "calcs[2]" — where it came from in the job file
+    template: Template
+    member: str
+    inputs: dict[str, str | float]  # values as they go into the template
+    title: str = ""
+
+    @property
+    def input_digest(self) -> str:
+        """SHA-256 over template name, member and inputs (canonical JSON)."""
+        payload = json.dumps({"template": self.template.name, "member": self.member, "inputs": self.inputs}, sort_keys=True)
+        return hashlib.sha256(payload.encode()).hexdigest()
+
+
+@dataclass
+class Job:
+    """A validated job: title block and the calcs expanded per member."""
+
+    info: JobInfo
+    calcs: list[Calc]
+    source: str = ""
+
+
+def input_record(value: str | float) -> dict[str, Any]:
+    """``{"value": 84.0, "unit": "in"}`` for a quantity, ``{"value": "A36", "unit": None}`` for text."""
+    if isinstance(value, (int, float)):
+        return {"value": float(value), "unit": ""}
+    try:
+        q = parse_quantity(value, "input")
+    except InputError:
+        return {"value": value, "unit": None}
+    return {"value": float(q.magnitude), "unit": unit_symbol(q.units, "ascii")}
+
+
+def _suggest(word: str, pool: list[str] | tuple[str, ...]) -> str:
+    close = difflib.get_close_matches(word, list(pool), n=3, cutoff=0.5)
+    return f"; did you mean {', '.join(repr(c) for c in close)}?" if close else ""
+
+
+def _str_field(table: dict[str, Any], key: str, loc: str, problems: list[tuple[str, str]], required: bool) -> str:
+    if key not in table:
+        if required:
+            problems.append((loc, f"missing {key!r} (text)"))
+        return ""
+    v = table[key]
+    if isinstance(v, (dt.date, dt.datetime)) and key == "date":
+        return v.isoformat()
+    if isinstance(v, (int, float)) and not isinstance(v, bool) and key in ("number", "revision"):
+        return str(v)
+    if isinstance(v, str) and not v.strip() and not required:
+        return ""
+    if not isinstance(v, str) or not v.strip():
+        problems.append((f"{loc}.{key}", f"{v!r}; expected a non-empty text"))
+        return ""
+    return v.strip()
+
+
+def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
+    if not isinstance(raw, dict):
+        problems.append(("job", "missing [job] table with number, title, client, site, engineer, revision, date"))
+        return JobInfo("", "")
+    for key in raw:
+        if key not in JOB_KEYS:
+            problems.append((f"job.{key}", f"unknown key{_suggest(key, JOB_KEYS)} (allowed: {', '.join(JOB_KEYS)})"))
+    vals = {k: _str_field(raw, k, "job", problems, k in REQUIRED_JOB_KEYS) for k in JOB_KEYS if k not in ("codes", "units")}
+    codes = raw.get("codes", [])
+    if isinstance(codes, str):
+        codes = [codes]
+    if not isinstance(codes, list) or not all(isinstance(c, str) and c.strip() for c in codes):
+        problems.append(("job.codes", f"{codes!r}; expected a list of texts such as [\"AISC 360-16\", \"ASCE 7-16\"]"))
+        codes = []
+    units = raw.get("units", "US")
+    if units not in ("US", "SI"):
+        problems.append(("job.units", f"{units!r}; expected 'US' or 'SI'"))
+        units = "US"
+    return JobInfo(**vals, codes=list(codes), units=units)
+
+
+def _marks(raw: dict[str, Any], loc: str, problems: list[tuple[str, str]]) -> list[tuple[str, str]]:
+    """(location, mark) pairs of a calc table."""
+    if ("member" in raw) == ("members" in raw):
+        problems.append((loc, "give either member = \"L1\" or members = [\"L1\", \"L2\"] (exactly one of them)"))
+        return []
+    if "member" in raw:
+        items = [(f"{loc}.member", raw["member"])]
+    else:
+        ms = raw["members"]
+        if not isinstance(ms, list) or not ms:
+            problems.append((f"{loc}.members", f"{ms!r}; expected a non-empty list of member marks"))
+            return []
+        items = [(f"{loc}.members[{j}]", m) for j, m in enumerate(ms, start=1)]
+    out = []
+    for where, m in items:
+        if not isinstance(m, str) or not _MARK.match(m):
+            problems.append((where, f"{m!r}; expected a member mark such as 'L1' or 'CM-2' (letters, digits, . _ / -; up to 32)"))
+        else:
+            out.append((where, m))
+    return out
+
+
+def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], require_all: bool) -> dict[str, str | float]:
+    if raw is None:
+        raw = {}
+    if not isinstance(raw, dict):
+        problems.append((f"{loc}.inputs", f"{raw!r}; expected a table of parameter = \"value unit\""))
+        return {}
+    values: dict[str, str | float] = {}
+    bad = False
+    for name, value in raw.items():
+        where = f"{loc}.inputs.{name}"
+        if name not in tpl.parameters:
+            problems.append((where, f"unknown parameter {name!r} of template {tpl.name!r}{tpl.suggest(name)}"))
+            bad = True
+            continue
+        if name in CONTEXT_PARAMETERS:
+            problems.append((where, f"{name!r} is filled in by the runner from the member mark; remove it from inputs"))
+            continue
+        try:
+            values[name] = tpl.parameters[name].coerce(value, where)
+        except InputError as exc:
+            problems.append((where, str(exc).removeprefix(f"{where}: ")))
+            bad = True
+    missing = [n for n in tpl.parameters if n not in raw and n not in CONTEXT_PARAMETERS]
+    if missing and require_all:
+        problems.append((f"{loc}.inputs", f"missing parameter{'s' if len(missing) > 1 else ''} {', '.join(repr(m) for m in missing)} of template {tpl.name!r}"))
+        bad = True
+    full = {n: p.default for n, p in tpl.parameters.items()}
+    full.update(values)
+    if not bad:
+        qs: dict[str, pint.Quantity] = {}
+        for n, v in full.items():
+            if tpl.parameters[n].kind != "text":
+                qs[n] = parse_quantity(v, n)
+        for n, v in values.items():
+            try:
+                tpl.parameters[n].check_range(v, qs, f"{loc}.inputs.{n}")
+            except InputError as exc:
+                problems.append((f"{loc}.inputs.{n}", str(exc).removeprefix(f"{loc}.inputs.{n}: ")))
+    return {n: full[n] for n in tpl.parameters if n not in CONTEXT_PARAMETERS}
+
+
+def parse_job(text: str, source: str = "job.toml", base: Path | None = None) -> Job:
+    """Validate job-file text. Raises JobError listing every problem found."""
+    try:
+        raw = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        msg = str(exc)
+        m = _TOML_POS.search(msg)
+        where = f"line {m.group(1)}, column {m.group(2)}" if m else ""
+        raise JobError(source, [(where, f"not valid TOML: {_TOML_POS.sub('', msg).strip()}")]) from None
+    problems: list[tuple[str, str]] = []
+    for key in raw:
+        if key not in ("job", "calcs"):
+            problems.append((key, f"unknown top-level key{_suggest(key, ('job', 'calcs'))} (allowed: [job] and [[calcs]])"))
+    info = _job_info(raw.get("job"), problems)
+    calcs_raw = raw.get("calcs")
+    calcs: list[Calc] = []
+    if not isinstance(calcs_raw, list) or not calcs_raw or not all(isinstance(c, dict) for c in calcs_raw):
+        problems.append(("calcs", "expected one or more [[calcs]] tables"))
+        calcs_raw = []
+    seen: dict[tuple[str, str], str] = {}
+    for i, c in enumerate(calcs_raw, start=1):
+        loc = f"calcs[{i}]"
+        for key in c:
+            if key not in CALC_KEYS:
+                problems.append((f"{loc}.{key}", f"unknown key{_suggest(key, CALC_KEYS)} (allowed: {', '.join(CALC_KEYS)})"))
+        marks = _marks(c, loc, problems)
+        title = c.get("title", "")
+        if not isinstance(title, str):
+            problems.append((f"{loc}.title", f"{title!r}; expected a text"))
+            title = ""
+        name = c.get("template")
+        if not isinstance(name, str) or not name.strip():
+            problems.append((f"{loc}.template", f"{name!r}; expected a template name such as 'leg_bending'"))
+            continue
+        try:
+            tpl = load_template(find_template(name, base))
+        except TemplateError as exc:
+            problems.append((f"{loc}.template", str(exc)))
+            continue
+        inputs = _inputs(tpl, c.get("inputs"), loc, problems, require_all=True)
+        for where, mark in marks:
+            key = (tpl.name, mark)
+            if key in seen:
+                problems.append((where, f"duplicate member mark {mark!r}: already checked with template {tpl.name!r} in {seen[key]}"))
+                continue
+            seen[key] = loc
+            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title))
+    if problems:
+        raise JobError(source, problems)
+    return Job(info, calcs, source)
+
+
+def load_job(path: str | Path) -> Job:
+    """Read and validate a job file. Raises JobError (bad content) or InputError (unreadable)."""
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as exc:
+        raise JobError(str(path), [("", f"cannot read the job file ({exc.__class__.__name__}: {exc})")]) from None
+    return parse_job(text, str(path), path.parent)
+
+
+def single_template_job(template: str | Path, sets: list[str], member: str = "-") -> Job:
+    """A one-calc job for ``calcpad run TEMPLATE --set name="value unit"`` (defaults fill the rest)."""
+    source = str(template)
+    try:
+        tpl = load_template(find_template(str(template)) if not Path(template).exists() else Path(template))
+    except TemplateError as exc:
+        raise JobError(source, [("template", str(exc))]) from None
+    problems: list[tuple[str, str]] = []
+    raw: dict[str, str] = {}
+    for item in sets:
+        name, eq, value = item.partition("=")
+        if not eq or not name.strip():
+            problems.append(("--set", f"{item!r}; expected name=\"value unit\", e.g. L=\"84 in\""))
+            continue
+        raw[name.strip()] = value.strip()
+    inputs = _inputs(tpl, raw, "--set", problems, require_all=False)
+    if problems:
+        raise JobError(source, [(loc.replace("--set.inputs.", "--set ").replace("--set.inputs", "--set"), msg) for loc, msg in problems])
+    info = JobInfo(number="-", title=tpl.title, units="US")
+    return Job(info, [Calc(1, "--set", tpl, member, inputs)], source)

@@ -1,0 +1,64 @@
+# %% [markdown]
+# # Simply supported cross member: flexure, shear and deflection (AISC 360-16)
+#
+# *Example job (invented): Kestrel Bay Fabrication, mezzanine equipment platform for Northfield
+# Cold Storage. Cross member B4 spans between two main beams and carries grating load plus a
+# compressor skid foot at midspan.*
+#
+# A simply supported member with a uniform load and a point load at midspan. The template works
+# the maximum moment, shear and deflection with the beam formulas as steps, then checks flexure
+# (F2 with lateral-torsional buckling for W-shapes, F7/F8 for HSS), shear (G2/G4/G5) and the live
+# deflection against a span limit such as L/240.
+#
+# Assumptions: pinned ends (simple shear connections); loads combined for the chosen method for
+# strength; the deflection uses the service loads entered (enter service loads for the deflection
+# check); the compression flange is braced at the ends and at intervals of `L_b`.
+#
+# *For review by a qualified, licensed engineer. Local building codes and the authority having
+# jurisdiction govern.*
+
+# %% tags=["parameters"]
+method = "ASD"  # design method: "ASD" (service load combinations) or "LRFD" (factored)
+member = "W8x18"  # cross member section, catalog designation: W-shape, rectangular/round HSS or pipe
+grade = "A992"  # steel, materials catalog name (A500: round/shaped picked from the section)
+span = "12 ft"  # span between supports; 2 ft to 40 ft
+w = "180 lbf/ft"  # uniform load including self weight; 0 to 3 kip/ft
+P = "1.6 kip"  # point load at midspan; 0 to 30 kip
+L_b = "6 ft"  # unbraced length of the compression flange; > 0, at most the span
+C_b = "1.30"  # lateral-torsional buckling modification factor; 1.0 (conservative) to 3.0
+defl_limit = "240"  # deflection limit as span / N; 120 to 600
+
+# %%
+from calcpad import Sheet
+from calcpad.eng.checks import add_flexure_check, add_shear_check
+from calcpad.eng.materials import get_material, hss_material
+from calcpad.eng.sections import get_section
+
+shape = get_section(member)
+steel = hss_material(grade, shape) if "A500" in grade.upper() else get_material(grade)
+
+sh = Sheet(f"Cross member B4 - {member}, simple span", method=method)
+sh.heading("Loads and span")
+sh.given("L", span, "Span")
+sh.given("w", w, "Uniform load")
+sh.given("P_mid", P, "Point load at midspan")
+sh.given("E", f"{steel.E} ksi", "Modulus of elasticity", source=steel.name)
+sh.given("I_x", f"{shape.props.Ix!r} in^4", "Moment of inertia about x", source=member, sig=4)
+sh.heading("Beam formulas (simple span)")
+sh.step("M_max", "w*L**2/8 + P_mid*L/4", "Maximum moment, at midspan", unit="kip*ft", ref="simple beam, uniform + central point load")
+sh.step("V_max", "w*L/2 + P_mid/2", "Maximum shear, at the supports", unit="kip", ref="simple beam, statics")
+sh.step("Delta", "5*w*L**4/(384*E*I_x) + P_mid*L**3/(48*E*I_x)", "Midspan deflection", unit="in",
+        ref="simple beam, elastic (common practice)")
+sh.given("N_defl", float(defl_limit), "Deflection limit denominator (span/N)", source="chosen limit; IBC Table 1604.3 lists typical values")
+sh.step("Delta_allow", "L/N_defl", "Allowable deflection", unit="in")
+sh.check("Deflection", demand="Delta", capacity="Delta_allow", ref="serviceability, span/N")
+add_flexure_check(sh, shape, M="M_max", L_b=L_b, C_b=float(C_b), material=steel)
+# round HSS shear (G5) uses the distance from maximum to zero shear, half the span here
+L_v = "L_v" if shape.kind == "round tube" else None
+if L_v:
+    sh.step("L_v", "L/2", "Distance from maximum to zero shear", unit="ft")
+add_shear_check(sh, shape, V="V_max", L_v=L_v, material=steel)
+sh
+
+# %%
+sh.summary_frame()

@@ -1,0 +1,51 @@
+# %% [markdown]
+# # Post under axial and lateral load: compression, flexure and interaction (AISC 360-16)
+#
+# *Example job (invented): Kestrel Bay Fabrication, loading-dock canopy for Northfield Cold
+# Storage. Post C3 is a steel tube fixed at its base plate and free at its top, where the canopy
+# beam bears on it and wind pushes sideways.*
+#
+# The post is a cantilever carrying an axial load and a lateral load at its top. This template
+# checks it per AISC 360-16 for every applicable limit state: compression (E3, E7 for slender
+# walls), flexure at the base (F7 for rectangular HSS, F8 for round HSS, F2 for W-shapes), shear
+# (G4/G5/G2) and the combined-force interaction H1-1a/H1-1b, and names the governing ratio.
+#
+# Assumptions: loads are already combined for the chosen method (ASD service combination or LRFD
+# factored combination); second-order effects are small or already in the moment (a fixed-free
+# post with the recommended K = 2.1, Commentary Table C-A-7.1); the base plate and anchors are
+# checked elsewhere.
+#
+# *For review by a qualified, licensed engineer. Local building codes and the authority having
+# jurisdiction govern.*
+
+# %% tags=["parameters"]
+method = "ASD"  # design method: "ASD" (service load combinations) or "LRFD" (factored)
+post = "HSS4x4x1/4"  # post section, catalog designation: square/rectangular/round HSS, pipe or W-shape
+grade = "A500 Gr C"  # post steel, materials catalog name (A500: round/shaped picked from the post)
+P = "6.5 kip"  # axial compression at the top of the post (combined for the method); 0 to 200 kip
+H = "0.45 kip"  # lateral load at the top of the post (combined for the method); 0 to 20 kip
+L = "11 ft"  # post height from base plate to load; 3 ft to 30 ft
+K = "2.1"  # effective length factor; 0.5 to 2.5 (2.1 for fixed base, free top)
+
+# %%
+from calcpad import Sheet
+from calcpad.eng.checks import check_member
+from calcpad.eng.materials import get_material, hss_material
+from calcpad.eng.sections import get_section
+
+shape = get_section(post)
+steel = hss_material(grade, shape) if "A500" in grade.upper() else get_material(grade)
+
+sh = Sheet(f"Post C3 - {post}, axial + lateral", method=method)
+sh.heading("Loads and geometry")
+sh.given("P_top", P, "Axial compression at top of post")
+sh.given("H_top", H, "Lateral load at top of post")
+sh.given("L_post", L, "Post height, base to load")
+sh.step("M_base", "H_top*L_post", "Moment at the base", unit="kip*ft", ref="cantilever, statics")
+sh.step("V_base", "H_top", "Shear at the base", unit="kip", ref="cantilever, statics")
+sh.assume(f"Loads combined for {method}; second-order effects neglected or included in the loads.")
+result = check_member(sh, shape, material=steel, L="L_post", K=float(K), P="P_top", M_x="M_base", V="V_base")
+sh
+
+# %%
+sh.summary_frame()

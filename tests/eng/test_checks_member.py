@@ -1,0 +1,52 @@
+"""Member check runner: limit states chosen from the forces, governing ratio named.
+
+Expected ratios are the individual checks' own ratios (computed by the single-check functions,
+themselves tested against AISC tables in the other test files) and H1-1a by hand.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from calcpad import Sheet
+from calcpad.core.results import TableResult
+from calcpad.eng.checks import check_member
+from calcpad.eng.sections import get_section
+
+
+def test_compression_flexure_shear_interaction():
+    sh = Sheet("post", method="LRFD")
+    out = check_member(sh, get_section("HSS6x6x1/4"), F_y="50 ksi", L="12 ft", P="40 kip", M_x="10 kip*ft", V="3 kip")
+    assert set(out.keys) == {"compression", "flexure x", "shear", "interaction"}
+    checks = {c.key: c for c in sh.summary()}
+    pc, mc = sh["P_c"].to("kip").magnitude, sh["M_c"].to("kip*ft").magnitude
+    u = 40 / pc + 8 / 9 * 10 / mc if 40 / pc >= 0.2 else 40 / (2 * pc) + 10 / mc
+    assert checks[out.keys["interaction"]].ratio == pytest.approx(u, rel=1e-12)
+    assert out.governing == max(out.keys, key=lambda k: checks[out.keys[k]].ratio)
+    assert sh[out.max_name].magnitude == pytest.approx(out.governing_ratio, rel=1e-12)
+    tables = [r for r in sh.evaluate().steps if isinstance(r, TableResult)]
+    assert len(tables) == 1 and len(tables[0].rows) == 4
+
+
+def test_negative_axial_is_tension():
+    sh = Sheet("hanger")
+    out = check_member(sh, get_section("HSS4x4x1/4"), material="ASTM A500 Gr. C (square/rectangular)", L="6 ft", P="-30 kip",
+                       M_x="2 kip*ft")
+    assert "tension" in out.keys and "compression" not in out.keys
+    assert sh["T_r"].to("kip").magnitude == pytest.approx(30.0)
+
+
+def test_governing_line_stays_live_under_set():
+    sh = Sheet("live")
+    out = check_member(sh, get_section("HSS4x4x1/4"), F_y="46 ksi", L="8 ft", P="5 kip", M_x="1 kip*ft")
+    before = sh[out.max_name].magnitude
+    sh.set(M_r="6 kip*ft")
+    assert sh[out.max_name].magnitude > before
+
+
+def test_two_members_need_suffixes():
+    sh = Sheet("two")
+    check_member(sh, get_section("HSS4x4x1/4"), F_y="46 ksi", L="8 ft", P="5 kip", suffix="A")
+    out = check_member(sh, get_section("HSS6x6x1/4"), F_y="46 ksi", L="8 ft", P="5 kip", suffix="B")
+    assert sh["P_c_B"].to("kip").magnitude > sh["P_c_A"].to("kip").magnitude
+    assert out.keys["compression"] == "ratio_c_B"

@@ -1,0 +1,98 @@
+"""Execution: in-process and kernel give the same record; failures stay local to their calc."""
+
+from __future__ import annotations
+
+import math
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+from calcpad.runner.execute import run_job
+from calcpad.runner.job import Job, load_job, parse_job
+from calcpad.runner.record import JOB_RECORD_FORMAT, job_record, write_atomic_dir
+
+from .conftest import EXAMPLE, JOB_HEAD, tiny_calc
+
+
+def _strip_run(record: dict[str, Any]) -> dict[str, Any]:
+    return {k: v for k, v in record.items() if k != "run"}
+
+
+def test_inprocess_and_kernel_records_are_identical() -> None:
+    job = load_job(EXAMPLE)
+    a = run_job(job, mode="inprocess")
+    b = run_job(job, mode="kernel")
+    ra, rb = job_record(job, a, "inprocess", 1.0), job_record(job, b, "kernel", 2.0)
+    assert ra["summary"]["errors"] == 0 and ra["summary"]["checks"] > 0
+    assert _strip_run(ra) == _strip_run(rb)
+    assert [s["html"] for o in a for s in o.sheets] == [s["html"] for o in b for s in o.sheets]
+    assert all(o.notebook is not None for o in b)
+    assert all(c.get("execution_count") for c in b[0].notebook.cells if c.cell_type == "code")
+    tags = [c.metadata.get("tags", []) for c in b[0].notebook.cells]
+    assert ["injected-parameters"] in tags  # papermill-style injection kept in the stored notebook
+
+
+def test_example_leg_matches_hand_calc() -> None:
+    # Common practice: tube I = pi/64*(Do^4 - Di^4), sigma = M c / I, M = P L (cantilever).
+    job = load_job(EXAMPLE)
+    calc = next(c for c in job.calcs if c.template.name == "leg_bending")
+    (o,) = run_job(Job(job.info, [calc]))
+    P, L, Do, t, Fy = 120.0, 30.0, 1.900, 0.145, 35.0
+    I = math.pi / 64 * (Do**4 - (Do - 2 * t) ** 4)
+    sigma = P * L * (Do / 2) / I / 1000.0  # ksi
+    rec = o.sheets[0]["record"]
+    assert rec["results"]["sigma_b"]["unit"] == "ksi"
+    assert rec["results"]["sigma_b"]["value"] == pytest.approx(sigma, rel=1e-3)
+    assert rec["checks"][0]["ratio"] == pytest.approx(1.67 * sigma / Fy, rel=1e-3)
+
+
+def test_failing_cell_is_reported_and_other_calcs_run(tiny_env: Path) -> None:
+    job = parse_job(JOB_HEAD + tiny_calc("A1", mode='"fail"') + tiny_calc("A2"))
+    first, second = run_job(job)
+    assert first.status == "ERROR"
+    assert first.error == {"cell": 4, "message": "ValueError: requested failure"}
+    assert second.status == "OK" and second.sheets
+
+
+def test_failing_cell_same_in_kernel(tiny_env: Path) -> None:
+    job = parse_job(JOB_HEAD + tiny_calc("A1", mode='"fail"') + tiny_calc("A2", P='"300 lbf"'))
+    a, b = run_job(job), run_job(job, mode="kernel")
+    assert [o.error for o in a] == [o.error for o in b]
+    assert _strip_run(job_record(job, a, "x", 0)) == _strip_run(job_record(job, b, "y", 0))
+    assert b[1].status == "NG"  # 300 lbf x 10 in = 3000 lbf*in > 2000 lbf*in
+
+
+def test_sheets_in_binding_order_and_values_are_strings(tiny_env: Path) -> None:
+    job = parse_job(JOB_HEAD + tiny_calc())
+    (o,) = run_job(job)
+    assert [s["record"]["title"] for s in o.sheets] == ["Second created", "First bound later"]
+    assert o.sheets[1]["record"]["meta"] == {"template": "tiny", "member": "M1"}
+    assert o.sheets[1]["record"]["results"]["M"] == {"value": 1000.0, "unit": "lbf*in"}
+
+
+def test_record_fields(tiny_env: Path) -> None:
+    job = parse_job(JOB_HEAD + tiny_calc())
+    rec = job_record(job, run_job(job), "inprocess", 0.5)
+    assert rec["format"] == JOB_RECORD_FORMAT
+    (calc,) = rec["calcs"]
+    assert calc["inputs"]["P"] == {"value": 100.0, "unit": "lbf"}
+    assert calc["inputs"]["mode"] == {"value": "ok", "unit": None}
+    assert calc["checks"][0]["name"] == "Moment" and calc["checks"][0]["ratio"] == pytest.approx(0.5)
+    assert set(rec["versions"]) >= {"calcpad", "python", "pint", "sympy", "numpy"}
+    other = parse_job(JOB_HEAD + tiny_calc(P='"101 lbf"')).calcs[0]
+    assert len(calc["input_digest"]) == 64 and calc["input_digest"] != other.input_digest
+
+
+def test_atomic_dir_leaves_nothing_on_failure(tmp_path: Path) -> None:
+    out = tmp_path / "out"
+    write_atomic_dir(out, lambda d: (d / "a.txt").write_text("first"))
+
+    def broken(d: Path) -> None:
+        (d / "a.txt").write_text("half")
+        raise RuntimeError("disk full")
+
+    with pytest.raises(RuntimeError):
+        write_atomic_dir(out, broken)
+    assert (out / "a.txt").read_text() == "first"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["out"]
