@@ -111,7 +111,7 @@ for i, (member, mat) in enumerate([(reinforced.members[0], leg_mat), (reinforced
         after.given("Omega_b", 1.67, "Safety factor for flexure (ASD)", source="AISC 360-16 F1")
     after.step(f"F_b{i}", f"F_y{i}/Omega_b", f"Allowable bending stress in {member.label} (first yield)", unit="ksi",
                ref="AISC 360-16 F1, M = F_y*S")
-    after.check(f"Bending stress, {member.label}", demand=f"sigma_b{i}", capacity=f"F_b{i}", ref="AISC 360-16 F1 (ASD)")
+    after.check(f"Bending stress after reinforcement, {member.label}", demand=f"sigma_b{i}", capacity=f"F_b{i}", ref="AISC 360-16 F1 (ASD)")
 after.heading("Intermittent welds, added member to leg")
 after.assume("Two lines of fillet welds join the added member to the leg; shear flow from the x-axis properties.")
 after.step("V", "P", "Shear along the leg", unit="lbf", ref="cantilever, statics")

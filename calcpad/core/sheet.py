@@ -17,6 +17,7 @@ import difflib
 import hashlib
 import importlib
 import io
+import os
 import re
 from collections.abc import Iterable, Mapping, Sequence
 from typing import Any
@@ -55,6 +56,10 @@ DISPLAY_HOOK = "calcpad.render.notebook:mimebundle"
 
 _METHODS = ("ASD", "LRFD")
 
+#: Environment variable naming the display system for sheets created without ``system=``.
+#: The runner sets it from a job's ``units`` so the same template prints US or SI.
+SYSTEM_ENV = "CALCPAD_UNITS"
+
 
 def _to_formula(text_or_expr: str | sp.Basic, condition: bool = False) -> Formula:
     if isinstance(text_or_expr, str):
@@ -84,7 +89,8 @@ class Sheet:
 
     Args:
         title: Sheet title, shown as its first heading.
-        system: Display unit system, ``"US"`` or ``"SI"``.
+        system: Display unit system, ``"US"`` or ``"SI"``; default from the ``CALCPAD_UNITS``
+            environment variable (set by the runner from the job), else ``"US"``.
         sig: Significant figures for results (per-step ``sig=`` overrides).
         method: ``"ASD"`` or ``"LRFD"``; engineering checks read it to pick Ω or φ.
         display: Per-kind display units, e.g. ``{"moment": "kip*ft"}``.
@@ -94,7 +100,7 @@ class Sheet:
     def __init__(
         self,
         title: str,
-        system: str = "US",
+        system: str | None = None,
         sig: int = 4,
         method: str = "ASD",
         display: Mapping[str, str] | None = None,
@@ -103,6 +109,8 @@ class Sheet:
         if method not in _METHODS:
             raise SheetError(f"sheet {title!r}: method {method!r}; expected 'ASD' or 'LRFD'")
         self.title = title
+        if system is None:
+            system = os.environ.get(SYSTEM_ENV, "US") or "US"
         self.prefs = DisplayPrefs(system=system, sig=sig, overrides=dict(display or {}))
         self.method = method
         self.meta: dict[str, str] = dict(meta or {})

@@ -41,7 +41,7 @@ h3 { font-size: 1.0em; margin: 1em 0 .3em; }
 .step { display: grid; grid-template-columns: 14em minmax(0, 1fr) 11em; gap: .2em 1em; padding: .25em 0; break-inside: avoid; border-bottom: 1px dotted #ccc; }
 .desc { color: #333; }
 .ref { color: #555; font-size: .88em; text-align: right; }
-.line { overflow-wrap: anywhere; min-width: 0; overflow-x: auto; } .line math { max-width: 100%; } .cont { display: inline-block; margin-left: .25em; }
+.line { overflow-wrap: anywhere; min-width: 0; overflow-x: auto; overflow-y: hidden; } .line math { max-width: 100%; } .cont { display: inline-block; margin-left: .25em; }
 .check { background: #f6f6f6; }
 .status { font-weight: bold; padding: 0 .4em; border: 1px solid #333; border-radius: 2px; }
 .status.NG { background: #111; color: #fff; }

@@ -29,6 +29,7 @@ from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 from typing import Any
 
+from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 
 __all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
@@ -170,12 +171,12 @@ get_ipython().run_line_magic("reset", "-f")
 class _KernelSession:
     """One Jupyter kernel shared by the calcs of a run (reset between calcs)."""
 
-    def __init__(self, timeout: int) -> None:
+    def __init__(self, timeout: int, units: str = "US") -> None:
         from jupyter_client.manager import KernelManager
 
         self.timeout = timeout
         self.km = KernelManager(kernel_name=KERNEL, transport="ipc")  # local sockets, not TCP
-        env = dict(os.environ, MPLBACKEND="Agg")
+        env = dict(os.environ, MPLBACKEND="Agg", **{SYSTEM_ENV: units})
         self.km.start_kernel(env=env, cwd=os.getcwd())
         self.kc = self.km.client()
         self.kc.start_channels()
@@ -246,11 +247,11 @@ class _KernelSession:
 
 
 @contextlib.contextmanager
-def _session(mode: str, timeout: int) -> Iterator[_KernelSession | None]:
+def _session(mode: str, timeout: int, units: str = "US") -> Iterator[_KernelSession | None]:
     if mode == "inprocess":
         yield None
         return
-    session = _KernelSession(timeout)
+    session = _KernelSession(timeout, units)
     try:
         yield session
     finally:
@@ -267,10 +268,18 @@ def run_job(
     if mode not in MODES:
         raise ValueError(f"mode {mode!r}; expected one of {MODES}")
     outcomes: list[CalcOutcome] = []
-    with _session(mode, timeout) as session:
-        for calc in job.calcs:
-            outcome = run_calc_inprocess(calc) if session is None else session.run(calc)
-            outcomes.append(outcome)
-            if progress is not None:
-                progress(outcome)
+    previous = os.environ.get(SYSTEM_ENV)
+    os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
+    try:
+        with _session(mode, timeout, job.info.units) as session:
+            for calc in job.calcs:
+                outcome = run_calc_inprocess(calc) if session is None else session.run(calc)
+                outcomes.append(outcome)
+                if progress is not None:
+                    progress(outcome)
+    finally:
+        if previous is None:
+            os.environ.pop(SYSTEM_ENV, None)
+        else:
+            os.environ[SYSTEM_ENV] = previous
     return outcomes

@@ -9,7 +9,7 @@
     revision = "A"
     date = 2025-03-14            # a TOML date or a string
     codes = ["AISC 360-16", "ASCE 7-16"]
-    units = "US"                 # "US" or "SI" (recorded; templates choose their display units)
+    units = "US"                 # "US" or "SI": display units of sheets that do not fix their own
 
     [[calcs]]
     template = "leg_bending"     # a name from `calcpad templates`, or a path relative to the job

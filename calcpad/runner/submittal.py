@@ -23,7 +23,7 @@ table.block th, table.block td { border: 1px solid #999; padding: .2em .5em; }
 .banner { border: 3px solid #000; background: #111; color: #fff; padding: .5em .8em; font-weight: bold; }
 .calc { break-before: page; }
 .error { border: 2px solid #000; padding: .5em; font-family: monospace; white-space: pre-wrap; }
-ol.toc li { margin: .15em 0; }
+ul.toc { list-style: none; padding-left: 1em; } ul.toc li { margin: .15em 0; }
 """
 
 
@@ -62,10 +62,10 @@ def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any]
         parts.append(f'<div class="banner">INCOMPLETE: {summ["errors"]} calc(s) failed to run; see below.</div>')
     elif summ["ng"]:
         parts.append(f'<div class="banner">{summ["ng"]} check(s) NG.</div>')
-    parts.append("<h2>Contents</h2><ol class=\"toc\">")
+    parts.append("<h2>Contents</h2><ul class=\"toc\">")
     for o in outcomes:
         parts.append(f'<li><a href="#{_anchor(o)}">{_e(_calc_heading(o))}</a> — {_e(o.status)}</li>')
-    parts.append("</ol>")
+    parts.append("</ul>")
     parts.append('<h2>Summary of checks</h2><table class="grid"><tr><th>Calc</th><th>Member</th><th>Check</th><th>Ratio</th><th>Status</th></tr>')
     for o, c in zip(outcomes, record["calcs"], strict=True):
         if o.error is not None:

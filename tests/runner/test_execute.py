@@ -96,3 +96,26 @@ def test_atomic_dir_leaves_nothing_on_failure(tmp_path: Path) -> None:
         write_atomic_dir(out, broken)
     assert (out / "a.txt").read_text() == "first"
     assert sorted(p.name for p in tmp_path.iterdir()) == ["out"]
+
+
+def test_job_units_set_sheet_display_system(tmp_path):
+    """A job with units = "SI" prints sheets (that do not fix their own system) in SI units."""
+    import os
+
+    from calcpad.core.sheet import SYSTEM_ENV, Sheet
+
+    before = os.environ.get(SYSTEM_ENV)
+    os.environ[SYSTEM_ENV] = "SI"
+    try:
+        sh = Sheet("si")
+        sh.given("P", "100 lbf")
+        sh.given("L", "10 in")
+        sh.step("M", "P*L")
+        assert str(sh["M"].units) == "newton * meter"
+        assert sh["M"].magnitude == pytest.approx(112.98482902761669)  # 1000 lbf·in × 0.1129848 N·m (NIST SP 811, from memory)
+    finally:
+        if before is None:
+            os.environ.pop(SYSTEM_ENV, None)
+        else:
+            os.environ[SYSTEM_ENV] = before
+    assert Sheet("us").system == (before or "US")
