@@ -38,3 +38,21 @@ sh
 
 # %%
 sh.summary_frame()
+
+# %% [markdown]
+# ## What-if
+#
+# Change a given in the panel below to see the check follow (the sheet above is not redrawn).
+# A value the sheet cannot take is refused with its message and the last good values stay.
+
+# %% tags=["nbval-ignore-output"]
+from calcpad.widgets import what_if
+
+panel = what_if(sh)
+panel
+
+# %%
+panel.set("P", "120 lbf")
+ratio_at_120_lbf = round(sh.summary()[0].ratio, 3)
+panel.reset()  # back to this template's parameters, so the stored sheet is the one above
+ratio_at_120_lbf

@@ -26,7 +26,9 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
     nb = jupytext.read(source)
     nb.metadata["kernelspec"] = {"name": KERNEL, "display_name": "Python 3", "language": "python"}
     nb.metadata.pop("jupytext", None)
-    client = NotebookClient(nb, timeout=timeout, kernel_name=KERNEL, resources={"metadata": {"path": str(source.parent)}})
+    client = NotebookClient(
+        nb, timeout=timeout, kernel_name=KERNEL, store_widget_state=False, resources={"metadata": {"path": str(source.parent)}}
+    )
     client.execute()
     target = source.with_suffix(".ipynb")
     fd, tmp = tempfile.mkstemp(dir=target.parent, suffix=".ipynb.tmp")
