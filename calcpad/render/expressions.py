@@ -321,7 +321,8 @@ class _SymbolicText(StrPrinter):
 
     def _factor(self, e: sp.Basic, in_den: bool = False) -> str:
         text = self._print(e)
-        wrap = isinstance(e, sp.Add) or (isinstance(e, sp.Mul) and (in_den or (e.args and e.args[0] == -1)))
+        # a product inside a product is bracketed: M·(D_o/2)/I, not M·D_o/2/I
+        wrap = isinstance(e, (sp.Add, sp.Mul))
         return f"({text})" if wrap else text
 
     def _print_Mul(self, expr: sp.Mul) -> str:

@@ -134,3 +134,12 @@ def test_products_print_flat_as_written():
     assert "G = 0.85\n" in text  # a number written into a formula is not repeated
     latex = sheet_latex(sh.evaluate())
     assert r"\frac{D_{o}^{3}}{\frac{D_{o}}{2}}" in latex
+
+
+def test_nested_product_bracketed_in_text():
+    sh = Sheet("nested")
+    sh.given("M", "3570 lbf*in")
+    sh.given("D_o", "1.9 in")
+    sh.given("I", "0.3099 in**4")
+    sh.step("sigma_b", "M*(D_o/2)/I", unit="ksi")
+    assert "σ_b = M·(D_o/2)/I = 3,570 lbf·in × (1.9 in/2)/0.3099 in⁴ = 10.94 ksi" in sheet_text(sh.evaluate())
