@@ -136,14 +136,28 @@ def check_rows_latex(c: CheckResult) -> list[tuple[str, str, str]]:
     return rows
 
 
+#: Characters per display block. MathJax refuses one expression past its internal buffer
+#: (about 5 KB after macro expansion), so a sheet prints as several ``array`` blocks.
+BLOCK_CHARS = 2500
+
+
+def _row_latex(desc: str, math: str, ref: str) -> str:
+    lead = desc if desc.startswith("\\") or not desc else rf"\text{{{desc}}}"
+    tail = rf"{{\scriptsize \text{{[{ref}]}}}}" if ref else ""  # small, so long clause text fits
+    return f"{lead} & {math} & {tail}"
+
+
 def sheet_latex(result: SheetResult) -> str:
-    """The whole sheet as one display-math ``array`` (MathJax renders it in JupyterLab)."""
-    rows = [(rf"\textbf{{{_text(result.title)}}}", "", "")]
+    """The sheet as display-math ``array`` blocks: a new block at each heading and whenever a
+    block would pass :data:`BLOCK_CHARS` (MathJax renders each block in JupyterLab)."""
+    blocks: list[list[str]] = [[_row_latex(rf"\textbf{{{_text(result.title)}}}", "", "")]]
+    size = 0
     for step in result.steps:
-        rows.extend(step_latex(step))
-    body = " \\\\\n".join(
-        f"{desc if desc.startswith(chr(92)) or not desc else chr(92) + 'text{' + desc + '}'} & {math} & "
-        + (rf"\text{{[{ref}]}}" if ref else "")
-        for desc, math, ref in rows
-    )
-    return "$$\n\\begin{array}{lll}\n" + body + "\n\\end{array}\n$$"
+        rows = [_row_latex(*r) for r in step_latex(step)]
+        length = sum(len(r) for r in rows)
+        if size > 0 and (isinstance(step, HeadingResult) or size + length > BLOCK_CHARS):
+            blocks.append([])
+            size = 0
+        blocks[-1].extend(rows)
+        size += length
+    return "\n".join("$$\n\\begin{array}{lll}\n" + " \\\\\n".join(b) + "\n\\end{array}\n$$" for b in blocks if b)

@@ -143,3 +143,15 @@ def test_nested_product_bracketed_in_text():
     sh.given("I", "0.3099 in**4")
     sh.step("sigma_b", "M*(D_o/2)/I", unit="ksi")
     assert "σ_b = M·(D_o/2)/I = 3,570 lbf·in × (1.9 in/2)/0.3099 in⁴ = 10.94 ksi" in sheet_text(sh.evaluate())
+
+
+def test_notebook_latex_split_into_blocks_mathjax_accepts():
+    """MathJax 3 refuses one TeX expression past its ~5 KB buffer ("internal buffer size
+    exceeded", seen in JupyterLab 4); a long sheet must print as several blocks."""
+    sh = leg_sheet()
+    for i in range(60):
+        sh.step(f"x_{i}", "M*c/I + P/(D_o*t)", unit="psi")
+    latex = sheet_latex(sh.evaluate())
+    blocks = latex.split("$$\n\\begin{array}")
+    assert len(blocks) > 3
+    assert all(len(b) < 5000 for b in blocks)
