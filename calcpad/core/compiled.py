@@ -41,6 +41,18 @@ _UFUNCS: dict[type, Callable[[Any], Any]] = {
 _COMPARE = {"<": np.less, "<=": np.less_equal, ">": np.greater, ">=": np.greater_equal}
 
 
+def _fold(parts: list[Fn], op: Callable[[Any, Any], Any]) -> Fn:
+    """Combine the values of ``parts`` left to right with a binary numpy function."""
+
+    def run(env: dict[str, Any]) -> Any:
+        out = parts[0](env)
+        for f in parts[1:]:
+            out = op(out, f(env))
+        return out
+
+    return run
+
+
 def _product(coef: float, num: list[Fn], den: list[Fn]) -> Fn:
     """coef · Πnum / Πden, multiplying scalars first so arrays are touched as few times as possible."""
 
@@ -107,31 +119,14 @@ def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
             coef, num, den = term(e)
             return _product(coef, num, den)
         if isinstance(e, sp.Add):
-            parts = [build(a) for a in e.args]
-
-            def add(env: dict[str, Any]) -> Any:
-                out = parts[0](env)
-                for f in parts[1:]:
-                    out = out + f(env)
-                return out
-
-            return add
+            return _fold([build(a) for a in e.args], np.add)
         if isinstance(e, sp.Pow):
             base, exp = build(e.args[0]), build(e.args[1])
             if e.args[1] == sp.Rational(1, 2):
                 return lambda env: np.sqrt(base(env))
             return lambda env: np.power(base(env), exp(env))
         if isinstance(e, (sp.Min, sp.Max)):
-            parts = [build(a) for a in e.args]
-            pick = np.minimum if isinstance(e, sp.Min) else np.maximum
-
-            def select(env: dict[str, Any]) -> Any:
-                out = parts[0](env)
-                for f in parts[1:]:
-                    out = pick(out, f(env))
-                return out
-
-            return select
+            return _fold([build(a) for a in e.args], np.minimum if isinstance(e, sp.Min) else np.maximum)
         if type(e) in _UFUNCS:
             func, arg = _UFUNCS[type(e)], build(e.args[0])
             return lambda env: func(arg(env))
@@ -145,16 +140,7 @@ def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
             lhs, rhs, cmp = build(e.lhs), build(e.rhs), _COMPARE[e.rel_op]
             return lambda env: cmp(lhs(env), rhs(env))
         if isinstance(e, (sp.And, sp.Or)):
-            parts = [build(a) for a in e.args]
-            op = np.logical_and if isinstance(e, sp.And) else np.logical_or
-
-            def logic(env: dict[str, Any]) -> Any:
-                out = parts[0](env)
-                for f in parts[1:]:
-                    out = op(out, f(env))
-                return out
-
-            return logic
+            return _fold([build(a) for a in e.args], np.logical_and if isinstance(e, sp.And) else np.logical_or)
         if isinstance(e, sp.Not):
             arg = build(e.args[0])
             return lambda env: np.logical_not(arg(env))

@@ -79,9 +79,6 @@ def _eval(node: sp.Basic, env: Mapping[str, pint.Quantity], step: str) -> pint.Q
         exponent = _dimensionless_float(_eval(exp_node, env, step), exp_node, "the exponent", step)
         if float(exponent).is_integer():
             exponent = int(exponent)
-        if exponent != int(exponent if isinstance(exponent, int) else 0) and _as_q(base).dimensionality != _DIMLESS.dimensionality:
-            # fractional powers of a unit are fine for pint (sqrt(in**4) -> in**2)
-            pass
         try:
             if isinstance(base, pint.Quantity) and np.any(np.asarray(base.magnitude) < 0) and not isinstance(exponent, int):
                 raise DimensionError(f"step {step!r}: {_label(node)} takes a fractional power of a negative value")

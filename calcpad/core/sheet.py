@@ -406,13 +406,14 @@ class Sheet:
         if self._result is not None and not self._dirty:
             return self._result
         recomputed: set[str] = set()
-        for name in self.order():
+        order = self.order()
+        for name in order:
             step = self._defs[name]
             if name in self._dirty or name not in self._results or any(d in recomputed for d in step.depends):
                 self._results[name] = self._evaluate_step(step)
                 recomputed.add(name)
         self._dirty.clear()
-        self.last_recomputed = [n for n in self.order() if n in recomputed]
+        self.last_recomputed = [n for n in order if n in recomputed]
         self._result = self._assemble()
         return self._result
 
