@@ -12,6 +12,10 @@ Wall thickness used for properties (``wall="design"``, the default):
 * EMT: the nominal wall is always used.
 
 Weights per foot always use the nominal wall and 490 lb/ft^3 steel.
+
+WT-shapes are not a data file of their own: each is derived from a W row by cutting the W at
+mid-depth (``W8x18`` -> ``WT4x9``: depth d/2, the same bf, tf, tw, fillet r = k_des - tf) and
+built as a :class:`~calcpad.eng.sections.shapes.Tee` (flange at the top, stem down).
 """
 
 from __future__ import annotations
@@ -31,7 +35,7 @@ import pandas as pd
 from calcpad.core.errors import InputError
 from calcpad.core.units import Q_, parse_quantity
 from calcpad.eng.sections.props import UNITS
-from calcpad.eng.sections.shapes import Angle, Channel, IShape, RectBar, RectTube, RoundTube, Shape
+from calcpad.eng.sections.shapes import Angle, Channel, IShape, RectBar, RectTube, RoundTube, Shape, Tee
 
 __all__ = [
     "ERW_DESIGN_WALL_FACTOR",
@@ -56,6 +60,7 @@ FAMILIES: dict[str, str] = {
     "angle": "equal and unequal leg angles",
     "channel": "C and MC channels",
     "w": "W-shapes",
+    "wt": "WT-shapes (each W-shape cut at mid-depth)",
     "flat_bar": "flat bar",
     "emt": "EMT conduit (ANSI C80.3)",
 }
@@ -151,6 +156,20 @@ def _build_w(entry: CatalogEntry, _wall: str) -> Shape:
     return IShape(d["d"], d["bf"], d["tf"], d["tw"], max(d["k_des"] - d["tf"], 0.0), name=entry.designation)
 
 
+def _build_wt(entry: CatalogEntry, _wall: str) -> Shape:
+    d = entry.data
+    return Tee(d["d"], d["bf"], d["tf"], d["tw"], max(d["k_des"] - d["tf"], 0.0), name=entry.designation)
+
+
+def _wt_from_w(w: CatalogEntry) -> CatalogEntry:
+    """The WT cut from a W at mid-depth: WT{nominal depth/2}x{weight/2}, depth d/2, same bf, tf, tw, k_des."""
+    depth, weight = w.key
+    key = (depth / 2.0, weight / 2.0)
+    data = dict(w.data, d=w.data["d"] / 2.0)
+    source = f"cut from {w.designation} at mid-depth (d/2; bf, tf, tw, k_des as the W); {w.source}"
+    return CatalogEntry(f"WT{key[0]:g}x{key[1]:g}", "wt", key, data, source, _build_wt)
+
+
 def _build_flat(entry: CatalogEntry, _wall: str) -> Shape:
     d = entry.data
     return RectBar(d["t"], d["w"], name=entry.designation)
@@ -196,10 +215,13 @@ def _entries() -> tuple[CatalogEntry, ...]:
         fam_prefix = 1.0 if r["designation"].startswith("MC") else 0.0
         out.append(CatalogEntry(r["designation"], "channel", (fam_prefix, *nums), data, src, _build_channel))
     rows, src = _read("w_shapes.csv")
+    w_entries = []
     for r in rows:
         data = {k: float(r[k]) for k in ("d", "bf", "tf", "tw", "k_des")}
         nums = tuple(float(x) for x in re.findall(r"\d+(?:\.\d+)?", r["designation"]))
-        out.append(CatalogEntry(r["designation"], "w", nums, data, src, _build_w))
+        w_entries.append(CatalogEntry(r["designation"], "w", nums, data, src, _build_w))
+    out += w_entries
+    out += [_wt_from_w(w) for w in w_entries]
     rows, src = _read("flat_bar.csv")
     for r in rows:
         w, t = _num(r["w"]), _num(r["t"])
@@ -267,6 +289,9 @@ def _parse(text: str) -> tuple[str, tuple[float, ...]] | None:
         if m:
             nums = tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(2).strip()) if p)
             return ("channel", (1.0 if m.group(1) == "mc" else 0.0, *nums))
+        m = re.fullmatch(r"wt\s*(.+)", s)
+        if m:
+            return ("wt", tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p))
         m = re.fullmatch(r"w\s*(.+)", s)
         if m:
             return ("w", tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p))
@@ -314,7 +339,7 @@ def _suggest(designation: str, parsed: tuple[str, tuple[float, ...]] | None) -> 
         names = [norm[h] for h in hits]
     if names:
         return "did you mean " + ", ".join(repr(n) for n in names) + "?"
-    return "expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', 'C6x8.2', 'W8x31', 'FB3x1/4', 'EMT 1-1/4'"
+    return "expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', 'C6x8.2', 'W8x31', 'WT4x9', 'FB3x1/4', 'EMT 1-1/4'"
 
 
 def get_section(designation: str, wall: str = "design") -> Shape:
@@ -325,7 +350,8 @@ def get_section(designation: str, wall: str = "design") -> Shape:
     is built even when not in the stock list.
 
     Args:
-        designation: e.g. ``"Pipe 1-1/2 Std"``, ``"HSS4x4x1/4"``, ``"L3x3x1/4"``, ``"C6x8.2"``.
+        designation: e.g. ``"Pipe 1-1/2 Std"``, ``"HSS4x4x1/4"``, ``"L3x3x1/4"``, ``"C6x8.2"``,
+            ``"WT4x9"``.
         wall: ``"design"`` or ``"nominal"`` wall for HSS and pipe (see module docstring).
 
     Raises:
@@ -347,7 +373,8 @@ def _family(family: str) -> list[str]:
     f = family.strip().lower().replace(" ", "_").replace("-", "_")
     aliases = {"hss": ["hss_square", "hss_rect"], "hss_rectangular": ["hss_rect"], "rect_hss": ["hss_rect"],
                "square_hss": ["hss_square"], "round_hss": ["hss_round"], "angles": ["angle"], "l": ["angle"],
-               "channels": ["channel"], "c": ["channel"], "w_shape": ["w"], "w_shapes": ["w"], "flat": ["flat_bar"],
+               "channels": ["channel"], "c": ["channel"], "w_shape": ["w"], "w_shapes": ["w"], "wt_shape": ["wt"],
+               "wt_shapes": ["wt"], "flat": ["flat_bar"],
                "fb": ["flat_bar"], "conduit": ["emt"], "pipes": ["pipe"]}
     if f in FAMILIES:
         return [f]
