@@ -1,15 +1,27 @@
-"""Fillet welds, AISC 360-16 J2.2b and J2.4, and stitch (intermittent) welds by shear flow.
+"""Fillet welds, AISC 360-16 J2.2b and J2.4 (with the base metal along them, J4.2), and stitch welds by shear flow.
 
 Weld strength: R_n = F_nw·A_we with F_nw = 0.60·F_EXX·(1 + 0.50·sin^1.5 θ) (Eqs. J2-4, J2-5),
 A_we = 0.707·w·L_e per weld (equal-leg fillet throat); φ = 0.75, Ω = 2.00 (Table J2.5).
-Base-metal strength at the weld (J4) is not part of these checks.
+
+Base metal along a fillet weld (optional, when ``base_t`` is given): the shear plane through the
+base metal beside each weld is checked for shear yielding, R_n = 0.60·F_y·A_gv (Eq. J4-3,
+φ = 1.00, Ω = 1.50) and shear rupture, R_n = 0.60·F_u·A_nv (Eq. J4-4, φ = 0.75, Ω = 2.00),
+with A_gv = A_nv = n_bm·t·L_e (welded, no holes; L_e is the weld's effective length, which is
+conservative for long end-loaded welds). Tension and block shear of the connected parts
+(J4.1, J4.3) are not part of these checks.
 """
 
 from __future__ import annotations
 
+import math
 from typing import Any
 
+import pint
+
+from calcpad.core.errors import InputError
+from calcpad.core.names import is_valid_name
 from calcpad.core.sheet import Sheet
+from calcpad.core.units import parse_quantity
 from calcpad.eng.checks._common import Calc, CheckInputError, check_length
 
 __all__ = ["add_fillet_weld_check", "add_stitch_weld_check"]
@@ -17,6 +29,64 @@ __all__ = ["add_fillet_weld_check", "add_stitch_weld_check"]
 
 def _size_rules(calc: Calc) -> None:
     calc.given("w_u", "0.0625 in", "Fillet size increment (1/16 in)", "AISC 360-16 Table J2.4", dim="[length]")
+
+
+def _positive(sh: Sheet, field: str, value: Any, dim: str, what: str) -> tuple[Any, pint.Quantity]:
+    """Read ``value`` as a positive, finite quantity of dimension ``dim``.
+
+    Returns what to hand to :meth:`Calc.given` (the quantity, or the name of a sheet value,
+    which stays linked) and the current quantity.
+    """
+    linked = isinstance(value, str) and is_valid_name(value) and value in sh
+    q = sh[value] if linked else parse_quantity(value, field, expected=dim)
+    if linked:
+        parse_quantity(q, field, expected=dim)
+    mag = q.magnitude
+    if not isinstance(mag, (int, float)) or not math.isfinite(float(mag)):
+        raise CheckInputError(field, value, f"a single finite {what}")
+    if mag <= 0:
+        shown = f"{value} = {q:~}" if linked else value
+        raise CheckInputError(field, shown, f"a positive {what}, not {'negative' if mag < 0 else 'zero'}")
+    return (value if linked else q), q
+
+
+def _base_metal_inputs(
+    sh: Sheet, base_t: Any, base_Fy: Any, base_Fu: Any, base_material: Any, base_planes: int | None
+) -> tuple[Any, Any, Any, str] | None:
+    """Validate the base-metal inputs before anything is written; ``None`` when not asked for.
+
+    Returns thickness, F_y and F_u (each a quantity or the name of a sheet value) and the
+    material source text.
+    """
+    if base_t is None:
+        extra = {"base_Fy": base_Fy, "base_Fu": base_Fu, "base_material": base_material, "base_planes": base_planes}
+        given = [k for k, v in extra.items() if v is not None]
+        if given:
+            raise CheckInputError("base_t", None, f"the base metal thickness (e.g. '0.25 in') when {', '.join(given)} is given")
+        return None
+    if base_planes is not None and not (isinstance(base_planes, int) and not isinstance(base_planes, bool) and base_planes >= 1):
+        raise CheckInputError("base_planes", base_planes, "a whole number of base-metal shear planes >= 1")
+    t, _ = _positive(sh, "base_t", base_t, "[length]", "thickness")
+    src = ""
+    if base_material is not None:
+        from calcpad.eng.materials import get_material  # same layer (eng); lazy as in _common.add_material
+
+        try:
+            m = base_material if hasattr(base_material, "Fy") else get_material(base_material)
+        except InputError as exc:
+            raise CheckInputError("base_material", base_material, f"a catalog material name ({exc})") from None
+        src = m.name
+        base_Fy = base_Fy if base_Fy is not None else f"{m.Fy!r} ksi"
+        base_Fu = base_Fu if base_Fu is not None else f"{m.Fu!r} ksi"
+    if base_Fy is None:
+        raise CheckInputError("base_Fy", None, "the base metal yield stress such as '36 ksi', or base_material='A36'")
+    if base_Fu is None:
+        raise CheckInputError("base_Fu", None, "the base metal tensile strength such as '58 ksi', or base_material='A36'")
+    fy, fy_q = _positive(sh, "base_Fy", base_Fy, "ksi", "stress")
+    fu, fu_q = _positive(sh, "base_Fu", base_Fu, "ksi", "stress")
+    if fu_q.to("ksi").magnitude < fy_q.to("ksi").magnitude:
+        raise CheckInputError("base_Fu", base_Fu, f"a tensile strength at least the yield stress base_Fy = {fy_q:~}")
+    return t, fy, fu, src
 
 
 def add_fillet_weld_check(
@@ -31,9 +101,17 @@ def add_fillet_weld_check(
     theta: Any = "0 degree",
     n: int = 1,
     end_loaded: bool = False,
+    base_t: Any = None,
+    base_Fy: Any = None,
+    base_Fu: Any = None,
+    base_material: Any = None,
+    base_planes: int | None = None,
     suffix: str = "",
 ) -> list[str]:
     """Add fillet weld strength, minimum/maximum size and minimum length checks.
+
+    With ``base_t`` the base metal along the weld is checked too (AISC 360-16 J4.2 shear
+    yielding and shear rupture, see the module docstring).
 
     Args:
         sh: Sheet to write on.
@@ -47,13 +125,21 @@ def add_fillet_weld_check(
         theta: Angle between the line of action of the load and the weld axis, 0..90 degree.
         n: Number of equal welds sharing ``R`` (e.g. 2 for both sides).
         end_loaded: Apply the J2.2b reduction β for long end-loaded welds (Eq. J2-1).
+        base_t: Thickness of the base metal the shear plane beside the weld runs through
+            (> 0); when given, base-metal shear yielding and rupture are checked.
+        base_Fy: Yield stress of that base metal (or from ``base_material``).
+        base_Fu: Tensile strength of that base metal (or from ``base_material``), ≥ ``base_Fy``.
+        base_material: Material or catalog name (e.g. ``"A36"``) giving ``base_Fy``/``base_Fu``.
+        base_planes: Number of base-metal shear planes carrying ``R``; default ``n`` (one per
+            weld). Use 1 for welds on both faces of one plate along the same line.
         suffix: Name suffix.
 
     Returns:
-        Keys of the checks added.
+        Keys of the checks added (``ratio_gv`` and ``ratio_nv`` for the base metal when checked).
     """
     if not (isinstance(n, int) and not isinstance(n, bool) and n >= 1):
         raise CheckInputError("n", n, "a whole number of welds >= 1")
+    base = _base_metal_inputs(sh, base_t, base_Fy, base_Fu, base_material, base_planes)
     calc = Calc(sh, suffix)
     sh.heading(f"Fillet weld{f' [{suffix}]' if suffix else ''}", 2)
     calc.given("R_r", R, "Required strength of the weld group", dim="lbf", allow_zero=True,
@@ -108,8 +194,41 @@ def add_fillet_weld_check(
     keys.append(calc.check("Fillet size at least the minimum", "w_min", "w", key="ratio_wmin", ref="AISC 360-16 Table J2.4"))
     keys.append(calc.check("Fillet size at most the maximum", "w", "w_max", key="ratio_wmax", ref="AISC 360-16 J2.2b(b)"))
     keys.append(calc.check("Weld length at least 4w", "L_min", "L_w", key="ratio_Lw", ref="AISC 360-16 J2.2b(c)"))
-    sh.note("Base metal at the weld (AISC 360-16 J4) is checked separately.")
+    if base is None:
+        sh.note("Base metal at the weld (AISC 360-16 J4) is checked separately.")
+    else:
+        keys += _add_base_metal(calc, *base, base_planes)
+        sh.note("Base metal along the weld checked for shear yielding (AISC 360-16 Eq. J4-3) and shear rupture "
+                "(Eq. J4-4) on the shear planes beside the welds; tension and block shear of the connected parts "
+                "(J4.1, J4.3) are checked separately.")
     return keys
+
+
+def _add_base_metal(calc: Calc, t: Any, fy: Any, fu: Any, src: str, planes: int | None) -> list[str]:
+    """Write the J4.2 shear yielding / rupture steps and checks of the base metal along the weld."""
+    calc.sh.heading(f"Base metal along the weld{f' [{calc.suffix}]' if calc.suffix else ''}", 2)
+    calc.given("t_bm", t, "Base metal thickness through the shear plane beside the weld", dim="[length]")
+    calc.given("F_y_bm", fy, "Base metal specified minimum yield stress", src, dim="ksi")
+    calc.given("F_u_bm", fu, "Base metal specified minimum tensile strength", src, dim="ksi")
+    if planes is None:
+        calc.step("A_gv", "n_w*t_bm*L_e", "Gross shear area of the base metal (one plane per weld)", unit="in^2",
+                  ref="AISC 360-16 J4.2")
+    else:
+        calc.given("n_bm", planes, "Number of base-metal shear planes", dim="")
+        calc.step("A_gv", "n_bm*t_bm*L_e", "Gross shear area of the base metal", unit="in^2", ref="AISC 360-16 J4.2")
+    calc.step("A_nv", "A_gv", "Net shear area (welded, no holes)", unit="in^2", ref="AISC 360-16 J4.2")
+    calc.step("R_n_gv", "0.60*F_y_bm*A_gv", "Nominal strength, base metal shear yielding", unit="kip",
+              ref="AISC 360-16 Eq. J4-3")
+    calc.available_with("R_c_gv", "R_n_gv", 1.00, 1.50, "AISC 360-16 J4.2(a)", "gv", "Available strength, base metal shear yielding",
+                        unit="kip")
+    calc.step("R_n_nv", "0.60*F_u_bm*A_nv", "Nominal strength, base metal shear rupture", unit="kip",
+              ref="AISC 360-16 Eq. J4-4")
+    calc.available_with("R_c_nv", "R_n_nv", 0.75, 2.00, "AISC 360-16 J4.2(b)", "nv", "Available strength, base metal shear rupture",
+                        unit="kip")
+    return [
+        calc.check("Base metal shear yielding at the weld", "R_r", "R_c_gv", key="ratio_gv", ref="AISC 360-16 Eq. J4-3"),
+        calc.check("Base metal shear rupture at the weld", "R_r", "R_c_nv", key="ratio_nv", ref="AISC 360-16 Eq. J4-4"),
+    ]
 
 
 def add_stitch_weld_check(
