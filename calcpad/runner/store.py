@@ -2,7 +2,9 @@
 reviewers read in diffs; the ``.ipynb`` beside it holds the outputs nbval compares.
 
 ``python -m calcpad.runner.store notebooks/*.py`` rebuilds each ``.ipynb`` from its ``.py``,
-executes it in a fresh kernel of the current interpreter and writes it atomically.
+executes it in a fresh kernel of the current interpreter and writes it atomically. Cell ids
+are numbered and execution timestamps dropped, so a re-store changes the file only where an
+output changed.
 """
 
 from __future__ import annotations
@@ -30,6 +32,7 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
         nb, timeout=timeout, kernel_name=KERNEL, store_widget_state=False, resources={"metadata": {"path": str(source.parent)}}
     )
     client.execute()
+    _stabilise(nb)
     target = source.with_suffix(".ipynb")
     fd, tmp = tempfile.mkstemp(dir=target.parent, suffix=".ipynb.tmp")
     with os.fdopen(fd, "w", encoding="utf-8") as fh:
@@ -37,6 +40,13 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
     os.chmod(tmp, 0o644)  # mkstemp makes 0600 files; notebooks are ordinary repo files
     os.replace(tmp, target)
     return target
+
+
+def _stabilise(nb: object) -> None:
+    """Number the cell ids and drop per-run execution timestamps (quiet diffs)."""
+    for i, cell in enumerate(nb.cells):  # type: ignore[attr-defined]
+        cell["id"] = f"cell-{i:02d}"
+        cell.get("metadata", {}).pop("execution", None)
 
 
 def main(argv: list[str] | None = None) -> int:

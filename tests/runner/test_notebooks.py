@@ -28,6 +28,14 @@ def test_notebook_is_stored_executed(path: Path) -> None:
 
 
 @pytest.mark.parametrize("path", NOTEBOOKS, ids=lambda p: p.stem)
+def test_notebook_is_stored_without_run_noise(path: Path) -> None:
+    # calcpad.runner.store numbers cell ids and drops execution timestamps, so re-storing is quiet in diffs
+    cells = json.loads(path.read_text(encoding="utf-8"))["cells"]
+    assert [c["id"] for c in cells] == [f"cell-{i:02d}" for i in range(len(cells))]
+    assert not any("execution" in c.get("metadata", {}) for c in cells)
+
+
+@pytest.mark.parametrize("path", NOTEBOOKS, ids=lambda p: p.stem)
 def test_notebook_matches_py_source(path: Path) -> None:
     source = path.with_suffix(".py")
     assert source.exists(), f"{path.name} has no .py source"
