@@ -57,11 +57,30 @@ def test_negative_tension_explains_sign():
         add_tension_check(Sheet("x"), HSS, T="-5 kip", F_y="46 ksi", F_u="62 ksi")
 
 
-def test_angle_compression_not_covered():
+def test_angle_compression_needs_the_connected_leg():
+    # An angle is covered only as AISC 360-16 E5 describes it (end-connected through one leg).
+    sh = Sheet("x")
     with pytest.raises(NotCoveredError, match="not covered by this check") as err:
-        add_compression_check(Sheet("x"), get_section("L3x3x1/4"), P="1 kip", L="5 ft", F_y="36 ksi")
-    assert err.value.field == "section"
+        add_compression_check(sh, get_section("L3x3x1/4"), P="1 kip", L="5 ft", F_y="36 ksi")
+    assert err.value.field == "connected_leg"
     assert isinstance(err.value, CalcpadError)
+    assert sh.steps == []  # nothing half-written on the sheet
+
+
+def test_angle_compression_thin_legs_not_covered():
+    # AISC 360-16 E4: single angles with b/t > 0.71*sqrt(E/Fy) need flexural-torsional buckling (from memory).
+    with pytest.raises(NotCoveredError, match="E4") as err:
+        thin = {"kind": "angle", "d": "4 in", "b": "4 in", "t": "0.1875 in", "A": "1.46 in^2", "rx": "1.26 in", "ry": "1.26 in",
+                "r_min": "0.79 in"}  # b/t = 21.3
+        add_compression_check(Sheet("x"), thin, P="1 kip", L="5 ft", F_y="36 ksi", connected_leg="long")
+    assert err.value.field == "b/t"
+
+
+def test_angle_compression_leg_ratio_limit():
+    # AISC 360-16 E5(5): leg ratio below 1.7 (from memory); a 6 x 3 angle has 2.0.
+    angle = {"kind": "angle", "d": "6 in", "b": "3 in", "t": "0.5 in", "A": "4.3 in^2"}
+    with pytest.raises(NotCoveredError, match=r"1\.7"):
+        add_compression_check(Sheet("x"), angle, P="1 kip", L="5 ft", F_y="36 ksi", connected_leg="long")
 
 
 @pytest.mark.parametrize(

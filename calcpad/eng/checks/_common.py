@@ -251,8 +251,8 @@ def as_float(q: pint.Quantity, unit: str) -> float:
 
 
 def add_material(c: Calc, material: Any = None, F_y: Any = None, E: Any = None, F_u: Any = None, *, need_fu: bool = False,
-                 need_e: bool = True) -> None:
-    """Add ``F_y`` and ``E`` (and ``F_u``) from a Material / catalog name, or as given."""
+                 need_e: bool = True, G: Any = None, need_g: bool = False) -> None:
+    """Add ``F_y`` and ``E`` (and ``F_u``, ``G``) from a Material / catalog name, or as given."""
     src = ""
     if material is not None:
         from calcpad.eng.materials import get_material  # same layer (eng); lazy to keep import light
@@ -262,6 +262,7 @@ def add_material(c: Calc, material: Any = None, F_y: Any = None, E: Any = None, 
         F_y = F_y if F_y is not None else f"{m.Fy!r} ksi"
         E = E if E is not None else f"{m.E!r} ksi"
         F_u = F_u if F_u is not None else f"{m.Fu!r} ksi"
+        G = G if G is not None else f"{m.G!r} ksi"
     if F_y is None:
         raise CheckInputError("F_y", None, "a yield stress such as '50 ksi', or material='ASTM A992'")
     c.given("F_y", F_y, "Specified minimum yield stress", src, dim="ksi", shared=True)
@@ -271,6 +272,9 @@ def add_material(c: Calc, material: Any = None, F_y: Any = None, E: Any = None, 
         if F_u is None:
             raise CheckInputError("F_u", None, "a tensile strength such as '65 ksi', or material='ASTM A992'")
         c.given("F_u", F_u, "Specified minimum tensile strength", src, dim="ksi", shared=True)
+    if need_g:
+        c.given("G", G if G is not None else "11200 ksi", "Shear modulus of elasticity", src or "AISC 360-16 (G = 11,200 ksi)",
+                dim="ksi", shared=True)
 
 
 def add_props(c: Calc, sec: Any, names: Mapping[str, str] | Sequence[str], check: str) -> None:

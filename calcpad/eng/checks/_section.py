@@ -23,6 +23,7 @@ KINDS: dict[str, str] = {
     "rect_hss": "rectangular or square HSS",
     "i_shape": "doubly symmetric I-shape (W)",
     "angle": "single angle",
+    "tee": "tee (WT or cut I-shape)",
     "rect_bar": "solid rectangular bar",
     "round_bar": "solid round bar",
 }
@@ -54,6 +55,12 @@ PROPS: dict[str, tuple[str, str]] = {
     "h_t": ("", "Width-to-thickness ratio of the web / wall"),
     "bf_2tf": ("", "Flange width-to-thickness ratio bf/(2 tf)"),
     "h_tw": ("", "Web height-to-thickness ratio h/tw"),
+    "d_tw": ("", "Stem depth-to-thickness ratio d/tw"),
+    "Sx_top": ("in**3", "Elastic section modulus about x to the top fibre"),
+    "Sx_bot": ("in**3", "Elastic section modulus about x to the bottom fibre"),
+    "Sy_left": ("in**3", "Elastic section modulus about y to the left fibre"),
+    "Sy_right": ("in**3", "Elastic section modulus about y to the right fibre"),
+    "y_o": ("in", "Distance from the centroid to the shear centre along y"),
 }
 
 _CLASS_KIND = {
@@ -63,6 +70,7 @@ _CLASS_KIND = {
     "Angle": "angle",
     "RectBar": "rect_bar",
     "RoundBar": "round_bar",
+    "Tee": "tee",
 }
 
 
@@ -106,6 +114,10 @@ def _from_shape(shape: Any) -> Sec:
         v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_2tf=shape.bf / (2 * shape.tf), h_tw=p.ratios["h/tw"])
     elif kind == "angle":
         v.update(d=shape.d, b=shape.b, t=shape.t, b_t=max(shape.d, shape.b) / shape.t)
+        v.update(Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, Sy_left=p.Iy / p.c_left, Sy_right=p.Iy / p.c_right)
+    elif kind == "tee":
+        v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_2tf=shape.bf / (2 * shape.tf), d_tw=shape.d / shape.tw,
+                 Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, y_o=p.c_top - shape.tf / 2)
     elif kind == "rect_bar":
         v.update(H=shape.H, B=shape.B)
     elif kind == "round_bar":
@@ -170,5 +182,9 @@ def _derive(kind: str, v: dict[str, float]) -> None:
             v["r_min"] = min(rs)
     if kind == "round_hss" and "D_t" not in v and "D" in v and "t" in v:
         v["D_t"] = v["D"] / v["t"]
-    if kind == "i_shape" and "bf_2tf" not in v and "bf" in v and "tf" in v:
+    if kind in ("i_shape", "tee") and "bf_2tf" not in v and "bf" in v and "tf" in v:
         v["bf_2tf"] = v["bf"] / (2 * v["tf"])
+    if kind == "tee" and "d_tw" not in v and "d" in v and "tw" in v:
+        v["d_tw"] = v["d"] / v["tw"]
+    if kind == "angle" and "b_t" not in v and "t" in v and ("d" in v or "b" in v):
+        v["b_t"] = max(v.get("d", 0.0), v.get("b", 0.0)) / v["t"]

@@ -21,7 +21,7 @@ __all__ = ["ELEMENTS", "Element", "add_classification", "elements_for"]
 class Element:
     """One element row of Table B4.1: ratio property, limits as multiples, case numbers."""
 
-    code: str  # name code: "f" flange/wall, "w" web, "D" round wall, "l" angle leg
+    code: str  # name code: "f" flange/wall, "w" web, "D" round wall, "l" angle leg, "s" tee stem
     prop: str  # section property holding λ
     what: str  # description
     rc: tuple[float, str]  # B4.1a λ_r: (coefficient, "sqrt" for k*sqrt(E/Fy) or "lin" for k*E/Fy)
@@ -43,6 +43,10 @@ ELEMENTS: dict[str, tuple[Element, ...]] = {
         Element("w", "h_tw", "web of doubly symmetric I-shape, h/tw", (1.49, "sqrt"), 5, (3.76, "sqrt"), (5.70, "sqrt"), 15),
     ),
     "angle": (Element("l", "b_t", "leg of single angle, b/t", (0.45, "sqrt"), 3, (0.54, "sqrt"), (0.91, "sqrt"), 12),),
+    "tee": (
+        Element("f", "bf_2tf", "flange of tee, bf/(2tf)", (0.56, "sqrt"), 1, (0.38, "sqrt"), (1.0, "sqrt"), 10),
+        Element("s", "d_tw", "stem of tee, d/tw", (0.75, "sqrt"), 4, (0.84, "sqrt"), (1.52, "sqrt"), 14),
+    ),
 }
 
 
@@ -109,14 +113,14 @@ def add_classification(
 
     Args:
         sh: Sheet to write on.
-        section: Shape or property mapping (round_hss, rect_hss, i_shape, angle; bars have none).
+        section: Shape or property mapping (round_hss, rect_hss, i_shape, angle, tee; bars have none).
         material / F_y / E: Material or values.
         mode: ``"compression"`` (B4.1a) or ``"flexure"`` (B4.1b).
         axis: Bending axis for flexure (rect HSS flanges are the walls parallel to the axis).
         suffix: Name suffix.
 
     Returns:
-        Element code (``"f"``, ``"w"``, ``"D"`` or ``"l"``) -> name of its class step.
+        Element code (``"f"``, ``"w"``, ``"D"``, ``"l"`` or ``"s"``) -> name of its class step.
     """
     if mode not in ("compression", "flexure"):
         raise CheckInputError("mode", mode, "'compression' or 'flexure'")

@@ -1,8 +1,9 @@
 """Flexure, AISC 360-16 Chapter F: F2/F3 (I-shapes, major axis), F6 (I-shapes, minor axis),
-F7 (rectangular HSS), F8 (round HSS), F11 (solid rectangles and rounds).
+F7 (rectangular HSS), F8 (round HSS), F9 (tees) and F10 (equal-leg angles) via
+:mod:`calcpad.eng.checks.flexure_open`, F11 (solid rectangles and rounds).
 
 Available strength ``M_c`` (φ_b·M_n or M_n/Ω_b) is written under that name (plus suffix).
-Angles (F10) and tees (F9) raise :class:`CheckNotCoveredError`.
+Cases outside these raise :class:`CheckNotCoveredError`.
 """
 
 from __future__ import annotations
@@ -14,6 +15,7 @@ from calcpad.core.sheet import Sheet
 from calcpad.eng.checks._common import Calc, CheckInputError, CheckNotCoveredError, add_material
 from calcpad.eng.checks._section import Sec, resolve_section
 from calcpad.eng.checks.classify import write_elements
+from calcpad.eng.checks.flexure_open import write_angle_flexure, write_tee_flexure
 
 __all__ = ["add_flexure_check"]
 
@@ -32,6 +34,9 @@ def add_flexure_check(
     material: Any = None,
     F_y: Any = None,
     E: Any = None,
+    stem: str | None = None,
+    toe: str | None = None,
+    restraint: str = "none",
     suffix: str = "",
 ) -> str:
     """Add the flexural strength check of a member about one axis.
@@ -45,6 +50,12 @@ def add_flexure_check(
             (lateral-torsional buckling does not apply).
         C_b: Lateral-torsional buckling modification factor (1.0 is conservative), F1.
         material / F_y / E: Material or values.
+        stem: Tees: ``"tension"`` (flange compressed) or ``"compression"``; default the
+            latter (lower strength), stated on the sheet.
+        toe: Equal-leg angles: ``"compression"`` or ``"tension"`` for the toe of the leg
+            perpendicular to the bending axis; default compression, stated on the sheet.
+        restraint: Equal-leg angles with ``L_b``: ``"none"`` or ``"at max moment"``
+            (F10.2(ii)(b)); leave ``L_b`` out for continuous restraint.
         suffix: Name suffix.
 
     Returns:
@@ -55,9 +66,12 @@ def add_flexure_check(
         raise CheckInputError("axis", axis, "'x' or 'y'")
     calc = Calc(sh, suffix, "" if axis == "x" else "y")
     sec = resolve_section(section, kind)
-    if sec.kind == "angle":
-        raise CheckNotCoveredError("section", f"single angle {sec.label}", "single-angle flexure (AISC 360-16 F10) is not covered; "
-                                   "use a yield-based stress check (add_stress_check)")
+    _check_open_options(sec, stem, toe, restraint)
+    if sec.kind == "tee" and axis != "x":
+        raise CheckNotCoveredError("axis", axis, "tees bent in their plane of symmetry (axis='x', AISC 360-16 F9); bending about y is not covered")
+    if sec.kind == "angle" and not math.isclose(sec.need("d", "F10"), sec.need("b", "F10"), rel_tol=1e-9):
+        raise CheckNotCoveredError("section", sec.label, "equal-leg angles about a geometric axis; unequal-leg angles bend about "
+                                   "their principal axes (AISC 360-16 F10.2(iii)) and are not covered: use add_stress_check")
     sh.heading(f"Flexure about {axis}, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, E)
     calc.given("M_r", M, "Required flexural strength", dim="lbf*in", allow_negative=True)
@@ -68,11 +82,32 @@ def add_flexure_check(
         if not 1.0 <= float(cb.magnitude) <= 3.0:
             raise CheckInputError("C_b", C_b, "a factor from 1.0 to 3.0 (AISC 360-16 Eq. F1-1 gives at most 3.0)")
     fy, e = calc.value("F_y", "ksi"), calc.value("E", "ksi")
-    {"i_shape": _i_shape, "rect_hss": _rect_hss, "round_hss": _round_hss, "rect_bar": _bar, "round_bar": _bar}[sec.kind](
-        calc, sec, axis, L_b is not None, fy, e
-    )
+    if sec.kind == "tee":
+        write_tee_flexure(calc, sec, L_b is not None, stem)
+    elif sec.kind == "angle":
+        write_angle_flexure(calc, sec, axis, L_b is not None, toe, restraint)
+    else:
+        {"i_shape": _i_shape, "rect_hss": _rect_hss, "round_hss": _round_hss, "rect_bar": _bar, "round_bar": _bar}[sec.kind](
+            calc, sec, axis, L_b is not None, fy, e
+        )
     calc.available("M_c", "M_n", "flexure", "b", "Available flexural strength", unit="kip*ft")
     return calc.check(f"Flexure about {axis}", "M_r", "M_c", key="ratio_b", ref="AISC 360-16 F1")
+
+
+def _check_open_options(sec: Sec, stem: str | None, toe: str | None, restraint: str) -> None:
+    """Validate the tee / angle options before anything is written."""
+    if stem is not None and (sec.kind != "tee" or stem not in ("tension", "compression")):
+        expected = "'tension' (flange in compression) or 'compression' (stem tip in compression)" if sec.kind == "tee" else \
+            "nothing: it applies to tees only"
+        raise CheckInputError("stem", stem, expected)
+    if toe is not None and (sec.kind != "angle" or toe not in ("compression", "tension")):
+        expected = "'compression' or 'tension' (the toe of the leg perpendicular to the bending axis)" if sec.kind == "angle" else \
+            "nothing: it applies to single angles only"
+        raise CheckInputError("toe", toe, expected)
+    if restraint != "none" and (sec.kind != "angle" or restraint != "at max moment"):
+        expected = "'none' or 'at max moment' (leave L_b out for continuous restraint)" if sec.kind == "angle" else \
+            "nothing: it applies to single angles only"
+        raise CheckInputError("restraint", restraint, expected)
 
 
 def _zs(calc: Calc, sec: Sec, axis: str) -> None:

@@ -61,6 +61,10 @@ def check_member(
     M_y: Any = None,
     V: Any = None,
     K: Any = 1.0,
+    L_y: Any = None,
+    K_y: Any = None,
+    L_z: Any = None,
+    K_z: Any = None,
     L_b: Any = None,
     C_b: Any = 1.0,
     L_v: Any = None,
@@ -71,6 +75,12 @@ def check_member(
     F_y: Any = None,
     F_u: Any = None,
     E: Any = None,
+    G: Any = None,
+    connected_leg: str | None = None,
+    truss: str = "planar",
+    stem: str | None = None,
+    toe: str | None = None,
+    restraint: str = "none",
     suffix: str = "",
     table: bool = True,
 ) -> MemberChecks:
@@ -83,12 +93,16 @@ def check_member(
         P: Axial force: **positive = compression, negative = tension** (or a sheet name).
         M_x, M_y: Bending moments about x and y (magnitudes used).
         V: Shear along the depth (with M_x).
-        K: Effective length factor.
+        K: Effective length factor (about x; about y and for twisting unless given).
+        L_y, K_y, L_z, K_z: Buckling about y and twisting (see :func:`add_compression_check`).
         L_b: Unbraced length for lateral-torsional buckling (default ``L``).
         C_b: LTB modification factor.
         L_v: Round HSS shear length (G5).
         A_n, U: Net area and shear lag factor for tension.
-        material / F_y / F_u / E: Material or values.
+        material / F_y / F_u / E / G: Material or values.
+        connected_leg, truss: Single angles in compression (E5).
+        stem: Tees in flexure, stem in ``"tension"`` or ``"compression"`` (F9).
+        toe, restraint: Equal-leg angles in flexure (F10).
         suffix: Name suffix for a second member on the sheet.
         table: Add the summary table (a snapshot of the ratios at build time).
 
@@ -104,17 +118,21 @@ def check_member(
     axial_c = axial_r = None
     s = f"_{suffix}" if suffix else ""
     if p is not None and p > 0:
-        out.keys["compression"] = add_compression_check(sh, sec, P=P, L=L, K=K, suffix=suffix, **mat)
+        out.keys["compression"] = add_compression_check(sh, sec, P=P, L=L, K=K, L_y=L_y, K_y=K_y, L_z=L_z, K_z=K_z, G=G,
+                                                        connected_leg=connected_leg, truss=truss, suffix=suffix, **mat)
         axial_r, axial_c = _link(sh, P, f"P_r{s}"), f"P_c{s}"
     elif p is not None and p < 0:
         t_val = sh[P] * -1 if isinstance(P, str) and P in sh else -parse_quantity(P, "P", expected="lbf")
         out.keys["tension"] = add_tension_check(sh, sec, T=t_val, A_n=A_n, U=U, material=material, F_y=F_y, F_u=F_u, suffix=suffix)
         axial_r, axial_c = f"T_r{s}", f"T_c{s}"
     lb = L_b if L_b is not None else L
+    open_opts: dict[str, Any] = {k: v for k, v in (("stem", stem), ("toe", toe)) if v is not None}
+    if restraint != "none":
+        open_opts["restraint"] = restraint
     if M_x is not None:
-        out.keys["flexure x"] = add_flexure_check(sh, sec, M=M_x, axis="x", L_b=lb, C_b=C_b, suffix=suffix, **mat)
+        out.keys["flexure x"] = add_flexure_check(sh, sec, M=M_x, axis="x", L_b=lb, C_b=C_b, suffix=suffix, **open_opts, **mat)
     if M_y is not None:
-        out.keys["flexure y"] = add_flexure_check(sh, sec, M=M_y, axis="y", L_b=lb, C_b=C_b, suffix=suffix, **mat)
+        out.keys["flexure y"] = add_flexure_check(sh, sec, M=M_y, axis="y", L_b=lb, C_b=C_b, suffix=suffix, **open_opts, **mat)
     if V is not None:
         out.keys["shear"] = add_shear_check(sh, sec, V=V, L_v=L_v, suffix=suffix, **mat)
     if axial_c is not None and (M_x is not None or M_y is not None):

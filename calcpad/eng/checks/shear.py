@@ -1,4 +1,5 @@
-"""Shear, AISC 360-16 Chapter G: G2 (I-shape webs), G4 (rectangular HSS), G5 (round HSS).
+"""Shear, AISC 360-16 Chapter G: G2 (I-shape webs), G3 (single angles and tees),
+G4 (rectangular HSS), G5 (round HSS).
 
 Available strength ``V_c`` (φ_v·V_n or V_n/Ω_v) is written under that name (plus suffix).
 """
@@ -31,7 +32,8 @@ def add_shear_check(
 
     Args:
         sh: Sheet to write on.
-        section: I-shape (G2, major axis), rectangular HSS (G4) or round HSS (G5).
+        section: I-shape (G2, major axis), single angle or tee (G3, the leg or stem along the
+            shear), rectangular HSS (G4) or round HSS (G5).
         V: Required shear strength V_r (magnitude used).
         axis: Bending axis the shear goes with (``"x"``: shear parallel to the depth).
         L_v: Round HSS only: distance from maximum to zero shear (> 0); without it the
@@ -89,6 +91,24 @@ def add_shear_check(
             ref="AISC 360-16 G2.2",
         )
         calc.step("V_n", "0.6*F_y*A_w*C_v2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G4-1")
+    elif sec.kind == "angle" or (sec.kind == "tee" and axis == "x"):
+        if sec.kind == "tee":
+            calc.prop("b", sec.need("d", "G3"), "in", "Depth of the stem (tee depth)", sec.label)
+            calc.prop("t", sec.need("tw", "G3"), "in", "Stem thickness", sec.label)
+        else:
+            calc.prop("b", sec.need("d" if axis == "x" else "b", "G3"), "in", "Width of the leg resisting the shear", sec.label)
+            calc.prop("t", sec.need("t", "G3"), "in", "Leg thickness", sec.label, shared=True)
+        calc.given("k_v", 1.2, "Shear buckling coefficient", "AISC 360-16 G3", dim="")
+        calc.step("b_t", "b/t", "Width-to-thickness ratio for shear", ref="AISC 360-16 G3")
+        calc.branch(
+            "C_v2",
+            [("b_t <= 1.10*sqrt(k_v*E/F_y)", "1.0", "Eq. G2-9"),
+             ("b_t <= 1.37*sqrt(k_v*E/F_y)", "1.10*sqrt(k_v*E/F_y)/b_t", "Eq. G2-10"),
+             (None, "1.51*k_v*E/(b_t**2*F_y)", "Eq. G2-11")],
+            "Shear strength coefficient",
+            ref="AISC 360-16 G2.2",
+        )
+        calc.step("V_n", "0.6*F_y*b*t*C_v2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G3-1")
     elif sec.kind == "round_hss":
         calc.prop("A_g", sec.need("A", "G5"), "in**2", "Gross area", sec.label)
         calc.prop("D", sec.need("D", "G5"), "in", "Outside diameter", sec.label)
@@ -110,7 +130,8 @@ def add_shear_check(
         calc.step("V_n", "F_cr_v*A_g/2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G5-1")
     else:
         raise CheckNotCoveredError("section", f"{sec.kind} ({sec.label}) about {axis}",
-                                   "shear is covered for I-shapes about x (G2), rectangular HSS (G4) and round HSS (G5); "
+                                   "shear is covered for I-shapes and tees about x (G2, G3), single angles (G3), rectangular HSS (G4) "
+                                   "and round HSS (G5); "
                                    "use add_stress_check for others")
     calc.available_with("V_c", "V_n", phi, omega, "AISC 360-16 G1", "v", "Available shear strength", unit="kip")
     return calc.check("Shear", "V_r", "V_c", key="ratio_v", ref="AISC 360-16 G1")
