@@ -21,6 +21,7 @@ from calcpad.eng.checks.member import MemberChecks, check_member
 from calcpad.eng.checks.shear import add_shear_check
 from calcpad.eng.checks.stress import add_stress_check
 from calcpad.eng.checks.tension import add_tension_check
+from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interaction_check
 from calcpad.eng.checks.welds import add_fillet_weld_check, add_stitch_weld_check
 
 __all__ = [
@@ -40,6 +41,8 @@ __all__ = [
     "add_stitch_weld_check",
     "add_stress_check",
     "add_tension_check",
+    "add_torsion_check",
+    "add_torsion_interaction_check",
     "check_member",
     "resolve_section",
 ]

@@ -15,13 +15,14 @@ from typing import Any
 
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import parse_quantity
-from calcpad.eng.checks._common import Calc, CheckInputError
+from calcpad.eng.checks._common import Calc, CheckInputError, CheckNotCoveredError
 from calcpad.eng.checks._section import resolve_section
 from calcpad.eng.checks.combined import add_interaction_check
 from calcpad.eng.checks.compression import add_compression_check
 from calcpad.eng.checks.flexure import add_flexure_check
 from calcpad.eng.checks.shear import add_shear_check
 from calcpad.eng.checks.tension import add_tension_check
+from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interaction_check
 
 __all__ = ["MemberChecks", "check_member"]
 
@@ -60,6 +61,7 @@ def check_member(
     M_x: Any = None,
     M_y: Any = None,
     V: Any = None,
+    T: Any = None,
     K: Any = 1.0,
     L_y: Any = None,
     K_y: Any = None,
@@ -93,6 +95,7 @@ def check_member(
         P: Axial force: **positive = compression, negative = tension** (or a sheet name).
         M_x, M_y: Bending moments about x and y (magnitudes used).
         V: Shear along the depth (with M_x).
+        T: Torsion (round and rectangular HSS, H3.1); adds the H3.2 interaction.
         K: Effective length factor (about x; about y and for twisting unless given).
         L_y, K_y, L_z, K_z: Buckling about y and twisting (see :func:`add_compression_check`).
         L_b: Unbraced length for lateral-torsional buckling (default ``L``).
@@ -109,9 +112,11 @@ def check_member(
     Returns:
         The check keys per limit state and the governing one.
     """
-    if all(x is None for x in (P, M_x, M_y, V)):
-        raise CheckInputError("P, M_x, M_y, V", None, "at least one force or moment for the member")
+    if all(x is None for x in (P, M_x, M_y, V, T)):
+        raise CheckInputError("P, M_x, M_y, V, T", None, "at least one force or moment for the member")
     sec = resolve_section(section, kind)
+    if T is not None and sec.kind not in ("round_hss", "rect_hss"):
+        raise CheckNotCoveredError("T", T, "torsion of round or rectangular HSS (AISC 360-16 H3); open sections in torsion are not covered")
     out = MemberChecks()
     mat = {"material": material, "F_y": F_y, "E": E}
     p = _num(sh, P, "P", "lbf")
@@ -146,6 +151,24 @@ def check_member(
             M_cy=f"M_c_y{s}" if M_y is not None else None,
             suffix=suffix,
         )
+    if T is not None:
+        out.keys["torsion"] = add_torsion_check(sh, sec, T=T, L=L, suffix=suffix, **mat)
+        if M_y is None and any(x is not None for x in (axial_c, M_x, V)):
+            out.keys["torsion interaction"] = add_torsion_interaction_check(
+                sh,
+                T_r=_link(sh, T, f"T_r{s}"),
+                T_c=f"T_c{s}",
+                P_r=axial_r,
+                P_c=axial_c,
+                M_r=_link(sh, M_x, f"M_r{s}") if M_x is not None else None,
+                M_c=f"M_c{s}" if M_x is not None else None,
+                V_r=_link(sh, V, f"V_r{s}") if V is not None else None,
+                V_c=f"V_c{s}" if V is not None else None,
+                suffix=suffix,
+            )
+        elif M_y is not None:
+            sh.note("Torsion with biaxial bending: H3.2 (Eq. H3-6) is written for one axis of bending; check the interaction "
+                    "separately.")
     if not out.keys:
         raise CheckInputError("P", P, "a non-zero axial force, or a moment or shear to check")
     calc = Calc(sh, suffix)
