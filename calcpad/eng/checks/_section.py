@@ -15,7 +15,7 @@ from typing import Any
 from calcpad.core.units import parse_quantity
 from calcpad.eng.checks._common import CheckInputError, CheckNotCoveredError
 
-__all__ = ["KINDS", "PROPS", "Sec", "resolve_section"]
+__all__ = ["KINDS", "PROPS", "Sec", "channel_warping", "resolve_section"]
 
 #: Shape kinds the checks know.
 KINDS: dict[str, str] = {
@@ -24,6 +24,7 @@ KINDS: dict[str, str] = {
     "i_shape": "doubly symmetric I-shape (W)",
     "angle": "single angle",
     "tee": "tee (WT or cut I-shape)",
+    "channel": "channel (C, MC)",
     "rect_bar": "solid rectangular bar",
     "round_bar": "solid round bar",
 }
@@ -61,6 +62,9 @@ PROPS: dict[str, tuple[str, str]] = {
     "Sy_left": ("in**3", "Elastic section modulus about y to the left fibre"),
     "Sy_right": ("in**3", "Elastic section modulus about y to the right fibre"),
     "y_o": ("in", "Distance from the centroid to the shear centre along y"),
+    "x_o": ("in", "Distance from the centroid to the shear centre along x"),
+    "Cw": ("in**6", "Warping constant"),
+    "bf_tf": ("", "Flange width-to-thickness ratio bf/tf"),
 }
 
 _CLASS_KIND = {
@@ -71,6 +75,7 @@ _CLASS_KIND = {
     "RectBar": "rect_bar",
     "RoundBar": "round_bar",
     "Tee": "tee",
+    "Channel": "channel",
 }
 
 
@@ -97,6 +102,20 @@ class Sec:
         return v
 
 
+def channel_warping(d: float, bf: float, tf: float, tw: float, xc: float) -> tuple[float, float]:
+    """Warping constant C_w and centroid-to-shear-centre distance x_o of a channel (thin-wall).
+
+    With b' = bf - tw/2 and h = d - tf (centre lines): e_o = 3 tf b'^2/(6 b' tf + h tw) from the
+    web centre line, C_w = tf b'^3 h^2/12 (3 b' tf + 2 h tw)/(6 b' tf + h tw) (thin-walled
+    open-section theory, e.g. AISC Design Guide 9, from memory); ``xc`` is the centroid from
+    the back of the web.
+    """
+    b1, h = bf - tw / 2.0, d - tf
+    eo = 3.0 * tf * b1**2 / (6.0 * b1 * tf + h * tw)
+    cw = tf * b1**3 * h**2 / 12.0 * (3.0 * b1 * tf + 2.0 * h * tw) / (6.0 * b1 * tf + h * tw)
+    return cw, eo + (xc - tw / 2.0)
+
+
 def _from_shape(shape: Any) -> Sec:
     kind = _CLASS_KIND.get(type(shape).__name__)
     if kind is None:
@@ -115,6 +134,9 @@ def _from_shape(shape: Any) -> Sec:
     elif kind == "angle":
         v.update(d=shape.d, b=shape.b, t=shape.t, b_t=max(shape.d, shape.b) / shape.t)
         v.update(Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, Sy_left=p.Iy / p.c_left, Sy_right=p.Iy / p.c_right)
+    elif kind == "channel":
+        cw, xo = channel_warping(shape.d, shape.bf, shape.tf, shape.tw, p.xc)
+        v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_tf=shape.bf / shape.tf, h_tw=p.ratios["h/tw"], Cw=cw, x_o=xo)
     elif kind == "tee":
         v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_2tf=shape.bf / (2 * shape.tf), d_tw=shape.d / shape.tw,
                  Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, y_o=p.c_top - shape.tf / 2)
@@ -184,6 +206,8 @@ def _derive(kind: str, v: dict[str, float]) -> None:
         v["D_t"] = v["D"] / v["t"]
     if kind in ("i_shape", "tee") and "bf_2tf" not in v and "bf" in v and "tf" in v:
         v["bf_2tf"] = v["bf"] / (2 * v["tf"])
+    if kind == "channel" and "bf_tf" not in v and "bf" in v and "tf" in v:
+        v["bf_tf"] = v["bf"] / v["tf"]
     if kind == "tee" and "d_tw" not in v and "d" in v and "tw" in v:
         v["d_tw"] = v["d"] / v["tw"]
     if kind == "angle" and "b_t" not in v and "t" in v and ("d" in v or "b" in v):

@@ -7,7 +7,7 @@ the critical stress branch should be conditioned:
 * flexural buckling about x and y with their own effective lengths (I-shapes, rectangular
   HSS, tees, bars): the larger slenderness governs, E3-4;
 * torsional buckling of doubly symmetric I-shapes (E4-2) and flexural-torsional buckling of
-  tees (E4-3, singly symmetric about y) with ``L_cz``;
+  tees (E4-3, symmetric about y) and channels (symmetric about x) with ``L_cz``;
 * single angles end-connected through one leg: effective slenderness E5-1..E5-4.
 """
 
@@ -47,7 +47,7 @@ def write_elastic_buckling(
         _angle_e5(calc, sec, connected_leg, truss)
         return True
     two_axes = r is None and sec.kind not in ("round_hss", "round_bar") and (
-        sec.kind in ("i_shape", "tee") or L_y is not None or K_y is not None
+        sec.kind in ("i_shape", "tee", "channel") or L_y is not None or K_y is not None
         or abs(sec.need("rx", "E3") - sec.need("ry", "E3")) > 1e-9 * sec.need("rx", "E3")
     )
     if r is not None:
@@ -73,8 +73,8 @@ def write_elastic_buckling(
         calc.select("F_e", "min", {"F_e_fb": "flexural buckling (E3-4)", "F_e_tb": "torsional buckling (E4-2)"},
                     "Elastic buckling stress", unit="ksi", ref="AISC 360-16 E3, E4")
         return True
-    if sec.kind == "tee" and r is None:
-        _tee_e4(calc, sec, L_z, K_z)
+    if sec.kind in ("tee", "channel") and r is None:
+        _singly_symmetric_e4(calc, sec, L_z, K_z)
         return True
     calc.step("F_e", "pi**2*E/KL_r**2", "Elastic buckling stress", unit="ksi", ref="AISC 360-16 Eq. E3-4")
     return False
@@ -103,21 +103,33 @@ def _lz(calc: Calc, L_z: Any, K_z: Any) -> None:
     calc.given("K_z", K_z if K_z is not None else calc.name("K_y"), "Effective length factor for twisting", dim="")
 
 
-def _tee_e4(calc: Calc, sec: Sec, L_z: Any, K_z: Any) -> None:
-    """Flexural buckling about x and flexural-torsional buckling about the axis of symmetry y."""
+def _singly_symmetric_e4(calc: Calc, sec: Sec, L_z: Any, K_z: Any) -> None:
+    """Flexural buckling about the other axis and flexural-torsional buckling about the axis of
+    symmetry (y for tees, x for channels), Eq. E4-3 with the axes named accordingly."""
     _lz(calc, L_z, K_z)
+    tee = sec.kind == "tee"
+    sym, other, off = ("y", "x", "y_o") if tee else ("x", "y", "x_o")
     calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec.label, shared=True)
-    calc.prop("y_o", sec.need("y_o", "E4"), "in", "Centroid to shear centre (flange mid-thickness)", sec.label)
-    calc.step("F_ex", "pi**2*E/KL_rx**2", "Elastic flexural buckling stress about x", unit="ksi", ref="AISC 360-16 Eq. E4-5")
-    calc.step("F_ey", "pi**2*E/KL_ry**2", "Elastic flexural buckling stress about y", unit="ksi", ref="AISC 360-16 Eq. E4-6")
-    calc.step("r_o", "sqrt(y_o**2 + (I_x + I_y)/A_g)", "Polar radius of gyration about the shear centre", unit="in",
+    where = "flange mid-thickness" if tee else "behind the web"
+    calc.prop(off, sec.need(off, "E4"), "in", f"Centroid to shear centre ({where})", sec.label)
+    calc.step(f"F_e{other}", f"pi**2*E/KL_r{other}**2", f"Elastic flexural buckling stress about {other}", unit="ksi",
+              ref=f"AISC 360-16 Eq. {'E4-5' if other == 'x' else 'E4-6'}")
+    calc.step(f"F_e{sym}", f"pi**2*E/KL_r{sym}**2", f"Elastic flexural buckling stress about {sym}", unit="ksi",
+              ref=f"AISC 360-16 Eq. {'E4-5' if sym == 'x' else 'E4-6'}")
+    calc.step("r_o", f"sqrt({off}**2 + (I_x + I_y)/A_g)", "Polar radius of gyration about the shear centre", unit="in",
               ref="AISC 360-16 Eq. E4-9")
-    calc.step("F_ez", "G*J/(A_g*r_o**2)", "Elastic torsional buckling stress (C_w omitted for tees)", unit="ksi",
-              ref="AISC 360-16 Eq. E4-7 and User Note")
-    calc.step("H", "1 - y_o**2/r_o**2", "Flexural constant", ref="AISC 360-16 Eq. E4-8")
-    calc.step("F_e_ftb", "(F_ey + F_ez)/(2*H)*(1 - sqrt(1 - 4*F_ey*F_ez*H/(F_ey + F_ez)**2))",
+    if tee:
+        calc.step("F_ez", "G*J/(A_g*r_o**2)", "Elastic torsional buckling stress (C_w omitted for tees)", unit="ksi",
+                  ref="AISC 360-16 Eq. E4-7 and User Note")
+    else:
+        calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant (thin-wall)", sec.label, shared=True)
+        calc.step("F_ez", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(A_g*r_o**2)", "Elastic torsional buckling stress", unit="ksi",
+                  ref="AISC 360-16 Eq. E4-7")
+    calc.step("H", f"1 - {off}**2/r_o**2", "Flexural constant", ref="AISC 360-16 Eq. E4-8")
+    fs = f"F_e{sym}"
+    calc.step("F_e_ftb", f"({fs} + F_ez)/(2*H)*(1 - sqrt(1 - 4*{fs}*F_ez*H/({fs} + F_ez)**2))",
               "Elastic flexural-torsional buckling stress", unit="ksi", ref="AISC 360-16 Eq. E4-3")
-    calc.select("F_e", "min", {"F_ex": "flexural buckling about x (E4-5)", "F_e_ftb": "flexural-torsional buckling (E4-3)"},
+    calc.select("F_e", "min", {f"F_e{other}": f"flexural buckling about {other}", "F_e_ftb": "flexural-torsional buckling (E4-3)"},
                 "Elastic buckling stress", unit="ksi", ref="AISC 360-16 E4")
 
 

@@ -43,6 +43,10 @@ ELEMENTS: dict[str, tuple[Element, ...]] = {
         Element("w", "h_tw", "web of doubly symmetric I-shape, h/tw", (1.49, "sqrt"), 5, (3.76, "sqrt"), (5.70, "sqrt"), 15),
     ),
     "angle": (Element("l", "b_t", "leg of single angle, b/t", (0.45, "sqrt"), 3, (0.54, "sqrt"), (0.91, "sqrt"), 12),),
+    "channel": (
+        Element("f", "bf_tf", "flange of channel, bf/tf", (0.56, "sqrt"), 1, (0.38, "sqrt"), (1.0, "sqrt"), 10),
+        Element("w", "h_tw", "web of channel, h/tw", (1.49, "sqrt"), 5, (3.76, "sqrt"), (5.70, "sqrt"), 15),
+    ),
     "tee": (
         Element("f", "bf_2tf", "flange of tee, bf/(2tf)", (0.56, "sqrt"), 1, (0.38, "sqrt"), (1.0, "sqrt"), 10),
         Element("s", "d_tw", "stem of tee, d/tw", (0.75, "sqrt"), 4, (0.84, "sqrt"), (1.52, "sqrt"), 14),

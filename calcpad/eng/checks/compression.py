@@ -71,7 +71,7 @@ def add_compression_check(
     sec = resolve_section(section, kind)
     validate_angle_e5(sec, connected_leg, truss)
     sh.heading(f"Compression, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
-    add_material(calc, material, F_y, E, G=G, need_g=sec.kind in ("i_shape", "tee") and r is None)
+    add_material(calc, material, F_y, E, G=G, need_g=sec.kind in ("i_shape", "tee", "channel") and r is None)
     calc.given("P_r", P, "Required compressive strength", dim="lbf",
                sign_hint="compression is entered as a positive force; check tension with add_tension_check", allow_zero=True)
     check_length(calc, "L", L, "Unbraced length")
@@ -115,8 +115,8 @@ def add_compression_check(
             ref="AISC 360-16 E7.2(c)",
         )
         calc.step("P_n", "F_cr*A_e", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
-    elif sec.kind in ("tee", "angle"):
-        _unstiffened_e7(calc, sec)
+    elif sec.kind in ("tee", "angle", "channel"):
+        _open_shape_e7(calc, sec)
         calc.step("P_n", "F_cr*A_e", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     else:
         calc.step("P_n", "F_cr*A_g", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E3-1")
@@ -124,27 +124,37 @@ def add_compression_check(
     return calc.check("Axial compression", "P_r", "P_c", key="ratio_c", ref="AISC 360-16 E1")
 
 
-def _effective_widths(calc: Calc, elements: list[tuple[str, str, str]], case: str) -> None:
-    """Flat width, F_el and effective width b_e of each element (E7-2, E7-3, E7-5)."""
+def _effective_widths(calc: Calc, elements: list[tuple[str, str, str]], case: str, tag: str = "") -> None:
+    """Flat width, F_el and effective width b_e of each element (E7-2, E7-3, E7-5).
+
+    ``tag`` names the Table E7.1 factors (``c_1`` + tag) when two cases share a sheet.
+    """
     c1, c2 = E7_FACTORS[case]
-    calc.given("c_1", c1, "Effective width imperfection factor", f"AISC 360-16 Table E7.1 case ({case})", dim="")
-    calc.given("c_2", c2, "Effective width imperfection factor", f"AISC 360-16 Table E7.1 case ({case})", dim="")
+    calc.given(f"c_1{tag}", c1, "Effective width imperfection factor", f"AISC 360-16 Table E7.1 case ({case})", dim="")
+    calc.given(f"c_2{tag}", c2, "Effective width imperfection factor", f"AISC 360-16 Table E7.1 case ({case})", dim="")
     for code, width, what in elements:
         calc.step(f"b_{code}", width, f"Width, {what}", unit="in")
-        calc.step(f"F_el{code}", f"(c_2*lambda_rc{code}/lambda_{code})**2*F_y", f"Elastic local buckling stress, {what}", unit="ksi",
+        calc.step(f"F_el{code}", f"(c_2{tag}*lambda_rc{code}/lambda_{code})**2*F_y", f"Elastic local buckling stress, {what}", unit="ksi",
                   ref="AISC 360-16 Eq. E7-5")
         calc.branch(
             f"b_e{code}",
             [(f"lambda_{code} <= lambda_rc{code}*sqrt(F_y/F_cr)", f"b_{code}", "fully effective, Eq. E7-2"),
-             (None, f"b_{code}*(1 - c_1*sqrt(F_el{code}/F_cr))*sqrt(F_el{code}/F_cr)", "effective width, Eq. E7-3")],
+             (None, f"b_{code}*(1 - c_1{tag}*sqrt(F_el{code}/F_cr))*sqrt(F_el{code}/F_cr)", "effective width, Eq. E7-3")],
             f"Effective width, {what}",
             unit="in",
             ref="AISC 360-16 E7.1",
         )
 
 
-def _unstiffened_e7(calc: Calc, sec: Sec) -> None:
-    """Effective area of a tee or a single angle: unstiffened elements, Table E7.1 case (c)."""
+def _open_shape_e7(calc: Calc, sec: Sec) -> None:
+    """Effective area of a tee, single angle or channel (Table E7.1 cases (c) and (a))."""
+    if sec.kind == "channel":
+        calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec.label)
+        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec.label)
+        _effective_widths(calc, [("f", "lambda_f*t_f", "flanges")], "c", "f")
+        _effective_widths(calc, [("w", "lambda_w*t_w", "web (h)")], "a", "w")
+        calc.step("A_e", "A_g - 2*(b_f - b_ef)*t_f - (b_w - b_ew)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+        return
     if sec.kind == "tee":
         calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec.label)
         calc.prop("t_w", sec.need("tw", "E7"), "in", "Stem thickness", sec.label)

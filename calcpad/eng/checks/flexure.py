@@ -1,4 +1,5 @@
-"""Flexure, AISC 360-16 Chapter F: F2/F3 (I-shapes, major axis), F6 (I-shapes, minor axis),
+"""Flexure, AISC 360-16 Chapter F: F2/F3 (I-shapes, major axis; F2 for compact channels),
+F6 (I-shapes and channels, minor axis),
 F7 (rectangular HSS), F8 (round HSS), F9 (tees) and F10 (equal-leg angles) via
 :mod:`calcpad.eng.checks.flexure_open`, F11 (solid rectangles and rounds).
 
@@ -87,7 +88,7 @@ def add_flexure_check(
     elif sec.kind == "angle":
         write_angle_flexure(calc, sec, axis, L_b is not None, toe, restraint)
     else:
-        {"i_shape": _i_shape, "rect_hss": _rect_hss, "round_hss": _round_hss, "rect_bar": _bar, "round_bar": _bar}[sec.kind](
+        {"i_shape": _i_shape, "channel": _i_shape, "rect_hss": _rect_hss, "round_hss": _round_hss, "rect_bar": _bar, "round_bar": _bar}[sec.kind](
             calc, sec, axis, L_b is not None, fy, e
         )
     calc.available("M_c", "M_n", "flexure", "b", "Available flexural strength", unit="kip*ft")
@@ -116,9 +117,14 @@ def _zs(calc: Calc, sec: Sec, axis: str) -> None:
 
 
 def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: float) -> None:
+    """I-shapes (F2, F3, F6) and channels (F2 when compact, F6)."""
+    channel = sec.kind == "channel"
     if axis == "x" and sec.need("h_tw", "F2") > 3.76 * math.sqrt(e / fy):
-        raise CheckNotCoveredError("web h/tw", round(sec.need("h_tw", "F2"), 2), "I-shapes with noncompact or slender webs "
-                                   "(AISC 360-16 F4/F5) are not covered; choose a shape with a compact web")
+        raise CheckNotCoveredError("web h/tw", round(sec.need("h_tw", "F2"), 2), "I-shapes and channels with noncompact or slender "
+                                   "webs (AISC 360-16 F4/F5) are not covered; choose a shape with a compact web")
+    if axis == "x" and channel and sec.need("bf_tf", "F2") > 0.38 * math.sqrt(e / fy):
+        raise CheckNotCoveredError("flange bf/tf", round(sec.need("bf_tf", "F2"), 2), "channels with compact flanges (AISC 360-16 F2; "
+                                   "F3 covers I-shapes only)")
     _zs(calc, sec, axis)
     write_elements(calc, sec, "flexure", "x")
     if axis == "y":
@@ -135,6 +141,16 @@ def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: fl
         calc.select("M_n", "min", {"M_p": "yielding (F6-1)", "M_n_FLB": "flange local buckling (F6.2)"}, "Nominal flexural strength", unit="kip*ft")
         return
     calc.step("M_p", "F_y*Z", _MP_NOTE, unit="kip*ft", ref="AISC 360-16 Eq. F2-1")
+    if channel:
+        cands = {"M_p": "yielding (F2-1)"}
+        calc.sh.note("Compact channel flanges: flange local buckling does not limit the strength (AISC 360-16 F2).")
+        if braced_len:
+            _ltb_f2(calc, sec, channel=True)
+            cands["M_n_LTB"] = "lateral-torsional buckling (F2.2)"
+        else:
+            calc.sh.note("Compression flange continuously braced: lateral-torsional buckling (F2.2) does not apply.")
+        calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
+        return
     calc.branch(
         "M_n_FLB",
         [("lambda_f <= lambda_pf", "M_p", "compact flanges, no flange local buckling"),
@@ -146,31 +162,42 @@ def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: fl
     )
     cands = {"M_p": "yielding (F2-1)", "M_n_FLB": "flange local buckling (F3)"}
     if braced_len:
-        d, tf = sec.need("d", "F2"), sec.need("tf", "F2")
-        calc.prop("r_y", sec.need("ry", "F2"), "in", "Radius of gyration about y", sec.label)
-        calc.prop("I_y", sec.need("Iy", "F2"), "in**4", "Moment of inertia about y", sec.label)
-        calc.prop("J", sec.need("J", "F2"), "in**4", "Torsional constant", sec.label)
-        calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label)
-        calc.step("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")
-        calc.step("r_ts", "sqrt(sqrt(I_y*C_w)/S)", "Effective radius of gyration", unit="in", ref="AISC 360-16 Eq. F2-7")
-        calc.step("L_p", "1.76*r_y*sqrt(E/F_y)", "Limiting length, yielding", unit="ft", ref="AISC 360-16 Eq. F2-5")
-        calc.step("L_r", "1.95*r_ts*E/(0.7*F_y)*sqrt(J/(S*h_o) + sqrt((J/(S*h_o))**2 + 6.76*(0.7*F_y/E)**2))",
-                  "Limiting length, inelastic LTB (c = 1)", unit="ft", ref="AISC 360-16 Eq. F2-6")
-        calc.step("F_cr_LTB", "C_b*pi**2*E/(L_b/r_ts)**2*sqrt(1 + 0.078*J/(S*h_o)*(L_b/r_ts)**2)", "Elastic LTB stress (c = 1)",
-                  unit="ksi", ref="AISC 360-16 Eq. F2-4")
-        calc.branch(
-            "M_n_LTB",
-            [("L_b <= L_p", "M_p", "L_b <= L_p, no lateral-torsional buckling"),
-             ("L_b <= L_r", "min(C_b*(M_p - (M_p - 0.7*F_y*S)*(L_b - L_p)/(L_r - L_p)), M_p)", "inelastic LTB, Eq. F2-2"),
-             (None, "min(F_cr_LTB*S, M_p)", "elastic LTB, Eq. F2-3")],
-            "Lateral-torsional buckling",
-            unit="kip*ft",
-            ref="AISC 360-16 F2.2",
-        )
+        _ltb_f2(calc, sec, channel=False)
         cands["M_n_LTB"] = "lateral-torsional buckling (F2.2)"
     else:
         calc.sh.note("Compression flange continuously braced: lateral-torsional buckling (F2.2) does not apply.")
     calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
+
+
+def _ltb_f2(calc: Calc, sec: Sec, *, channel: bool) -> None:
+    """Lateral-torsional buckling of F2.2: c = 1 for I-shapes, Eq. F2-8b for channels."""
+    d, tf = sec.need("d", "F2"), sec.need("tf", "F2")
+    calc.prop("r_y", sec.need("ry", "F2"), "in", "Radius of gyration about y", sec.label)
+    calc.prop("I_y", sec.need("Iy", "F2"), "in**4", "Moment of inertia about y", sec.label)
+    calc.prop("J", sec.need("J", "F2"), "in**4", "Torsional constant", sec.label)
+    calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label)
+    if channel:
+        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant (thin-wall)", sec.label, shared=True)
+        calc.step("c", "h_o/2*sqrt(I_y/C_w)", "Factor c for channels", ref="AISC 360-16 Eq. F2-8b")
+        jc, note = "J*c", ""
+    else:
+        calc.step("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")
+        jc, note = "J", " (c = 1)"
+    calc.step("r_ts", "sqrt(sqrt(I_y*C_w)/S)", "Effective radius of gyration", unit="in", ref="AISC 360-16 Eq. F2-7")
+    calc.step("L_p", "1.76*r_y*sqrt(E/F_y)", "Limiting length, yielding", unit="ft", ref="AISC 360-16 Eq. F2-5")
+    calc.step("L_r", f"1.95*r_ts*E/(0.7*F_y)*sqrt({jc}/(S*h_o) + sqrt(({jc}/(S*h_o))**2 + 6.76*(0.7*F_y/E)**2))",
+              f"Limiting length, inelastic LTB{note}", unit="ft", ref="AISC 360-16 Eq. F2-6")
+    calc.step("F_cr_LTB", f"C_b*pi**2*E/(L_b/r_ts)**2*sqrt(1 + 0.078*{jc}/(S*h_o)*(L_b/r_ts)**2)", f"Elastic LTB stress{note}",
+              unit="ksi", ref="AISC 360-16 Eq. F2-4")
+    calc.branch(
+        "M_n_LTB",
+        [("L_b <= L_p", "M_p", "L_b <= L_p, no lateral-torsional buckling"),
+         ("L_b <= L_r", "min(C_b*(M_p - (M_p - 0.7*F_y*S)*(L_b - L_p)/(L_r - L_p)), M_p)", "inelastic LTB, Eq. F2-2"),
+         (None, "min(F_cr_LTB*S, M_p)", "elastic LTB, Eq. F2-3")],
+        "Lateral-torsional buckling",
+        unit="kip*ft",
+        ref="AISC 360-16 F2.2",
+    )
 
 
 def _rect_hss(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: float) -> None:

@@ -1,4 +1,4 @@
-"""Shear, AISC 360-16 Chapter G: G2 (I-shape webs), G3 (single angles and tees),
+"""Shear, AISC 360-16 Chapter G: G2 (I-shape and channel webs), G3 (single angles and tees),
 G4 (rectangular HSS), G5 (round HSS).
 
 Available strength ``V_c`` (φ_v·V_n or V_n/Ω_v) is written under that name (plus suffix).
@@ -76,7 +76,21 @@ def add_shear_check(
                         "Safety factor (shear)", ref="AISC 360-16 G1, G2.1(a)")
             calc.step("V_c", "V_n/Omega_v", "Available shear strength, ASD", unit="kip", ref="AISC 360-16 G1")
         return calc.check("Shear", "V_r", "V_c", key="ratio_v", ref="AISC 360-16 G1")
-    if sec.kind == "rect_hss":
+    if sec.kind == "channel" and axis == "x":
+        calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec.label)
+        calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec.label)
+        calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec.label)
+        calc.step("A_w", "d*t_w", "Area of web", unit="in^2", ref="AISC 360-16 G2.1")
+        calc.given("k_v", 5.34, "Web plate shear buckling coefficient (no stiffeners)", "AISC 360-16 G2.1(b)(2)", dim="")
+        calc.branch(
+            "C_v1",
+            [("h_tw <= 1.10*sqrt(k_v*E/F_y)", "1.0", "Eq. G2-3"),
+             (None, "1.10*sqrt(k_v*E/F_y)/h_tw", "Eq. G2-4")],
+            "Web shear strength coefficient (G2.1(a) is for I-shapes only)",
+            ref="AISC 360-16 G2.1(b)",
+        )
+        calc.step("V_n", "0.6*F_y*A_w*C_v1", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G2-1")
+    elif sec.kind == "rect_hss":
         calc.prop("t", sec.need("t", "G4"), "in", "Design wall thickness", sec.label)
         calc.prop("h_t", sec.need("h_t" if axis == "x" else "b_t", "G4"), "", "Web slenderness h/t", sec.label)
         calc.step("h", "h_t*t", "Web flat height", unit="in", ref="AISC 360-16 G4")
@@ -130,7 +144,7 @@ def add_shear_check(
         calc.step("V_n", "F_cr_v*A_g/2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G5-1")
     else:
         raise CheckNotCoveredError("section", f"{sec.kind} ({sec.label}) about {axis}",
-                                   "shear is covered for I-shapes and tees about x (G2, G3), single angles (G3), rectangular HSS (G4) "
+                                   "shear is covered for I-shapes, channels and tees about x (G2, G3), single angles (G3), rectangular HSS (G4) "
                                    "and round HSS (G5); "
                                    "use add_stress_check for others")
     calc.available_with("V_c", "V_n", phi, omega, "AISC 360-16 G1", "v", "Available shear strength", unit="kip")
