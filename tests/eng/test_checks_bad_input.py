@@ -127,5 +127,9 @@ def test_linked_negative_value_is_rejected_with_sign_hint():
 
 
 def test_unsupported_shape_class_not_covered():
+    # A built-up section has no single AISC 360 shape family: its kind must be named (or it is refused).
+    from calcpad.eng.sections.builtup import BuiltUp
+
+    bu = BuiltUp("two tubes").add(get_section("HSS4x4x1/4")).add(get_section("HSS4x4x1/4"), at=("4 in", "0 in"))
     with pytest.raises(NotCoveredError, match="not covered by this check"):
-        add_compression_check(Sheet("x"), get_section("C4x5.4"), P="1 kip", L="5 ft", F_y="36 ksi")
+        add_compression_check(Sheet("x"), bu, P="1 kip", L="5 ft", F_y="36 ksi")
