@@ -80,7 +80,7 @@ def test_slender_rect_hss_e7_arithmetic():
     b = lam * t
     be = b * (1 - 0.20 * math.sqrt(fel / fcr)) * math.sqrt(fel / fcr)
     ae = 2.93 - 4 * (b - be) * t
-    assert sh["A_e"].to("in^2").magnitude == pytest.approx(ae, rel=ARITH_REL)
+    assert sh["A_eff"].to("in^2").magnitude == pytest.approx(ae, rel=ARITH_REL)
     assert sh["P_n"].to("kip").magnitude == pytest.approx(fcr * ae, rel=ARITH_REL)
 
 
@@ -92,7 +92,7 @@ def test_slender_round_hss_e7_2c_arithmetic():
     assert 0.11 * E / fy < dt < 0.45 * E / fy
     sh = _pc(tube, "ASD", P="10 kip", L="8 ft", F_y="42 ksi")
     ae = (0.038 * E / (fy * dt) + 2 / 3) * tube.props.A
-    assert sh["A_e"].to("in^2").magnitude == pytest.approx(ae, rel=1e-9)
+    assert sh["A_eff"].to("in^2").magnitude == pytest.approx(ae, rel=1e-9)
     assert sh["class_cD"].magnitude == 3
 
 

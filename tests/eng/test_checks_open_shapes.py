@@ -66,7 +66,7 @@ def test_tee_flexural_torsional_buckling_matches_stability_theory(length_ft):
     p_ftb = float(min(r.real for r in roots if abs(r.imag) < 1e-9 and r.real > 0))
     fe = min(px, p_ftb) / p.A
     assert sh["F_e"].to("ksi").magnitude == pytest.approx(fe, rel=1e-7)
-    assert _kip(sh, "P_n") == pytest.approx(_fcr(fe, 50.0) * sh["A_e"].to("in^2").magnitude, rel=1e-7)
+    assert _kip(sh, "P_n") == pytest.approx(_fcr(fe, 50.0) * sh["A_eff"].to("in^2").magnitude, rel=1e-7)
 
 
 def test_tee_slender_stem_reduces_area_e7():
@@ -81,7 +81,7 @@ def test_tee_slender_stem_reduces_area_e7():
     fel = (1.49 * lam_r / lam) ** 2 * 50.0
     be = 6.0 * (1 - 0.22 * math.sqrt(fel / fcr)) * math.sqrt(fel / fcr)
     assert sh["b_es"].to("in").magnitude == pytest.approx(be, rel=REL)
-    assert sh["A_e"].to("in^2").magnitude == pytest.approx(tee.props.A - (6.0 - be) * 0.20, rel=REL)
+    assert sh["A_eff"].to("in^2").magnitude == pytest.approx(tee.props.A - (6.0 - be) * 0.20, rel=REL)
 
 
 # ----------------------------------------------------------------- E4, W shapes
@@ -164,7 +164,7 @@ def test_slender_angle_legs_e7_case_c():
         fel = (1.49 * lam_r / lam) ** 2 * 50.0
         be = 4.0 * (1 - 0.22 * math.sqrt(fel / fcr)) * math.sqrt(fel / fcr)
     assert be < 4.0
-    assert sh["A_e"].to("in^2").magnitude == pytest.approx(L44.props.A - 2 * (4.0 - be) * 0.25, rel=REL)
+    assert sh["A_eff"].to("in^2").magnitude == pytest.approx(L44.props.A - 2 * (4.0 - be) * 0.25, rel=REL)
 
 
 # ----------------------------------------------------------------- F9, tees

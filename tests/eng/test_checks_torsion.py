@@ -42,8 +42,8 @@ def test_round_hss_h3_1(D, t, length_in):
     fa = 1.23 * E / (math.sqrt(length_in / D) * dt**1.25)  # Eq. H3-2a
     fb = 0.60 * E / dt**1.5  # Eq. H3-2b
     fcr = min(max(fa, fb), 0.6 * 42.0)
-    assert _kipin(sh, "T_n") == pytest.approx(fcr * c, rel=REL)
-    assert _kipin(sh, "T_c") == pytest.approx(0.9 * fcr * c, rel=REL)
+    assert _kipin(sh, "T_n_tor") == pytest.approx(fcr * c, rel=REL)
+    assert _kipin(sh, "T_c_tor") == pytest.approx(0.9 * fcr * c, rel=REL)
 
 
 @pytest.mark.parametrize(("H", "B", "t"), [(4.0, 4.0, 0.25), (8.0, 4.0, 0.12), (16.0, 4.0, 0.08)])
@@ -60,8 +60,8 @@ def test_rect_hss_h3_1_branches(H, B, t):
     else:
         fcr = 0.458 * math.pi**2 * E / ht**2  # Eq. H3-5
     c = 2 * (B - t) * (H - t) * t - 4.5 * (4 - math.pi) * t**3
-    assert _kipin(sh, "T_n") == pytest.approx(fcr * c, rel=REL)
-    assert _kipin(sh, "T_c") == pytest.approx(fcr * c / 1.67, rel=REL)
+    assert _kipin(sh, "T_n_tor") == pytest.approx(fcr * c, rel=REL)
+    assert _kipin(sh, "T_c_tor") == pytest.approx(fcr * c / 1.67, rel=REL)
 
 
 def test_rect_branches_are_all_reached():
@@ -111,3 +111,13 @@ def test_half_given_pair_is_an_input_error_before_writing():
         add_torsion_interaction_check(sh, T_r="1 kip*ft", T_c="5 kip*ft", M_r="2 kip*ft")
     assert err.value.field == "M_r / M_c"
     assert sh.steps == []
+
+
+def test_tension_and_torsion_share_a_sheet():
+    # T_r / T_c belong to the tension check; torsion writes T_r_tor / T_c_tor.
+    sh = Sheet("m")
+    out = check_member(sh, get_section("HSS4x4x1/4"), F_y="50 ksi", F_u="62 ksi", L="8 ft", P="-5 kip", M_x="2 kip*ft",
+                       T="3 kip*ft")
+    assert {"tension", "torsion", "torsion interaction"} <= set(out.keys)
+    assert sh["T_r"].to("kip").magnitude == pytest.approx(5.0)
+    assert sh["T_r_tor"].to("kip*ft").magnitude == pytest.approx(3.0)

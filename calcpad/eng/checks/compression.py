@@ -103,21 +103,21 @@ def add_compression_check(
     if sec.kind == "rect_hss":
         calc.prop("t", sec.need("t", "E7"), "in", "Design wall thickness", sec.label)
         _effective_widths(calc, [("f", "lambda_f*t", "flange walls"), ("w", "lambda_w*t", "web walls")], "b")
-        calc.step("A_e", "A_g - 2*(b_f - b_ef)*t - 2*(b_w - b_ew)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
-        calc.step("P_n", "F_cr*A_e", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
+        calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t - 2*(b_w - b_ew)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+        calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     elif sec.kind == "round_hss":
         calc.branch(
-            "A_e",
+            "A_eff",
             [("lambda_D <= lambda_rcD", "A_g", "nonslender wall"),
              (None, "(0.038*E/(F_y*lambda_D) + 2/3)*A_g", "slender wall, E7.2(c)")],
             "Effective area",
             unit="in^2",
             ref="AISC 360-16 E7.2(c)",
         )
-        calc.step("P_n", "F_cr*A_e", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
+        calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     elif sec.kind in ("tee", "angle", "channel"):
         _open_shape_e7(calc, sec)
-        calc.step("P_n", "F_cr*A_e", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
+        calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     else:
         calc.step("P_n", "F_cr*A_g", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E3-1")
     calc.available("P_c", "P_n", "compression", "c", "Available compressive strength", unit="kip")
@@ -153,21 +153,21 @@ def _open_shape_e7(calc: Calc, sec: Sec) -> None:
         calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec.label)
         _effective_widths(calc, [("f", "lambda_f*t_f", "flanges")], "c", "f")
         _effective_widths(calc, [("w", "lambda_w*t_w", "web (h)")], "a", "w")
-        calc.step("A_e", "A_g - 2*(b_f - b_ef)*t_f - (b_w - b_ew)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+        calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t_f - (b_w - b_ew)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
     if sec.kind == "tee":
         calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec.label)
         calc.prop("t_w", sec.need("tw", "E7"), "in", "Stem thickness", sec.label)
         _effective_widths(calc, [("f", "lambda_f*t_f", "flange outstand (bf/2)"), ("s", "lambda_s*t_w", "stem")], "c")
-        calc.step("A_e", "A_g - 2*(b_f - b_ef)*t_f - (b_s - b_es)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+        calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t_f - (b_s - b_es)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
     d, b, t = sec.need("d", "E7"), sec.need("b", "E7"), sec.need("t", "E7")
     calc.prop("t", t, "in", "Leg thickness", sec.label, shared=True)
     if math.isclose(d, b, rel_tol=1e-9):
         _effective_widths(calc, [("l", "lambda_l*t", "each leg")], "c")
-        calc.step("A_e", "A_g - 2*(b_l - b_el)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+        calc.step("A_eff", "A_g - 2*(b_l - b_el)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
     calc.prop("lambda_l2", min(d, b) / t, "", "Width-to-thickness ratio, short leg", sec.label)
     calc.step("lambda_rcl2", "lambda_rcl", "Slender limit, short leg", ref="AISC 360-16 Table B4.1a case 3")
     _effective_widths(calc, [("l", "lambda_l*t", "long leg"), ("l2", "lambda_l2*t", "short leg")], "c")
-    calc.step("A_e", "A_g - (b_l - b_el)*t - (b_l2 - b_el2)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
+    calc.step("A_eff", "A_g - (b_l - b_el)*t - (b_l2 - b_el2)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")

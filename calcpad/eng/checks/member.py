@@ -156,8 +156,8 @@ def check_member(
         if M_y is None and any(x is not None for x in (axial_c, M_x, V)):
             out.keys["torsion interaction"] = add_torsion_interaction_check(
                 sh,
-                T_r=_link(sh, T, f"T_r{s}"),
-                T_c=f"T_c{s}",
+                T_r=_link(sh, T, f"T_r_tor{s}"),
+                T_c=f"T_c_tor{s}",
                 P_r=axial_r,
                 P_c=axial_c,
                 M_r=_link(sh, M_x, f"M_r{s}") if M_x is not None else None,

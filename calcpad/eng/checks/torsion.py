@@ -2,7 +2,8 @@
 
 Round HSS (Eqs. H3-1, H3-2a/b) and rectangular HSS (Eqs. H3-3..H3-5) with the torsional
 constant C of the H3.1 User Note. Open sections in torsion (warping, AISC Design Guide 9) are
-not covered. The available torsional strength is written as ``T_c`` (+ suffix).
+not covered. The available torsional strength is written as ``T_c_tor`` (+ suffix); the required one
+as ``T_r_tor`` (``T_r``/``T_c`` belong to the tension check).
 """
 
 from __future__ import annotations
@@ -42,7 +43,7 @@ def add_torsion_check(
         suffix: Name suffix.
 
     Returns:
-        Key of the check. The available strength is ``T_c`` (+ suffix).
+        Key of the check. The available strength is ``T_c_tor`` (+ suffix).
     """
     if L is not None:
         Calc(sh, suffix)  # suffix and sheet checked before anything is written
@@ -53,7 +54,7 @@ def add_torsion_check(
     calc = Calc(sh, suffix)
     sh.heading(f"Torsion, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, E)
-    calc.given("T_r", T, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
+    calc.given("T_r_tor", T, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
     calc.prop("t", sec.need("t", "H3"), "in", "Design wall thickness", sec.label, shared=True)
     if sec.kind == "round_hss":
         calc.prop("D", sec.need("D", "H3"), "in", "Outside diameter", sec.label)
@@ -90,9 +91,9 @@ def add_torsion_check(
             unit="ksi",
             ref="AISC 360-16 H3.1(b)",
         )
-    calc.step("T_n", "F_cr_T*C_T", "Nominal torsional strength", unit="kip*ft", ref="AISC 360-16 Eq. H3-1")
-    calc.available_with("T_c", "T_n", _PHI_T, _OMEGA_T, "AISC 360-16 H3.1", "T", "Available torsional strength", unit="kip*ft")
-    return calc.check("Torsion", "T_r", "T_c", key="ratio_T", ref="AISC 360-16 H3.1")
+    calc.step("T_n_tor", "F_cr_T*C_T", "Nominal torsional strength", unit="kip*ft", ref="AISC 360-16 Eq. H3-1")
+    calc.available_with("T_c_tor", "T_n_tor", _PHI_T, _OMEGA_T, "AISC 360-16 H3.1", "tor", "Available torsional strength", unit="kip*ft")
+    return calc.check("Torsion", "T_r_tor", "T_c_tor", key="ratio_T", ref="AISC 360-16 H3.1")
 
 
 def add_torsion_interaction_check(
@@ -123,8 +124,8 @@ def add_torsion_interaction_check(
             raise CheckInputError(f"{key}_r / {key}_c", (req, avail), f"both the required and the available {what} strength (or neither)")
     calc = Calc(sh, suffix)
     sh.heading(f"Combined torsion, shear, flexure and axial force{f' [{suffix}]' if suffix else ''}", 2)
-    calc.given("T_r", T_r, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
-    calc.given("T_c", T_c, "Available torsional strength", dim="lbf*in")
+    calc.given("T_r_tor", T_r, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
+    calc.given("T_c_tor", T_c, "Available torsional strength", dim="lbf*in")
     terms: dict[str, str] = {}
     for key, (req, avail, dim, what) in pairs.items():
         if req is None:
@@ -133,7 +134,7 @@ def add_torsion_interaction_check(
         calc.given(f"{key}_r", req, f"Required {what} strength", dim=dim, allow_negative=True, allow_zero=True)
         calc.given(f"{key}_c", avail, f"Available {what} strength", dim=dim)
         terms[key] = f"abs({key}_r)/{key}_c"
-    calc.step("u_T", "abs(T_r)/T_c", "Torsion ratio", ref="AISC 360-16 H3.2")
+    calc.step("u_T", "abs(T_r_tor)/T_c_tor", "Torsion ratio", ref="AISC 360-16 H3.2")
     calc.step("u_P", terms["P"], "Axial ratio")
     calc.step("u_M", terms["M"], "Flexure ratio")
     calc.step("u_V", terms["V"], "Shear ratio")
