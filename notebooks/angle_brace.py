@@ -68,3 +68,23 @@ sh
 
 # %%
 sh.summary_frame()
+
+# %% [markdown]
+# ## What if
+#
+# Change the brace forces, its length, the weld length or the gusset thickness in the panel to
+# see the checks follow (the sheet above is not redrawn). A value the sheet cannot take is
+# refused with its message and the last good values stay. Section, grade and connected leg are
+# template parameters: change them in the parameters cell or the job file.
+
+# %% tags=["nbval-ignore-output"]
+from calcpad.widgets import what_if
+
+panel = what_if(sh, names=["P_comp", "P_tens", "L_br", "l_w", "t_gus"])
+panel
+
+# %%
+panel.set("L_br", "8 ft")
+compression_ratio_at_8_ft = round(next(c.ratio for c in sh.summary() if c.title == "Axial compression"), 3)
+panel.reset()  # back to this template's parameters, so the stored sheet is the one above
+compression_ratio_at_8_ft

@@ -90,6 +90,30 @@ def test_rect_hss_compact_is_plastic_moment():
     assert sh["M_n"].to("kip*in").magnitude == pytest.approx(50 * sec.props.Zx, rel=ARITH_REL)
 
 
+@pytest.mark.parametrize("lb_ft", [1.0, 30.0, 400.0])  # L_p = 2.2 ft, L_r = 67.5 ft: each branch
+def test_deep_narrow_rect_hss_ltb_f7_4_arithmetic(lb_ft):
+    # AISC 360-16 F7.4 by hand (Eqs. F7-10..F7-13, from memory): L_p = 0.13 E r_y sqrt(J A)/M_p,
+    # L_r = 2 E r_y sqrt(J A)/(0.7 F_y S_x); LTB of a tube only matters for very deep, narrow ones.
+    from calcpad.eng.sections import RectTube
+
+    tube = RectTube(16.0, 2.0, 0.12)
+    p = tube.props
+    sh = _mc(tube, "LRFD", M="5 kip*ft", L_b=f"{lb_ft} ft", F_y="50 ksi")
+    E, fy, lb = 29000.0, 50.0, lb_ft * 12
+    mp = fy * p.Zx
+    lp = 0.13 * E * p.ry * math.sqrt(p.J * p.A) / mp
+    lr = 2 * E * p.ry * math.sqrt(p.J * p.A) / (0.7 * fy * p.Sx)
+    if lb <= lp:
+        ltb = mp
+    elif lb <= lr:
+        ltb = min(mp - (mp - 0.7 * fy * p.Sx) * (lb - lp) / (lr - lp), mp)
+    else:
+        ltb = min(2 * E * math.sqrt(p.J * p.A) / (lb / p.ry), mp)
+    assert sh["L_p"].to("in").magnitude == pytest.approx(lp, rel=ARITH_REL)
+    assert sh["L_r"].to("in").magnitude == pytest.approx(lr, rel=ARITH_REL)
+    assert sh["M_n_LTB"].to("kip*in").magnitude == pytest.approx(ltb, rel=ARITH_REL)
+
+
 def test_rect_hss_noncompact_flange_eq_f7_2_arithmetic():
     # AISC 360-16 Eq. F7-2 by hand: a wall with b/t between 1.12 and 1.40 sqrt(E/Fy).
     sec = {"A": "3.0 in^2", "Ix": "20 in^4", "Sx": "6.0 in^3", "Zx": "7.0 in^3", "H": "6 in", "B": "6 in", "t": "0.2 in",
