@@ -1,5 +1,10 @@
 """Member checks per AISC 360-16 (ASD and LRFD), yield-based stress checks and welds.
 
+Shape families: round and rectangular HSS, W-shapes, channels, tees, single angles and solid
+bars (see :data:`KINDS`); limit states D2, E3/E4/E5/E7, F2/F3/F6/F7/F8/F9/F10/F11, G2/G3/G4/G5,
+H1, H3, J2 with J4.2 base metal. Equations are those of the 2016 edition; where a jurisdiction
+has adopted AISC 360-22, confirm clause numbers and any changed provisions for the job.
+
 Each ``add_*`` function writes traceable steps (given, formula, branch, selection) on a
 :class:`~calcpad.core.sheet.Sheet` with the clause or equation number as reference and ends
 with a check. The available strength uses φ (LRFD) or Ω (ASD) per ``sheet.method``.
