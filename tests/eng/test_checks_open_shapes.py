@@ -314,3 +314,11 @@ def test_tee_about_y_not_covered():
 
 def test_check_input_error_is_exported():
     assert issubclass(CheckInputError, CalcpadError)
+
+
+def test_angle_with_axial_force_and_bending_not_covered():
+    # Single angles are unsymmetric: AISC 360-16 H2, not H1; E5 excludes transverse load (from memory).
+    sh = _sheet()
+    with pytest.raises(NotCoveredError, match="H2"):
+        check_member(sh, L44, L="4 ft", P="2 kip", M_x="0.5 kip*ft", F_y="36 ksi", connected_leg="long")
+    assert sh.steps == []

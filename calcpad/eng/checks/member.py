@@ -115,6 +115,10 @@ def check_member(
     if all(x is None for x in (P, M_x, M_y, V, T)):
         raise CheckInputError("P, M_x, M_y, V, T", None, "at least one force or moment for the member")
     sec = resolve_section(section, kind)
+    if sec.kind == "angle" and P is not None and (M_x is not None or M_y is not None):
+        raise CheckNotCoveredError("section", f"single angle {sec.label}", "single angles under axial force and bending: "
+                                   "they are unsymmetric, so AISC 360-16 H2 applies (and E5 excludes transverse load); "
+                                   "check axial force or bending alone, or use add_stress_check")
     if T is not None and sec.kind not in ("round_hss", "rect_hss"):
         raise CheckNotCoveredError("T", T, "torsion of round or rectangular HSS (AISC 360-16 H3); open sections in torsion are not covered")
     out = MemberChecks()
