@@ -425,7 +425,7 @@ class Sheet:
 
     def _show(self, name: str, value: pint.Quantity, unit: str | None) -> pint.Quantity:
         try:
-            shown = value.to(unit) if unit else value.to(self.prefs.unit_for(value))
+            shown = value.to(self.prefs.shown_unit(value, unit))
         except pint.DimensionalityError:
             raise DimensionError(
                 f"step {name!r}: the result is a {value.dimensionality} quantity ({value.units:~}); it cannot be shown in {unit!r}"

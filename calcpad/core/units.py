@@ -31,6 +31,7 @@ __all__ = [
     "parse_quantity",
     "parse_unit",
     "unit_symbol",
+    "unit_system_of",
     "ureg",
 ]
 
@@ -237,7 +238,7 @@ _SI_LADDERS: dict[str, list[tuple[str, float | None]]] = {
     "length": [("mm", None)],
     "force": [("N", 1000.0), ("kN", None)],
     "moment": [("N*m", 1000.0), ("kN*m", None)],
-    "stress": [("Pa", 1000.0), ("kPa", 1000.0 * 1000.0), ("MPa", None)],
+    "stress": [("Pa", 1000.0), ("kPa", 1000.0), ("MPa", None)],  # 250 MPa, not 250,000 kPa
     "area": [("mm**2", None)],
     "section modulus": [("mm**3", None)],
     "moment of inertia": [("mm**4", None)],
@@ -249,6 +250,31 @@ _SI_LADDERS: dict[str, list[tuple[str, float | None]]] = {
     "speed": [("m/s", None)],
     "curvature": [("1/mm", None)],
 }
+
+
+_US_UNIT_NAMES = frozenset({
+    "inch", "foot", "yard", "mile", "force_pound", "pound_force", "kip", "kipf", "pound", "kip_per_square_inch",
+    "pound_force_per_square_inch", "psf", "ksf", "plf", "klf", "pcf", "mile_per_hour",
+})
+_SI_UNIT_NAMES = frozenset({"meter", "newton", "pascal", "gram", "tonne", "metric_ton", "kilometer_per_hour"})
+
+
+def unit_system_of(unit: pint.Unit | str) -> str | None:
+    """``"US"`` or ``"SI"`` when every part of ``unit`` belongs to that system, else None.
+
+    Units of neither (degree, second, plain numbers) or of both give None.
+    """
+    if isinstance(unit, str):
+        unit = ureg.parse_units(unit)
+    found = set()
+    for name in unit._units:
+        base = ureg.parse_unit_name(name)
+        base_name = base[0][1] if base else name
+        if base_name in _US_UNIT_NAMES:
+            found.add(UnitSystem.US)
+        elif base_name in _SI_UNIT_NAMES:
+            found.add(UnitSystem.SI)
+    return found.pop() if len(found) == 1 else None
 
 
 @dataclass
@@ -267,6 +293,17 @@ class DisplayPrefs:
             raise UnitInputError(f"unit system: {self.system!r}; expected 'US' or 'SI'")
         if not isinstance(self.sig, int) or not 1 <= self.sig <= 15:
             raise UnitInputError(f"significant figures: {self.sig!r}; expected a whole number from 1 to 15")
+
+    def shown_unit(self, q: pint.Quantity, unit: str | None) -> pint.Unit | str:
+        """The unit to show ``q`` in: ``unit`` as asked, unless it belongs to the other unit
+        system (a template written in US units on an SI sheet), then this system's choice."""
+        if unit is None:
+            return self.unit_for(q)
+        other = unit_system_of(unit)
+        if (other is not None and other != self.system and _kind_table().get(q.dimensionality) is not None
+                and ureg.parse_units(unit).dimensionality == q.dimensionality):
+            return self.unit_for(q)
+        return unit  # a unit of the wrong dimension fails where it is applied, with its message
 
     def unit_for(self, q: pint.Quantity) -> pint.Unit:
         """Pick the display unit for a quantity by its kind and size."""

@@ -155,3 +155,25 @@ def test_notebook_latex_split_into_blocks_mathjax_accepts():
     blocks = latex.split("$$\n\\begin{array}")
     assert len(blocks) > 3
     assert all(len(b) < 5000 for b in blocks)
+
+
+def test_us_step_units_yield_to_an_si_sheet():
+    # A template written with unit="ksi" shows MPa on an SI sheet (and ksi on a US one); values agree
+    # (1 ksi = 6.894757 MPa, NIST SP 811 Appendix B.8).
+    for system, unit in (("SI", "megapascal"), ("US", "kip_per_square_inch")):
+        sh = Sheet("units", system=system)
+        sh.given("P", "10 kip")
+        sh.given("A", "2 in^2")
+        sh.step("f", "P/A", unit="ksi")
+        assert str(sh["f"].units) == unit
+        assert sh["f"].to("MPa").magnitude == pytest.approx(5 * 6.894757, rel=1e-6)
+
+
+def test_wrong_dimension_step_unit_still_fails_on_an_si_sheet():
+    from calcpad.core.errors import DimensionError
+
+    sh = Sheet("units", system="SI")
+    sh.given("L", "2 m")
+    sh.step("x", "L*2", unit="ksi")
+    with pytest.raises(DimensionError, match="cannot be shown in 'ksi'"):
+        sh.evaluate()

@@ -322,3 +322,20 @@ def test_angle_with_axial_force_and_bending_not_covered():
     with pytest.raises(NotCoveredError, match="H2"):
         check_member(sh, L44, L="4 ft", P="2 kip", M_x="0.5 kip*ft", F_y="36 ksi", connected_leg="long")
     assert sh.steps == []
+
+
+def test_catalog_values_follow_an_si_sheet():
+    # Material and section values come from catalogs in US units; on an SI sheet they are shown in SI
+    # (A36: 36 ksi = 248.2 MPa, 1 ksi = 6.894757 MPa, NIST SP 811 B.8), while typed inputs stay as entered.
+    sh = Sheet("si", system="SI")
+    add_compression_check(sh, L44, P="10 kN", L="1.2 m", material="A36", connected_leg="long")
+    res = sh.evaluate()
+    givens = {g.name: g for g in res.steps if getattr(g, "kind", "") == "given"}
+    assert str(sh["F_y"].units) == "megapascal"
+    assert sh["F_y"].magnitude == pytest.approx(36 * 6.894757, rel=1e-6)
+    assert str(sh["A_g"].units) == "millimeter ** 2"
+    assert str(givens["P_r"].value.units) == "kilonewton"
+    sh_us = Sheet("us", system="US")
+    add_compression_check(sh_us, L44, P="2 kip", L="4 ft", material="A36", connected_leg="long")
+    assert str(sh_us["F_y"].units) == "kip_per_square_inch"
+    assert sh_us["P_c"].to("kN").magnitude > 0

@@ -23,7 +23,7 @@ import pint
 from calcpad.core.errors import InputError, NotCoveredError
 from calcpad.core.names import is_valid_name
 from calcpad.core.sheet import Sheet
-from calcpad.core.units import parse_quantity
+from calcpad.core.units import Q_, parse_quantity
 
 __all__ = ["RESISTANCE", "Calc", "CheckInputError", "CheckNotCoveredError", "CheckWarning"]
 
@@ -180,8 +180,21 @@ class Calc:
         parse_quantity(q, base, expected=dim)
 
     def prop(self, base: str, value: float, unit: str, description: str, source: str, *, shared: bool = False) -> None:
-        """Add a section property (float in ``unit``), shown to 4 significant figures."""
-        self.given(base, f"{value!r} {unit}" if unit else float(value), description, source, sig=4, shared=shared)
+        """Add a section property (float in ``unit``), shown to 4 significant figures in the
+        sheet's unit system."""
+        self.given(base, self.in_system(value, unit) if unit else float(value), description, source, sig=4, shared=shared)
+
+    def in_system(self, value: float, unit: str) -> str | pint.Quantity:
+        """A catalog value (not one the engineer typed) in the sheet's unit system: as
+        ``"value unit"`` when ``unit`` already belongs to it, else converted."""
+        q = Q_(value, unit)
+        shown = self.sh.prefs.shown_unit(q, unit)
+        return f"{value!r} {unit}" if shown == unit else q.to(shown)
+
+    def catalog_given(self, base: str, value: float, unit: str, description: str, source: str) -> None:
+        """A material value from a catalog, shown as entered in its own system, else to 4 figures."""
+        v = self.in_system(value, unit)
+        self.given(base, v, description, source, dim=unit, sig=None if isinstance(v, str) else 4, shared=True)
 
     # ----------------------------------------------------------- steps
     def step(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "", sig: int | None = None) -> str:
@@ -254,27 +267,30 @@ def add_material(c: Calc, material: Any = None, F_y: Any = None, E: Any = None, 
                  need_e: bool = True, G: Any = None, need_g: bool = False) -> None:
     """Add ``F_y`` and ``E`` (and ``F_u``, ``G``) from a Material / catalog name, or as given."""
     src = ""
+    cat: dict[str, float] = {}
     if material is not None:
         from calcpad.eng.materials import get_material  # same layer (eng); lazy to keep import light
 
         m = material if hasattr(material, "Fy") else get_material(material)
         src = m.name
-        F_y = F_y if F_y is not None else f"{m.Fy!r} ksi"
-        E = E if E is not None else f"{m.E!r} ksi"
-        F_u = F_u if F_u is not None else f"{m.Fu!r} ksi"
-        G = G if G is not None else f"{m.G!r} ksi"
-    if F_y is None:
-        raise CheckInputError("F_y", None, "a yield stress such as '50 ksi', or material='ASTM A992'")
-    c.given("F_y", F_y, "Specified minimum yield stress", src, dim="ksi", shared=True)
-    if need_e:
-        c.given("E", E if E is not None else "29000 ksi", "Modulus of elasticity", src or "AISC 360-16 (E = 29,000 ksi)", dim="ksi", shared=True)
-    if need_fu:
-        if F_u is None:
-            raise CheckInputError("F_u", None, "a tensile strength such as '65 ksi', or material='ASTM A992'")
-        c.given("F_u", F_u, "Specified minimum tensile strength", src, dim="ksi", shared=True)
-    if need_g:
-        c.given("G", G if G is not None else "11200 ksi", "Shear modulus of elasticity", src or "AISC 360-16 (G = 11,200 ksi)",
-                dim="ksi", shared=True)
+        cat = {"F_y": m.Fy, "E": m.E, "F_u": m.Fu, "G": m.G}
+    else:
+        cat = {"E": 29000.0, "G": 11200.0}
+        if F_y is None:
+            raise CheckInputError("F_y", None, "a yield stress such as '50 ksi', or material='ASTM A992'")
+    typed = {"F_y": F_y, "E": E, "F_u": F_u, "G": G}
+    wanted = [("F_y", "Specified minimum yield stress", True), ("E", "Modulus of elasticity", need_e),
+              ("F_u", "Specified minimum tensile strength", need_fu), ("G", "Shear modulus of elasticity", need_g)]
+    default_src = {"E": "AISC 360-16 (E = 29,000 ksi)", "G": "AISC 360-16 (G = 11,200 ksi)"}
+    for base, description, needed in wanted:
+        if not needed:
+            continue
+        if typed[base] is not None:
+            c.given(base, typed[base], description, src, dim="ksi", shared=True)
+        elif base in cat:
+            c.catalog_given(base, cat[base], "ksi", description, src or default_src.get(base, ""))
+        else:
+            raise CheckInputError(base, None, "a tensile strength such as '65 ksi', or material='ASTM A992'")
 
 
 def add_props(c: Calc, sec: Any, names: Mapping[str, str] | Sequence[str], check: str) -> None:
