@@ -22,6 +22,7 @@ from calcpad.eng.checks.classify import add_classification
 from calcpad.eng.checks.combined import add_interaction_check
 from calcpad.eng.checks.compression import add_compression_check
 from calcpad.eng.checks.flexure import add_flexure_check
+from calcpad.eng.checks.frame_member import MemberForces, check_frame_member, frame_member_forces
 from calcpad.eng.checks.member import MemberChecks, check_member
 from calcpad.eng.checks.shear import add_shear_check
 from calcpad.eng.checks.stress import add_stress_check
@@ -37,6 +38,7 @@ __all__ = [
     "CheckNotCoveredError",
     "CheckWarning",
     "MemberChecks",
+    "MemberForces",
     "add_classification",
     "add_compression_check",
     "add_fillet_weld_check",
@@ -48,6 +50,8 @@ __all__ = [
     "add_tension_check",
     "add_torsion_check",
     "add_torsion_interaction_check",
+    "check_frame_member",
     "check_member",
+    "frame_member_forces",
     "resolve_section",
 ]

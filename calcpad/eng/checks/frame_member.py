@@ -1,0 +1,125 @@
+"""Member checks fed by the frame solver: forces per load case, the governing case, one check.
+
+    res = frame.solve()
+    out = check_frame_member(sh, res, "L1", get_section("Pipe 2 Std"), material="A53 Gr B", L="24 in", K=2.1)
+
+For each load case or combination the member's forces are read from the solved frame (axial
+force, largest bending moment and largest shear along it), every applicable AISC 360-16 limit
+state is evaluated on a scratch sheet, and the case with the highest ratio is written on the
+sheet in full (:func:`check_member`), after a table of the governing ratio of every case.
+"""
+
+from __future__ import annotations
+
+import warnings
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+import pint
+
+from calcpad.core.sheet import Sheet
+from calcpad.core.units import Q_
+from calcpad.eng.checks._common import CheckInputError
+from calcpad.eng.checks.member import MemberChecks, check_member
+
+__all__ = ["MemberForces", "check_frame_member", "frame_member_forces"]
+
+
+@dataclass(frozen=True)
+class MemberForces:
+    """Forces of one member in one case: P compression positive (the checks' sign), M and V the
+    largest magnitudes along the member (with their sign) and where M occurs."""
+
+    case: str
+    P: pint.Quantity
+    M: pint.Quantity
+    V: pint.Quantity
+    x_M: pint.Quantity
+
+    @property
+    def empty(self) -> bool:
+        """True when the member carries no force in this case."""
+        return all(float(abs(q.magnitude)) == 0.0 for q in (self.P, self.M, self.V))
+
+
+def frame_member_forces(result: Any, member: str, case: str, n: int = 41) -> MemberForces:
+    """Read ``member``'s forces for ``case`` from a solved frame (:class:`FrameResult`).
+
+    The axial force is taken where its magnitude is largest; the frame's sign (tension +) is
+    turned into the checks' sign (compression +).
+    """
+    dg = result.diagram(member, case, n)
+    fu, mu, lu = result.units["force"], result.units["moment"], result.units["length"]
+    k_n, k_m, k_v = (int(np.argmax(np.abs(a))) for a in (dg.N, dg.M, dg.V))
+    return MemberForces(
+        case,
+        _q(-float(dg.N[k_n]), fu),
+        _q(float(dg.M[k_m]), mu),
+        _q(float(dg.V[k_v]), fu),
+        _q(float(dg.x[k_m]), lu),
+    )
+
+
+def _q(value: float, unit: str) -> pint.Quantity:
+    return Q_(value + 0.0, unit)  # + 0.0: no negative zero in the sheet
+
+
+def check_frame_member(
+    sh: Sheet,
+    result: Any,
+    member: str,
+    section: Any,
+    *,
+    L: Any,
+    cases: list[str] | None = None,
+    suffix: str = "",
+    **options: Any,
+) -> MemberChecks:
+    """Check a frame member for the load case or combination that governs.
+
+    Args:
+        sh: Sheet to write on.
+        result: A solved frame (:meth:`Frame.solve`).
+        member: The member's name in the frame.
+        section: Shape or property mapping for the checks.
+        L: Unbraced length for the checks (the member length or less).
+        cases: Cases and combinations to consider (default: all of the result's).
+        suffix: Name suffix for the sheet (one per member checked on the same sheet).
+        **options: Passed to :func:`check_member` (``material``, ``K``, ``L_b``, ``C_b`` ...).
+
+    Returns:
+        What :func:`check_member` wrote for the governing case.
+    """
+    names = list(cases) if cases is not None else list(result.names)
+    if not names:
+        raise CheckInputError("cases", cases, "at least one load case or combination of the frame")
+    for key in ("P", "M_x", "V", "table"):
+        if key in options:
+            raise CheckInputError(key, options[key], "nothing: the forces come from the frame result")
+    forces = [frame_member_forces(result, member, c) for c in names]
+    rows, best = [], None
+    for f in forces:
+        if f.empty:
+            rows.append([f.case, f.P, f.M, f.V, "-", "no force"])
+            continue
+        scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
+        with warnings.catch_warnings():  # cautions are raised again when the governing case is written
+            warnings.simplefilter("ignore")
+            out = check_member(scratch, section, L=L, P=f.P, M_x=f.M, V=f.V, table=False, **options)
+        rows.append([f.case, f.P, f.M, f.V, f"{out.governing_ratio:.3f}", out.governing])
+        if best is None or out.governing_ratio > best[0]:
+            best = (out.governing_ratio, f)
+    if best is None:
+        raise CheckInputError("cases", names, f"a case in which member {member!r} carries force")
+    gov = best[1]
+    s = f"_{suffix}" if suffix else ""
+    sh.heading(f"Member {member}: forces from the frame analysis{f' [{suffix}]' if suffix else ''}", 2)
+    sh.table(f"Member {member}: governing ratio per case", rows,
+             columns=["case", "P (compression +)", "M max", "V max", "ratio", "governing limit state"],
+             note=f"Each case checked with every applicable limit state; {gov.case} governs and is worked below.")
+    src = f"frame analysis, {gov.case}"
+    sh.given(f"P_fr{s}", gov.P, f"Axial force in {member} (compression +)", source=src)
+    sh.given(f"M_fr{s}", gov.M, f"Largest bending moment in {member} (at x = {gov.x_M:~.4g})", source=src)
+    sh.given(f"V_fr{s}", gov.V, f"Largest shear in {member}", source=src)
+    return check_member(sh, section, L=L, P=f"P_fr{s}", M_x=f"M_fr{s}", V=f"V_fr{s}", suffix=suffix, **options)

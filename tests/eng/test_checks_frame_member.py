@@ -1,0 +1,81 @@
+"""Member checks fed by the frame solver.
+
+Oracle: statics of a fixed-base cantilever post (common practice): axial force = the vertical
+load, base moment = H*L, shear = H. The governing case must be the one whose forces, checked
+directly with check_member, give the highest ratio.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from calcpad import Sheet
+from calcpad.core.errors import CalcpadError
+from calcpad.eng.analysis.frame import Frame
+from calcpad.eng.checks import check_frame_member, check_member, frame_member_forces
+from calcpad.eng.sections import get_section
+
+HSS = get_section("HSS4x4x1/4")
+H_KIP, D_KIP, L_IN = 0.8, 5.0, 120.0
+
+
+def _post(uplift: bool = False):
+    fr = Frame("kip", "in")
+    fr.node("A", 0, 0)
+    fr.node("B", 0, L_IN)
+    fr.member("AB", "A", "B", E="29000 ksi", A="3.37 in^2", I="7.80 in^4")
+    fr.support("A", "fixed")
+    fr.node_load("D", "B", Fy=f"{D_KIP if uplift else -D_KIP} kip")
+    fr.node_load("W", "B", Fx=f"{H_KIP} kip")
+    fr.node_load("none", "B")
+    fr.combination("D+W", {"D": 1.0, "W": 1.0})
+    fr.combination("D+0.6W", {"D": 1.0, "W": 0.6})
+    return fr.solve()
+
+
+def test_forces_match_cantilever_statics():
+    f = frame_member_forces(_post(), "AB", "D+W")
+    assert f.P.to("kip").magnitude == pytest.approx(D_KIP, rel=1e-9)  # compression +
+    assert abs(f.M.to("kip*in").magnitude) == pytest.approx(H_KIP * L_IN, rel=1e-9)
+    assert abs(f.V.to("kip").magnitude) == pytest.approx(H_KIP, rel=1e-9)
+    assert f.x_M.to("in").magnitude == pytest.approx(0.0, abs=1e-9)  # at the fixed base
+
+
+def test_governing_case_is_the_highest_direct_ratio():
+    sh = Sheet("post", method="ASD")
+    out = check_frame_member(sh, _post(), "AB", HSS, L="10 ft", K=2.1, F_y="50 ksi")
+    direct = {}
+    for case, (p, h) in {"D": (D_KIP, 0.0), "W": (0.0, H_KIP), "D+W": (D_KIP, H_KIP), "D+0.6W": (D_KIP, 0.6 * H_KIP)}.items():
+        s = Sheet("direct", method="ASD")
+        r = check_member(s, HSS, L="10 ft", K=2.1, F_y="50 ksi", P=f"{p} kip", M_x=f"{h * L_IN} kip*in", V=f"{h} kip")
+        direct[case] = r.governing_ratio
+    assert max(direct, key=direct.get) == "D+W"
+    assert out.governing_ratio == pytest.approx(direct["D+W"], rel=1e-9)
+    assert sh["P_fr"].to("kip").magnitude == pytest.approx(D_KIP)
+
+
+def test_uplift_gives_a_tension_check():
+    sh = Sheet("post", method="LRFD")
+    out = check_frame_member(sh, _post(uplift=True), "AB", HSS, L="10 ft", F_y="50 ksi", F_u="62 ksi", cases=["D+W"])
+    assert "tension" in out.keys and "compression" not in out.keys
+    assert sh["P_fr"].to("kip").magnitude == pytest.approx(-D_KIP)
+
+
+def test_a_case_without_force_is_listed_not_checked():
+    sh = Sheet("post")
+    out = check_frame_member(sh, _post(), "AB", HSS, L="10 ft", F_y="50 ksi", cases=["none", "W"])
+    assert out.governing == "flexure x"
+    with pytest.raises(CalcpadError, match="carries force"):
+        check_frame_member(Sheet("x"), _post(), "AB", HSS, L="10 ft", F_y="50 ksi", cases=["none"])
+
+
+@pytest.mark.parametrize(("kwargs", "field"), [({"P": "1 kip"}, "P"), ({"cases": []}, "cases")])
+def test_bad_options_are_refused(kwargs, field):
+    with pytest.raises(CalcpadError) as err:
+        check_frame_member(Sheet("x"), _post(), "AB", HSS, L="10 ft", F_y="50 ksi", **kwargs)
+    assert err.value.field == field
+
+
+def test_unknown_member_names_the_choices():
+    with pytest.raises(CalcpadError, match="AB"):
+        check_frame_member(Sheet("x"), _post(), "CD", HSS, L="10 ft", F_y="50 ksi")
