@@ -5,14 +5,16 @@
 # on the unit (ASCE 7-16 Sec. 29.4.1, rooftop structures and equipment), shares it between the
 # two frame lines of the stand, analyses one frame line (legs fixed at their base plates, the
 # unit modelled as a stiff block on the top rail) for the ASD basic combinations of
-# ASCE 7-16 Sec. 2.4.1, and checks the leg at its base for yield and the stand for sway.
+# ASCE 7-16 Sec. 2.4.1, checks the leg at its base for yield, checks the governing leg to
+# AISC 360-16 (compression, flexure, shear and their interaction, ASD) in the combination that
+# governs it, and checks the stand for sway.
 #
 # Example data: Harbor Ridge Mechanical (fictional fabricator), unit CU-2 on the roof of an
 # invented two-storey building.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
-# jurisdiction govern. The leg check is a yield-based screening check (combined axial and bending
-# stress against F_y with a factor of safety), not a full AISC 360 member design.*
+# jurisdiction govern. The first leg check is a yield-based screening check (combined axial and
+# bending stress against F_y with a factor of safety); the AISC 360-16 member check follows it.*
 
 # %% tags=["parameters"]
 V = "115 mph"  # basic wind speed (ASCE 7-16 Fig. 26.5-1, site risk category); 85 to 200 mph
@@ -30,6 +32,7 @@ t_nom = "0.154 in"  # leg tube nominal wall thickness; 0 < t < D_o/2
 F_y = "35 ksi"  # leg yield stress (ASTM A53 Gr B); 25 to 70 ksi
 E_s = "29000 ksi"  # modulus of elasticity of steel
 FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
+K_leg = "2.0"  # effective length factor of the legs (sway frame, fixed bases); 0.5 to 2.5
 
 # %%
 from calcpad import Q_, Sheet
@@ -38,8 +41,10 @@ from IPython.display import Image, display
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
+from calcpad.eng.checks import check_frame_member
 from calcpad.eng.loads.combinations import basic_combinations
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
+from calcpad.eng.sections import RoundTube
 
 sh = Sheet("CU-2 stand - wind and leg base moments", method="ASD")
 sh.heading("Inputs")
@@ -123,6 +128,10 @@ add_result_given(sh, "M_b", abs(M_base), f"Governing base moment, leg {leg_M}", 
 add_result_given(sh, "P_b", Q_(abs(N_gov), "lbf"), f"Axial force in leg {leg_M}, same combination", f"frame analysis, {case_M}")
 sh.step("sigma_b", "P_b/A_g + M_b/S_l", "Combined stress at base", unit="ksi", ref="common practice")
 sh.check("Leg yield at base", demand="sigma_b", capacity="F_y", required_fs=FS_req, ref="yield-based, common practice")
+
+sh.heading("Leg member check (AISC 360-16, ASD)")
+leg_shape = RoundTube(sh["D_o"], sh["t"], name=f"leg tube {D_o} x {t_nom} nominal wall")
+check_frame_member(sh, res, ["L1", "L2"], leg_shape, L="H", K=float(K_leg), cases=names, material="A53 Gr B", F_y="F_y", E="E_s")
 
 sh.heading("Sway of the stand")
 add_result_given(sh, "Delta_s", abs(sway), "Top rail sway under D + 0.6W", "frame analysis, AC5+")

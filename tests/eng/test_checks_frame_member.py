@@ -79,3 +79,20 @@ def test_bad_options_are_refused(kwargs, field):
 def test_unknown_member_names_the_choices():
     with pytest.raises(CalcpadError, match="AB"):
         check_frame_member(Sheet("x"), _post(), "CD", HSS, L="10 ft", F_y="50 ksi")
+
+
+def test_several_members_the_worst_is_written():
+    # Two free-standing posts, the second with half the lateral load: statics says the first governs.
+    fr = Frame("kip", "in")
+    for a, b, x in (("A", "B", 0.0), ("C", "D", 60.0)):
+        fr.node(a, x, 0)
+        fr.node(b, x, L_IN)
+        fr.member(a + b, a, b, E="29000 ksi", A="3.37 in^2", I="7.80 in^4")
+        fr.support(a, "fixed")
+    fr.node_load("W", "B", Fx=f"{H_KIP} kip")
+    fr.node_load("W", "D", Fx=f"{H_KIP / 2} kip")
+    sh = Sheet("posts")
+    out = check_frame_member(sh, fr.solve(), ["CD", "AB"], HSS, L="10 ft", F_y="50 ksi")
+    assert abs(sh["M_fr"].to("kip*in").magnitude) == pytest.approx(H_KIP * L_IN, rel=1e-9)
+    assert out.governing == "flexure x"
+    assert any("Member AB" in getattr(s, "text", "") for s in sh.steps)

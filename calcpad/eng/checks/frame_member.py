@@ -3,7 +3,7 @@
     res = frame.solve()
     out = check_frame_member(sh, res, "L1", get_section("Pipe 2 Std"), material="A53 Gr B", L="24 in", K=2.1)
 
-For each load case or combination the member's forces are read from the solved frame (axial
+For each load case or combination (and each member named) the forces are read from the solved frame (axial
 force, largest bending moment and largest shear along it), every applicable AISC 360-16 limit
 state is evaluated on a scratch sheet, and the case with the highest ratio is written on the
 sheet in full (:func:`check_member`), after a table of the governing ratio of every case.
@@ -12,6 +12,7 @@ sheet in full (:func:`check_member`), after a table of the governing ratio of ev
 from __future__ import annotations
 
 import warnings
+from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any
 
@@ -68,7 +69,7 @@ def _q(value: float, unit: str) -> pint.Quantity:
 def check_frame_member(
     sh: Sheet,
     result: Any,
-    member: str,
+    member: str | Sequence[str],
     section: Any,
     *,
     L: Any,
@@ -76,50 +77,63 @@ def check_frame_member(
     suffix: str = "",
     **options: Any,
 ) -> MemberChecks:
-    """Check a frame member for the load case or combination that governs.
+    """Check a frame member (or the worst of several alike) for the case that governs.
 
     Args:
         sh: Sheet to write on.
         result: A solved frame (:meth:`Frame.solve`).
-        member: The member's name in the frame.
+        member: The member's name in the frame, or several names of members with the same
+            section and length (e.g. the legs): the member and case with the highest ratio are
+            written.
         section: Shape or property mapping for the checks.
-        L: Unbraced length for the checks (the member length or less).
+        L: Unbraced length for the checks (the member length or less), a value or a sheet name.
         cases: Cases and combinations to consider (default: all of the result's).
         suffix: Name suffix for the sheet (one per member checked on the same sheet).
-        **options: Passed to :func:`check_member` (``material``, ``K``, ``L_b``, ``C_b`` ...).
+        **options: Passed to :func:`check_member` (``material``, ``K``, ``F_y`` ...); values may
+            name sheet values.
 
     Returns:
-        What :func:`check_member` wrote for the governing case.
+        What :func:`check_member` wrote for the governing member and case.
     """
+    members = [member] if isinstance(member, str) else list(member)
     names = list(cases) if cases is not None else list(result.names)
     if not names:
         raise CheckInputError("cases", cases, "at least one load case or combination of the frame")
+    if not members:
+        raise CheckInputError("member", member, "a member name of the frame")
     for key in ("P", "M_x", "V", "table"):
         if key in options:
             raise CheckInputError(key, options[key], "nothing: the forces come from the frame result")
-    forces = [frame_member_forces(result, member, c) for c in names]
+
+    def value(v: Any) -> Any:  # scratch sheets do not hold the sheet's names: use their values
+        return sh[v] if isinstance(v, str) and v in sh else v
+
+    scratch_opts = {k: value(v) for k, v in options.items()}
     rows, best = [], None
-    for f in forces:
-        if f.empty:
-            rows.append([f.case, f.P, f.M, f.V, "-", "no force"])
-            continue
-        scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
-        with warnings.catch_warnings():  # cautions are raised again when the governing case is written
-            warnings.simplefilter("ignore")
-            out = check_member(scratch, section, L=L, P=f.P, M_x=f.M, V=f.V, table=False, **options)
-        rows.append([f.case, f.P, f.M, f.V, f"{out.governing_ratio:.3f}", out.governing])
-        if best is None or out.governing_ratio > best[0]:
-            best = (out.governing_ratio, f)
+    for m in members:
+        for c in names:
+            f = frame_member_forces(result, m, c)
+            if f.empty:
+                rows.append([m, f.case, f.P, f.M, f.V, "-", "no force"])
+                continue
+            scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
+            with warnings.catch_warnings():  # cautions are raised again when the governing case is written
+                warnings.simplefilter("ignore")
+                out = check_member(scratch, section, L=value(L), P=f.P, M_x=f.M, V=f.V, table=False, **scratch_opts)
+            rows.append([m, f.case, f.P, f.M, f.V, f"{out.governing_ratio:.3f}", out.governing])
+            if best is None or out.governing_ratio > best[0]:
+                best = (out.governing_ratio, m, f)
     if best is None:
-        raise CheckInputError("cases", names, f"a case in which member {member!r} carries force")
-    gov = best[1]
+        raise CheckInputError("cases", names, f"a case in which {', '.join(members)} carries force")
+    _, gov_m, gov = best
     s = f"_{suffix}" if suffix else ""
-    sh.heading(f"Member {member}: forces from the frame analysis{f' [{suffix}]' if suffix else ''}", 2)
-    sh.table(f"Member {member}: governing ratio per case", rows,
-             columns=["case", "P (compression +)", "M max", "V max", "ratio", "governing limit state"],
-             note=f"Each case checked with every applicable limit state; {gov.case} governs and is worked below.")
+    sh.heading(f"Member {gov_m}: forces from the frame analysis{f' [{suffix}]' if suffix else ''}", 2)
+    what = f"members {', '.join(members)}" if len(members) > 1 else f"member {gov_m}"
+    sh.table(f"Governing ratio per case, {what}", rows,
+             columns=["member", "case", "P (compression +)", "M max", "V max", "ratio", "governing limit state"],
+             note=f"Each case checked with every applicable limit state; {gov_m} in {gov.case} governs and is worked below.")
     src = f"frame analysis, {gov.case}"
-    sh.given(f"P_fr{s}", gov.P, f"Axial force in {member} (compression +)", source=src)
-    sh.given(f"M_fr{s}", gov.M, f"Largest bending moment in {member} (at x = {gov.x_M:~.4g})", source=src)
-    sh.given(f"V_fr{s}", gov.V, f"Largest shear in {member}", source=src)
+    sh.given(f"P_fr{s}", gov.P, f"Axial force in {gov_m} (compression +)", source=src)
+    sh.given(f"M_fr{s}", gov.M, f"Largest bending moment in {gov_m} (at x = {gov.x_M:~.4g})", source=src)
+    sh.given(f"V_fr{s}", gov.V, f"Largest shear in {gov_m}", source=src)
     return check_member(sh, section, L=L, P=f"P_fr{s}", M_x=f"M_fr{s}", V=f"V_fr{s}", suffix=suffix, **options)
