@@ -23,11 +23,42 @@ __all__ = ["FUNCTIONS", "Formula", "formula_from_sympy", "parse_condition", "par
 
 MAX_LENGTH = 2000
 
+class MinAsWritten(sp.Min):
+    """``min(...)`` with its arguments in the order written (sympy's Min sorts them).
+
+    It is still a :class:`sympy.Min` for evaluation and printing; only the order is kept.
+    """
+
+    def __new__(cls, *args: object, **_options: object) -> MinAsWritten:
+        obj = sp.Expr.__new__(cls, *(sp.sympify(a) for a in args))
+        obj._argset = frozenset(obj._args)
+        return obj
+
+    @property
+    def args(self) -> tuple[sp.Basic, ...]:
+        """The arguments in the order written."""
+        return self._args
+
+
+class MaxAsWritten(sp.Max):
+    """``max(...)`` with its arguments in the order written (sympy's Max sorts them)."""
+
+    def __new__(cls, *args: object, **_options: object) -> MaxAsWritten:
+        obj = sp.Expr.__new__(cls, *(sp.sympify(a) for a in args))
+        obj._argset = frozenset(obj._args)
+        return obj
+
+    @property
+    def args(self) -> tuple[sp.Basic, ...]:
+        """The arguments in the order written."""
+        return self._args
+
+
 # name in formula text -> (sympy class, number of arguments or None for 1+)
 FUNCTIONS: dict[str, tuple[type, int | None]] = {
     "sqrt": (sp.Pow, 1),
-    "min": (sp.Min, None),
-    "max": (sp.Max, None),
+    "min": (MinAsWritten, None),
+    "max": (MaxAsWritten, None),
     "abs": (sp.Abs, 1),
     "sin": (sp.sin, 1),
     "cos": (sp.cos, 1),

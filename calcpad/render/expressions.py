@@ -138,6 +138,16 @@ class _SymbolicLatex(LatexPrinter):
         body = top if not den else rf"\frac{{{top}}}{{{self.mul_sep.join(self._factor(f) for f in den)}}}"
         return ("- " if negative else "") + body
 
+    def _print_Min(self, expr: sp.Min, exp: str | None = None) -> str:
+        return self._minmax("min", expr, exp)
+
+    def _print_Max(self, expr: sp.Max, exp: str | None = None) -> str:
+        return self._minmax("max", expr, exp)
+
+    def _minmax(self, name: str, expr: sp.Basic, exp: str | None) -> str:
+        tex = rf"\{name}\left({', '.join(self._print(a) for a in expr.args)}\right)"  # in the order written
+        return f"{tex}^{{{exp}}}" if exp is not None else tex
+
 
 def _float_text(expr: sp.Float, style: str) -> str:
     value = float(expr)
@@ -192,7 +202,25 @@ def substituted_latex(expr: sp.Basic, values: Mapping[str, pint.Quantity], sigs:
 # ---------------------------------------------------------------- MathML
 
 
-class _SymbolicMathML(MathMLPresentationPrinter):
+class _MathMLMinMax:
+    """min/max in MathML with the arguments in the order written (sympy's printer sorts them)."""
+
+    def _print_Min(self, expr: sp.Min) -> object:
+        return self._minmax("min", expr)
+
+    def _print_Max(self, expr: sp.Max) -> object:
+        return self._minmax("max", expr)
+
+    def _minmax(self, name: str, expr: sp.Basic) -> object:
+        mrow = self.dom.createElement("mrow")  # type: ignore[attr-defined]
+        mo = self.dom.createElement("mo")  # type: ignore[attr-defined]
+        mo.appendChild(self.dom.createTextNode(name))  # type: ignore[attr-defined]
+        mrow.appendChild(mo)
+        mrow.appendChild(self._paren_comma_separated(*expr.args))  # type: ignore[attr-defined]
+        return mrow
+
+
+class _SymbolicMathML(_MathMLMinMax, MathMLPresentationPrinter):
     times = "&#x22C5;"
 
     def __init__(self) -> None:

@@ -177,3 +177,22 @@ def test_wrong_dimension_step_unit_still_fails_on_an_si_sheet():
     sh.step("x", "L*2", unit="ksi")
     with pytest.raises(DimensionError, match="cannot be shown in 'ksi'"):
         sh.evaluate()
+
+
+def test_min_and_max_keep_the_order_written():
+    # sympy's Min/Max sort their arguments; a hand calc reads in the order the engineer wrote.
+    from calcpad.render.expressions import symbolic_latex, symbolic_mathml, symbolic_text
+
+    sh = Sheet("order")
+    sh.given("z_a", "10 ft")
+    sh.given("h_s", "28 ft")
+    sh.step("r", "min(z_a/h_s, 1)")
+    sh.step("m", "max(1, z_a/h_s)")
+    res = sh.evaluate()
+    steps = {s.name: s for s in res.steps if getattr(s, "name", "") in ("r", "m")}
+    r_expr = steps["r"].formula.expr if hasattr(steps["r"], "formula") else steps["r"].expr
+    assert symbolic_text(r_expr).startswith("min(z_a/h_s, 1")
+    assert symbolic_latex(r_expr).index("z_{a}") < symbolic_latex(r_expr).index("1")
+    assert symbolic_mathml(r_expr).index("z") < symbolic_mathml(r_expr).rindex("<mn>1</mn>")
+    assert sh["r"].magnitude == pytest.approx(10 / 28)
+    assert sh["m"].magnitude == pytest.approx(1.0)
