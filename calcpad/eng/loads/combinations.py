@@ -2,9 +2,10 @@
 stress design, ASD), applied to load effects (member forces, reactions: scalars or arrays).
 
 Load names: ``D`` dead, ``L`` live, ``Lr`` roof live, ``S`` snow, ``R`` rain, ``W`` wind,
-``E`` seismic. Seismic is a placeholder: ``E`` is the combined seismic load effect (E_h and E_v
-already combined by the user per ASCE 7-16 Sec. 12.4.2); the seismic combinations of Sec. 2.3.6 /
-2.4.5 are written in that simplified form and flagged in their names.
+``E`` seismic. With ``S_DS`` given, ``E`` is the horizontal seismic load effect E_h and the
+vertical effect E_v = 0.2 S_DS D (ASCE 7-16 Sec. 12.4.2.2) is folded into the factor on D of the
+seismic combinations of Sec. 2.3.6 (comb. 6, 7) and Sec. 2.4.5 (comb. 8, 9, 10). Without it ``E``
+is taken as the seismic effect already combined by the user, and those combinations say so.
 
 Combinations are expanded for each roof load actually present ("Lr or S or R"), and, when
 ``wind_reversal`` is on, for wind acting in both directions (+W and -W).
@@ -52,7 +53,7 @@ class Combination:
         return out
 
 
-def _lrfd(roof: list[str], live_half: bool) -> list[tuple[str, dict[str, float], str]]:
+def _lrfd(roof: list[str], live_half: bool, sds: float | None) -> list[tuple[str, dict[str, float], str]]:
     ref = "ASCE 7-16 Sec. 2.3.1"
     fl = 0.5 if live_half else 1.0
     out: list[tuple[str, dict[str, float], str]] = [("LC1", {"D": 1.4}, f"{ref} comb. 1")]
@@ -70,12 +71,18 @@ def _lrfd(roof: list[str], live_half: bool) -> list[tuple[str, dict[str, float],
             d[r] = 0.5
         out.append((f"LC4{r or ''}", d, f"{ref} comb. 4"))
     out.append(("LC5", {"D": 0.9, "W": 1.0}, f"{ref} comb. 5"))
-    out.append(("LC6E", {"D": 1.2, "E": 1.0, "L": fl, "S": 0.2}, "ASCE 7-16 Sec. 2.3.6 comb. 6 (placeholder, E = E_h + E_v)"))
-    out.append(("LC7E", {"D": 0.9, "E": 1.0}, "ASCE 7-16 Sec. 2.3.6 comb. 7 (placeholder, E = E_h - E_v)"))
+    sref = "ASCE 7-16 Sec. 2.3.6"
+    if sds is None:
+        out.append(("LC6E", {"D": 1.2, "E": 1.0, "L": fl, "S": 0.2}, f"{sref} comb. 6 (E given as E_h + E_v)"))
+        out.append(("LC7E", {"D": 0.9, "E": 1.0}, f"{sref} comb. 7 (E given as E_h - E_v)"))
+    else:
+        ev = f"E_v = 0.2 S_DS D, S_DS = {sds:g}"
+        out.append(("LC6E", {"D": 1.2 + 0.2 * sds, "E": 1.0, "L": fl, "S": 0.2}, f"{sref} comb. 6 ({ev})"))
+        out.append(("LC7E", {"D": 0.9 - 0.2 * sds, "E": 1.0}, f"{sref} comb. 7 ({ev})"))
     return out
 
 
-def _asd(roof: list[str]) -> list[tuple[str, dict[str, float], str]]:
+def _asd(roof: list[str], sds: float | None) -> list[tuple[str, dict[str, float], str]]:
     ref = "ASCE 7-16 Sec. 2.4.1"
     out: list[tuple[str, dict[str, float], str]] = [
         ("AC1", {"D": 1.0}, f"{ref} comb. 1"),
@@ -96,9 +103,15 @@ def _asd(roof: list[str]) -> list[tuple[str, dict[str, float], str]]:
         out.append((f"AC6{r or ''}", d, f"{ref} comb. 6a"))
     out.append(("AC7", {"D": 0.6, "W": 0.6}, f"{ref} comb. 7"))
     sref = "ASCE 7-16 Sec. 2.4.5"
-    out.append(("AC8E", {"D": 1.0, "E": 0.7}, f"{sref} comb. 8 (placeholder, E = E_h + E_v)"))
-    out.append(("AC9E", {"D": 1.0, "E": 0.525, "L": 0.75, "S": 0.75}, f"{sref} comb. 9 (placeholder)"))
-    out.append(("AC10E", {"D": 0.6, "E": 0.7}, f"{sref} comb. 10 (placeholder, E = E_h - E_v)"))
+    if sds is None:
+        out.append(("AC8E", {"D": 1.0, "E": 0.7}, f"{sref} comb. 8 (E given as E_h + E_v)"))
+        out.append(("AC9E", {"D": 1.0, "E": 0.525, "L": 0.75, "S": 0.75}, f"{sref} comb. 9 (E given as E_h + E_v)"))
+        out.append(("AC10E", {"D": 0.6, "E": 0.7}, f"{sref} comb. 10 (E given as E_h - E_v)"))
+    else:
+        ev = f"E_v = 0.2 S_DS D, S_DS = {sds:g}"
+        out.append(("AC8E", {"D": 1.0 + 0.14 * sds, "E": 0.7}, f"{sref} comb. 8 ({ev})"))
+        out.append(("AC9E", {"D": 1.0 + 0.105 * sds, "E": 0.525, "L": 0.75, "S": 0.75}, f"{sref} comb. 9 ({ev})"))
+        out.append(("AC10E", {"D": 0.6 - 0.14 * sds, "E": 0.7}, f"{sref} comb. 10 ({ev})"))
     return out
 
 
@@ -108,6 +121,7 @@ def basic_combinations(
     *,
     wind_reversal: bool = True,
     live_half: bool = False,
+    S_DS: float | None = None,
 ) -> list[Combination]:
     """The basic combinations for the loads present.
 
@@ -118,6 +132,9 @@ def basic_combinations(
         wind_reversal: Also make the -W / -E variant of each wind or seismic combination.
         live_half: LRFD only: take the L factor in comb. 3, 4 and 6 as 0.5 (ASCE 7-16 Sec. 2.3.1
             exception 1; not for garages, public assembly or L > 100 psf).
+        S_DS: Design spectral response acceleration at short periods (0 to 3; ASCE 7-16 Sec.
+            11.4.5). Given, ``E`` is E_h and E_v = 0.2 S_DS D is in the D factors of the seismic
+            combinations; left out, ``E`` is the combined effect E_h ± E_v.
     """
     present = list(loads)
     bad = [k for k in present if k not in LOAD_NAMES]
@@ -125,12 +142,15 @@ def basic_combinations(
         raise InputError(f"load names: got {bad!r}; expected names from {list(LOAD_NAMES)}")
     if "D" not in present:
         raise InputError(f"load names: got {present!r}; expected the dead load 'D' among them")
+    if S_DS is not None and not (isinstance(S_DS, (int, float)) and not isinstance(S_DS, bool) and 0.0 <= S_DS <= 3.0):
+        raise InputError(f"S_DS: got {S_DS!r}; expected a number from 0 to 3 (ASCE 7-16 Sec. 11.4.5)")
+    sds = None if S_DS is None else float(S_DS)
     m = method.upper() if isinstance(method, str) else method
     roof = [r for r in _ROOF if r in present]
     if m == "LRFD":
-        raw = _lrfd(roof, live_half)
+        raw = _lrfd(roof, live_half, sds)
     elif m == "ASD":
-        raw = _asd(roof)
+        raw = _asd(roof, sds)
     else:
         raise InputError(f"method: got {method!r}; expected 'LRFD' or 'ASD'")
     out: list[Combination] = []
