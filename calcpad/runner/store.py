@@ -43,10 +43,14 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
 
 
 def _stabilise(nb: object) -> None:
-    """Number the cell ids and drop per-run execution timestamps (quiet diffs)."""
+    """Number the cell ids and widget ids, drop per-run execution timestamps (quiet diffs)."""
     for i, cell in enumerate(nb.cells):  # type: ignore[attr-defined]
         cell["id"] = f"cell-{i:02d}"
         cell.get("metadata", {}).pop("execution", None)
+        for out in cell.get("outputs", []):  # widget state is not stored: its random model id is noise
+            view = out.get("data", {}).get("application/vnd.jupyter.widget-view+json")
+            if view is not None:
+                view["model_id"] = f"cell-{i:02d}-widget"
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -33,6 +33,9 @@ def test_notebook_is_stored_without_run_noise(path: Path) -> None:
     cells = json.loads(path.read_text(encoding="utf-8"))["cells"]
     assert [c["id"] for c in cells] == [f"cell-{i:02d}" for i in range(len(cells))]
     assert not any("execution" in c.get("metadata", {}) for c in cells)
+    views = [o["data"]["application/vnd.jupyter.widget-view+json"] for c in cells for o in c.get("outputs", [])
+             if "application/vnd.jupyter.widget-view+json" in o.get("data", {})]
+    assert all(v["model_id"].endswith("-widget") for v in views)
 
 
 @pytest.mark.parametrize("path", NOTEBOOKS, ids=lambda p: p.stem)
