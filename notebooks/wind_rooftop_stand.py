@@ -1,11 +1,12 @@
 # %% [markdown]
-# # Wind on a rooftop equipment stand: four-leg frame, leg base moments
+# # Wind and seismic on a rooftop equipment stand: four-leg frame, leg checks
 #
 # A condensing unit sits on a four-leg steel stand on a roof. This template finds the wind force
-# on the unit (ASCE 7-16 Sec. 29.4.1, rooftop structures and equipment), shares it between the
-# two frame lines of the stand, analyses one frame line (legs fixed at their base plates, the
-# unit modelled as a stiff block on the top rail) for the ASD basic combinations of
-# ASCE 7-16 Sec. 2.4.1, checks the leg at its base for yield, checks the governing leg to
+# on the unit (ASCE 7-16 Sec. 29.4.1, rooftop structures and equipment) and its seismic design
+# force as a nonstructural component (ASCE 7-16 Sec. 13.3.1), shares them between the two frame
+# lines of the stand, analyses one frame line (legs fixed at their base plates, the unit
+# modelled as a stiff block on the top rail) for the ASD combinations of ASCE 7-16 Sec. 2.4.1 and
+# 2.4.5, checks the leg at its base for yield, checks the governing leg to
 # AISC 360-16 (compression, flexure, shear and their interaction, ASD) in the combination that
 # governs it, and checks the stand for sway.
 #
@@ -33,6 +34,10 @@ F_y = "35 ksi"  # leg yield stress (ASTM A53 Gr B); 25 to 70 ksi
 E_s = "29000 ksi"  # modulus of elasticity of steel
 FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
 K_leg = "2.0"  # effective length factor of the legs (sway frame, fixed bases); 0.5 to 2.5
+S_DS = 0.5  # design spectral response acceleration, short periods (site, ASCE 7-16 Sec. 11.4.5); 0 to 3
+a_p = 2.5  # component amplification factor (ASCE 7-16 Table 13.6-1); 1.0 to 2.5
+R_p = 6.0  # component response modification factor (ASCE 7-16 Table 13.6-1); 1.0 to 12
+I_p = 1.0  # component importance factor (ASCE 7-16 Sec. 13.1.3); 1.0 to 1.5
 
 # %%
 from calcpad import Q_, Sheet
@@ -43,6 +48,7 @@ from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
 from calcpad.eng.checks import check_frame_member
 from calcpad.eng.loads.combinations import basic_combinations
+from calcpad.eng.loads.seismic import add_component_seismic
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
 from calcpad.eng.sections import RoundTube
 
@@ -67,6 +73,11 @@ sh.step("e_w", "H_u/2", "Height of wind resultant above top rail")
 sh.step("F_hf", f"{force.F}/n_fr", "Lateral force per frame line")
 sh.step("F_vf", "F_v/n_fr", "Uplift per frame line")
 sh.step("W_f", "W_u/n_fr", "Unit weight per frame line")
+
+seis = add_component_seismic(sh, S_DS=S_DS, W_p=W_unit, a_p=a_p, R_p=R_p, I_p=I_p, z=h_roof, h=h_roof)
+sh.step("F_pf", f"{seis.F_p}/n_fr", "Seismic force per frame line (at the unit's centre of mass)")
+sh.note("The vertical seismic effect E_v = 0.2 S_DS D is carried in the dead-load factor of the seismic combinations "
+        "(ASCE 7-16 Sec. 2.4.5, 12.4.2.2).")
 
 sh.heading("Leg section (round tube)")
 sh.given("D_o", D_o, "Outside diameter")
@@ -102,7 +113,8 @@ fr.support("A", "fixed")
 fr.support("D", "fixed")
 fr.node_load("D", "U", Fy=-sh["W_f"])
 fr.node_load("W", "U", Fx=sh["F_hf"], Fy=sh["F_vf"])
-combos = basic_combinations("ASD", ["D", "W"])
+fr.node_load("E", "U", Fx=sh["F_pf"])
+combos = basic_combinations("ASD", ["D", "W", "E"], S_DS=S_DS)
 for c in combos:
     fr.combination(c.name, c.factors)
 res = fr.solve()
@@ -117,7 +129,7 @@ else:
 N_gov = res.diagram(leg_M, case_M).N[0]
 sway = res.displacement("B", "AC5+")[0]
 
-sh.heading("Frame analysis (one frame line, ASD basic combinations)")
+sh.heading("Frame analysis (one frame line, ASD combinations)")
 sh.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c in combos))
 shown = [n for n in names if n in ("AC1", "AC5+", "AC7-", case_M)]
 add_frame_results(sh, res, shown, figure_case=case_M, members=["L1", "L2", "R"])

@@ -96,6 +96,6 @@ def add_component_seismic(
     sh.step(f"F_pmin{s}", f"0.3*S_DS{s}*I_p{s}*W_p{s}", "Lower limit", unit="lbf", ref="ASCE 7-16 Eq. 13.3-3")
     sh.step(f"F_p{s}", f"min(max(F_p1{s}, F_pmin{s}), F_pmax{s})", "Horizontal seismic design force (E_h, rho = 1.0)",
             unit="lbf", ref="ASCE 7-16 Sec. 13.3.1")
-    sh.step(f"F_v{s}", f"0.2*S_DS{s}*W_p{s}", "Vertical seismic force (E_v, acting up or down)", unit="lbf",
+    sh.step(f"F_pv{s}", f"0.2*S_DS{s}*W_p{s}", "Vertical seismic force (E_v, acting up or down)", unit="lbf",
             ref="ASCE 7-16 Sec. 13.3.1.2")
-    return ComponentSeismic(f"F_p{s}", f"F_v{s}")
+    return ComponentSeismic(f"F_p{s}", f"F_pv{s}")
