@@ -2,7 +2,7 @@
 
 Shape families: round and rectangular HSS, W-shapes, channels, tees, single angles and solid
 bars (see :data:`KINDS`); limit states D2, E3/E4/E5/E7, F2/F3/F6/F7/F8/F9/F10/F11, G2/G3/G4/G5,
-H1, H3, J2 with J4.2 base metal. Equations are those of the 2016 edition; where a jurisdiction
+H1, H3, J2 with J4.2 base metal, J3 bolts in bearing. Equations are those of the 2016 edition; where a jurisdiction
 has adopted AISC 360-22, confirm clause numbers and any changed provisions for the job.
 
 Each ``add_*`` function writes traceable steps (given, formula, branch, selection) on a
@@ -18,6 +18,7 @@ from __future__ import annotations
 
 from calcpad.eng.checks._common import RESISTANCE, CheckInputError, CheckNotCoveredError, CheckWarning
 from calcpad.eng.checks._section import KINDS, PROPS, resolve_section
+from calcpad.eng.checks.bolts import BOLT_GRADES, add_bolt_line_check
 from calcpad.eng.checks.classify import add_classification
 from calcpad.eng.checks.combined import add_interaction_check
 from calcpad.eng.checks.compression import add_compression_check
@@ -31,6 +32,7 @@ from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interactio
 from calcpad.eng.checks.welds import add_fillet_weld_check, add_stitch_weld_check
 
 __all__ = [
+    "BOLT_GRADES",
     "KINDS",
     "PROPS",
     "RESISTANCE",
@@ -39,6 +41,7 @@ __all__ = [
     "CheckWarning",
     "MemberChecks",
     "MemberForces",
+    "add_bolt_line_check",
     "add_classification",
     "add_compression_check",
     "add_fillet_weld_check",
