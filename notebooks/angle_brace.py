@@ -19,7 +19,7 @@
 # jurisdiction govern.*
 
 # %% tags=["parameters"]
-method = "ASD"  # design method: "ASD" (service load combinations) or "LRFD" (factored)
+method = "ASD"  # design method, ASD (service load combinations) or LRFD (factored loads); ASD or LRFD
 brace = "L2-1/2x2-1/2x1/4"  # single angle, catalog designation (leg ratio below 1.7)
 grade = "A36"  # brace steel, materials catalog name
 connected_leg = "long"  # leg welded to the gusset plates; long or short

@@ -18,7 +18,7 @@
 # jurisdiction govern.*
 
 # %% tags=["parameters"]
-method = "ASD"  # design method: "ASD" (service load combinations) or "LRFD" (factored)
+method = "ASD"  # design method, ASD (service load combinations) or LRFD (factored loads); ASD or LRFD
 member = "W8x18"  # cross member section, catalog designation: W-shape, rectangular/round HSS or pipe
 grade = "A992"  # steel, materials catalog name (A500: round/shaped picked from the section)
 span = "12 ft"  # span between supports; 2 ft to 40 ft

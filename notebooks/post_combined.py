@@ -19,7 +19,7 @@
 # jurisdiction govern.*
 
 # %% tags=["parameters"]
-method = "ASD"  # design method: "ASD" (service load combinations) or "LRFD" (factored)
+method = "ASD"  # design method, ASD (service load combinations) or LRFD (factored loads); ASD or LRFD
 post = "HSS4x4x1/4"  # post section, catalog designation: square/rectangular/round HSS, pipe or W-shape
 grade = "A500 Gr C"  # post steel, materials catalog name (A500: round/shaped picked from the post)
 P = "6.5 kip"  # axial compression at the top of the post (combined for the method); 0 to 200 kip
