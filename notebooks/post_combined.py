@@ -8,12 +8,14 @@
 # The post is a cantilever carrying an axial load and a lateral load at its top. This template
 # checks it per AISC 360-16 for every applicable limit state: compression (E3, E7 for slender
 # walls), flexure at the base (F7 for rectangular HSS, F8 for round HSS, F2 for W-shapes), shear
-# (G4/G5/G2) and the combined-force interaction H1-1a/H1-1b, and names the governing ratio.
+# (G4/G5/G2) and the combined-force interaction H1-1a/H1-1b, names the governing ratio, and
+# checks the base plate for concrete bearing, plate bending and anchor rod tension (AISC 360-16
+# J8, AISC Design Guide 1).
 #
 # Assumptions: loads are already combined for the chosen method (ASD service combination or LRFD
 # factored combination); second-order effects are small or already in the moment (a fixed-free
 # post with the recommended K = 2.1, Commentary Table C-A-7.1); the base plate and anchors are
-# checked elsewhere.
+# checked elsewhere for anchorage in the concrete (ACI 318 Chapter 17), welds and shear transfer.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -26,10 +28,17 @@ P = "6.5 kip"  # axial compression at the top of the post (combined for the meth
 H = "0.45 kip"  # lateral load at the top of the post (combined for the method); 0 to 20 kip
 L = "11 ft"  # post height from base plate to load; 3 ft to 30 ft
 K = "2.1"  # effective length factor; 0.5 to 2.5 (2.1 for fixed base, free top)
+plate_B = "10 in"  # base plate width (across the moment); 4 in to 36 in
+plate_N = "10 in"  # base plate length (along the moment); 4 in to 36 in
+plate_t = "3/4 in"  # base plate thickness; 1/4 in to 3 in
+plate_grade = "A36"  # base plate steel, materials catalog name
+f_c = "3000 psi"  # concrete compressive strength f'c; 2500 psi to 8000 psi
+rod_d = "3/4 in"  # anchor rod diameter (ASTM F1554 Gr 36, two rods on the tension side); 1/2 in to 2 in
+rod_f = "3.75 in"  # plate centre to the anchor rod line; 1 in to 18 in
 
 # %%
 from calcpad import Sheet
-from calcpad.eng.checks import check_member
+from calcpad.eng.checks import add_base_plate_check, check_member
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import get_section
 
@@ -45,6 +54,8 @@ sh.step("M_base", "H_top*L_post", "Moment at the base", unit="kip*ft", ref="cant
 sh.step("V_base", "H_top", "Shear at the base", unit="kip", ref="cantilever, statics")
 sh.assume(f"Loads combined for {method}; second-order effects neglected or included in the loads.")
 result = check_member(sh, shape, material=steel, L="L_post", K=float(K), P="P_top", M_x="M_base", V="V_base")
+add_base_plate_check(sh, shape, P="P_top", M="M_base", B=plate_B, N=plate_N, t_p=plate_t, f_c=f_c, f=rod_f, d_rod=rod_d,
+                     material=plate_grade, suffix="plate")
 sh
 
 # %%
