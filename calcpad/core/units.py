@@ -117,6 +117,8 @@ def _parse_text(text: str, field_name: str) -> pint.Quantity:
         text = re.sub(r"(\d)\s*'", r"\1 ft", text)
         if '"' in text or "'" in text:
             raise UnitInputError(f"{field_name}: {raw!r} is not a value with a unit; expected e.g. 5'-6\" or 66 in")
+    if re.search(r"/\s*0+(?:\.0*)?(?![\d.])", text):
+        raise UnitInputError(f"{field_name}: {raw!r} divides by zero; expected a value with a unit such as '3/4 in'")
     text = _MIXED.sub(lambda m: repr(int(m.group(1)) + int(m.group(2)) / int(m.group(3))), text)
     frac = _FRACTION.match(text)
     if frac:
