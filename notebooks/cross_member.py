@@ -7,7 +7,8 @@
 #
 # A simply supported member with a uniform load and a point load at midspan. The template works
 # the maximum moment, shear and deflection with the beam formulas as steps, then checks flexure
-# (F2 with lateral-torsional buckling for W-shapes, F7/F8 for HSS), shear (G2/G4/G5) and the live
+# (F2 with lateral-torsional buckling for W-shapes and channels, F9 for tees and F10 for equal-leg
+# angles with the conservative side assumed and stated, F7/F8 for HSS), shear (G2/G3/G4/G5) and the live
 # deflection against a span limit such as L/240.
 #
 # Assumptions: pinned ends (simple shear connections); loads combined for the chosen method for
@@ -19,7 +20,7 @@
 
 # %% tags=["parameters"]
 method = "ASD"  # design method, ASD (service load combinations) or LRFD (factored loads); ASD or LRFD
-member = "W8x18"  # cross member section, catalog designation: W-shape, rectangular/round HSS or pipe
+member = "W8x18"  # cross member section, catalog designation: W, C/MC, WT, equal-leg angle, rectangular/round HSS or pipe
 grade = "A992"  # steel, materials catalog name (A500: round/shaped picked from the section)
 span = "12 ft"  # span between supports; 2 ft to 40 ft
 w = "180 lbf/ft"  # uniform load including self weight; 0 to 3 kip/ft
