@@ -63,3 +63,22 @@ sh
 
 # %%
 sh.summary_frame()
+
+# %% [markdown]
+# ## What if
+#
+# Change the span, the loads, the unbraced length or the deflection limit in the panel to see
+# the checks follow (the sheet above is not redrawn). The section and grade are template
+# parameters.
+
+# %% tags=["nbval-ignore-output"]
+from calcpad.widgets import what_if
+
+panel = what_if(sh, names=["L", "w", "P_mid", "L_b", "N_defl"])
+panel
+
+# %%
+panel.set("L", "16 ft")
+deflection_at_16_ft = round(next(c.ratio for c in sh.summary() if c.title == "Deflection"), 3)
+panel.reset()  # back to this template's parameters, so the stored sheet is the one above
+deflection_at_16_ft

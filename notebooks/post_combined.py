@@ -60,3 +60,23 @@ sh
 
 # %%
 sh.summary_frame()
+
+# %% [markdown]
+# ## What if
+#
+# Change the loads or the post height in the panel to see every check follow, the base plate
+# included (the sheet above is not redrawn). A value the sheet cannot take is refused with its
+# message and the last good values stay. The section, grades and plate size are template
+# parameters. The base plate's small/large-moment case is chosen when the sheet is built.
+
+# %% tags=["nbval-ignore-output"]
+from calcpad.widgets import what_if
+
+panel = what_if(sh, names=["P_top", "H_top", "L_post"])
+panel
+
+# %%
+panel.set("H_top", "0.6 kip")
+interaction_at_0_6_kip = round(next(c.ratio for c in sh.summary() if c.title == "Axial + flexure interaction"), 3)
+panel.reset()  # back to this template's parameters, so the stored sheet is the one above
+interaction_at_0_6_kip
