@@ -339,3 +339,49 @@ def test_catalog_values_follow_an_si_sheet():
     add_compression_check(sh_us, L44, P="2 kip", L="4 ft", material="A36", connected_leg="long")
     assert str(sh_us["F_y"].units) == "kip_per_square_inch"
     assert sh_us["P_c"].to("kN").magnitude > 0
+
+
+def test_equal_angle_principal_moduli_match_sectionproperties():
+    # sectionproperties (FE section library): principal moments of inertia and elastic moduli z11+/-, z22+/-.
+    sp_lib = pytest.importorskip("sectionproperties.pre.library")
+    sp_analysis = pytest.importorskip("sectionproperties.analysis")
+    from calcpad.eng.checks import resolve_section
+
+    geom = sp_lib.angle_section(d=4.0, b=4.0, t=0.25, r_r=0.0, r_t=0.0, n_r=2)
+    geom.create_mesh(mesh_sizes=[geom.calculate_area() / 400])
+    sec = sp_analysis.Section(geom)
+    sec.calculate_geometric_properties()
+    i11, i22 = sec.get_ip()
+    z11p, z11m, z22p, z22m = sec.get_zp()
+    v = resolve_section(L44).values
+    assert v["Iw"] == pytest.approx(i11, rel=1e-6) and v["Iz"] == pytest.approx(i22, rel=1e-6)
+    assert v["Sw_toe"] == pytest.approx(min(z11p, z11m), rel=1e-6)
+    assert sorted([v["Sz_toe"], v["Sz_heel"]]) == pytest.approx(sorted([z22p, z22m]), rel=1e-6)
+
+
+@pytest.mark.parametrize(("axis", "toe"), [("w", None), ("z", "compression"), ("z", "tension")])
+def test_equal_angle_principal_axis_f10(axis, toe):
+    from calcpad.eng.checks import resolve_section
+
+    v = resolve_section(L44).values
+    sh = _sheet("ASD")
+    add_flexure_check(sh, L44, M="1 kip*ft", axis=axis, L_b="8 ft", F_y="36 ksi", toe=toe)
+    fy, lb, lam = 36.0, 96.0, 16.0
+    if axis == "w":
+        my = fy * v["Sw_toe"]
+        mcr = 9 * E * v["A"] * v["r_min"] * 0.25 / (8 * lb)  # Eq. F10-4 with beta_w = 0, C_b = 1
+        ltb = min((1.92 - 1.17 * math.sqrt(my / mcr)) * my, 1.5 * my) if my / mcr <= 1 else (0.92 - 0.17 * mcr / my) * mcr
+        sc = v["Sw_toe"]
+    else:
+        my = fy * min(v["Sz_toe"], v["Sz_heel"])
+        ltb = math.inf  # no LTB about the minor principal axis
+        sc = v["Sz_toe"] if toe == "compression" else None
+    llb = fy * sc * (2.43 - 1.72 * lam * math.sqrt(fy / E)) if sc else math.inf  # Eq. F10-6 (noncompact leg)
+    expected = min(1.5 * my, ltb, llb)
+    assert _kipin(sh, f"M_n_{axis}") == pytest.approx(expected, rel=REL)
+
+
+def test_principal_axes_are_for_angles_only():
+    with pytest.raises(CheckInputError) as err:
+        add_flexure_check(_sheet(), WT, M="1 kip*ft", axis="w", F_y="50 ksi")
+    assert err.value.field == "axis"

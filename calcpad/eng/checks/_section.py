@@ -65,6 +65,11 @@ PROPS: dict[str, tuple[str, str]] = {
     "x_o": ("in", "Distance from the centroid to the shear centre along x"),
     "Cw": ("in**6", "Warping constant"),
     "bf_tf": ("", "Flange width-to-thickness ratio bf/tf"),
+    "Iw": ("in**4", "Moment of inertia about the major principal axis w"),
+    "Iz": ("in**4", "Moment of inertia about the minor principal axis z"),
+    "Sw_toe": ("in**3", "Section modulus about w to the toes"),
+    "Sz_toe": ("in**3", "Section modulus about z to the toes"),
+    "Sz_heel": ("in**3", "Section modulus about z to the heel"),
 }
 
 _CLASS_KIND = {
@@ -116,6 +121,20 @@ def channel_warping(d: float, bf: float, tf: float, tw: float, xc: float) -> tup
     return cw, eo + (xc - tw / 2.0)
 
 
+def _angle_principal(d: float, b: float, t: float, p: Any) -> dict[str, float]:
+    """Principal-axis moduli of an angle: about w (major) to the toes, about z (minor) to the
+    toes and to the heel. Corners are measured from the centroid across each axis."""
+    theta = math.radians(p.theta_p)
+    toes = [(0.0, d), (t, d), (b, 0.0), (b, t)]
+    heel = [(0.0, 0.0)]
+
+    def dist(pts: list[tuple[float, float]], phi: float) -> float:
+        return max(abs(-(x - p.xc) * math.sin(phi) + (y - p.yc) * math.cos(phi)) for x, y in pts)
+
+    return {"Iw": p.I_max, "Iz": p.I_min, "Sw_toe": p.I_max / dist(toes, theta),
+            "Sz_toe": p.I_min / dist(toes, theta + math.pi / 2), "Sz_heel": p.I_min / dist(heel, theta + math.pi / 2)}
+
+
 def _from_shape(shape: Any) -> Sec:
     kind = _CLASS_KIND.get(type(shape).__name__)
     if kind is None:
@@ -134,6 +153,7 @@ def _from_shape(shape: Any) -> Sec:
     elif kind == "angle":
         v.update(d=shape.d, b=shape.b, t=shape.t, b_t=max(shape.d, shape.b) / shape.t)
         v.update(Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, Sy_left=p.Iy / p.c_left, Sy_right=p.Iy / p.c_right)
+        v.update(_angle_principal(shape.d, shape.b, shape.t, p))
     elif kind == "channel":
         cw, xo = channel_warping(shape.d, shape.bf, shape.tf, shape.tw, p.xc)
         v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_tf=shape.bf / shape.tf, h_tw=p.ratios["h/tw"], Cw=cw, x_o=xo)

@@ -46,7 +46,8 @@ def add_flexure_check(
         sh: Sheet to write on.
         section: Shape or property mapping.
         M: Required flexural strength M_r (its sign is the bending direction; magnitude used).
-        axis: ``"x"`` (major for W, depth direction for HSS) or ``"y"``.
+        axis: ``"x"`` (major for W, depth direction for HSS) or ``"y"``; for equal-leg angles
+            also ``"w"`` (major principal axis) or ``"z"`` (minor principal axis, F10).
         L_b: Unbraced length of the compression flange (> 0); ``None`` = continuously braced
             (lateral-torsional buckling does not apply).
         C_b: Lateral-torsional buckling modification factor (1.0 is conservative), F1.
@@ -54,7 +55,8 @@ def add_flexure_check(
         stem: Tees: ``"tension"`` (flange compressed) or ``"compression"``; default the
             latter (lower strength), stated on the sheet.
         toe: Equal-leg angles: ``"compression"`` or ``"tension"`` for the toe of the leg
-            perpendicular to the bending axis; default compression, stated on the sheet.
+            perpendicular to the bending axis (about ``"z"``: the toes against the heel);
+            default compression, stated on the sheet. About ``"w"`` one toe is always compressed.
         restraint: Equal-leg angles with ``L_b``: ``"none"`` or ``"at max moment"``
             (F10.2(ii)(b)); leave ``L_b`` out for continuous restraint.
         suffix: Name suffix.
@@ -63,10 +65,12 @@ def add_flexure_check(
         Key of the check. The available strength is ``M_c`` (+ suffix); about y the step names
         carry ``_y`` (``M_c_y``).
     """
-    if axis not in ("x", "y"):
-        raise CheckInputError("axis", axis, "'x' or 'y'")
-    calc = Calc(sh, suffix, "" if axis == "x" else "y")
+    if axis not in ("x", "y", "w", "z"):
+        raise CheckInputError("axis", axis, "'x' or 'y' (or 'w'/'z', the principal axes of an equal-leg angle)")
+    calc = Calc(sh, suffix, "" if axis == "x" else axis)
     sec = resolve_section(section, kind)
+    if axis in ("w", "z") and sec.kind != "angle":
+        raise CheckInputError("axis", axis, "'x' or 'y': principal axes 'w'/'z' are for single angles")
     _check_open_options(sec, stem, toe, restraint)
     if sec.kind == "tee" and axis != "x":
         raise CheckNotCoveredError("axis", axis, "tees bent in their plane of symmetry (axis='x', AISC 360-16 F9); bending about y is not covered")

@@ -3,8 +3,8 @@
 
 Covered: tees bent in their plane of symmetry (about x, flange at the top) with the stem in
 tension or in compression; equal-leg single angles bent about a geometric axis with no axial
-compression. Principal-axis bending of unequal-leg angles (F10.2(iii)) and tees about y are
-not covered.
+compression, or about a principal axis (w major, with LTB by Eq. F10-4 and β_w = 0; z minor).
+Unequal-leg angles (β_w, F10.2(iii)) and tees about y are not covered.
 """
 
 from __future__ import annotations
@@ -96,6 +96,9 @@ def write_angle_flexure(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: 
 
     The caller has checked equal legs, ``toe`` (None, "compression", "tension") and ``restraint``.
     """
+    if axis in ("w", "z"):
+        _angle_principal(calc, sec, axis, braced_len, toe)
+        return
     b, t = sec.need("b", "F10"), sec.need("t", "F10")
     if toe is None:
         toe = "compression"
@@ -143,4 +146,61 @@ def write_angle_flexure(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: 
         ref="AISC 360-16 F10.3",
     )
     cands["M_n_LLB"] = "leg local buckling (F10.3)"
+    calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
+
+
+def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str | None) -> None:
+    """Equal-leg angle about a principal axis: yielding, LTB about w (β_w = 0), leg local buckling."""
+    write_elements(calc, sec, "flexure", "x")
+    major = axis == "w"
+    if major:
+        calc.prop("S_p", sec.need("Sw_toe", "F10"), "in**3", "Section modulus about w (to the toes)", sec.label)
+        calc.sh.note("Bending about the major principal axis w: one toe is in compression.")
+        s_c = "S_p"
+    else:
+        if toe is None:
+            toe = "compression"
+            calc.sh.assume("Toes taken in compression (bending about z; the lower strength); give toe='tension' when the heel "
+                           "is the compression side.")
+        calc.prop("S_zt", sec.need("Sz_toe", "F10"), "in**3", "Section modulus about z to the toes", sec.label)
+        calc.prop("S_zh", sec.need("Sz_heel", "F10"), "in**3", "Section modulus about z to the heel", sec.label)
+        calc.step("S_p", "min(S_zt, S_zh)", "Least section modulus about z", unit="in^3")
+        s_c = "S_zt" if toe == "compression" else ""
+    calc.step("M_y", "F_y*S_p", f"Yield moment about {axis}", unit="kip*ft", ref="AISC 360-16 F10.1")
+    calc.step("M_p", "1.5*M_y", "Yielding", unit="kip*ft", ref="AISC 360-16 Eq. F10-1")
+    cands = {"M_p": "yielding (F10.1)"}
+    if major and braced_len:
+        calc.prop("A", sec.need("A", "F10"), "in**2", "Gross area", sec.label, shared=True)
+        calc.prop("r_z", sec.need("r_min", "F10"), "in", "Radius of gyration about z", sec.label)
+        calc.prop("t", sec.need("t", "F10"), "in", "Leg thickness", sec.label, shared=True)
+        calc.given("beta_w", "0 in", "Section property for single angles (0 for equal legs)", "AISC 360-16 F10.2(i)",
+                   dim="[length]", allow_zero=True)
+        calc.step("M_cr", "9*E*A*r_z*t*C_b/(8*L_b)*(sqrt(1 + (4.4*beta_w*r_z/(L_b*t))**2) + 4.4*beta_w*r_z/(L_b*t))",
+                  "Elastic LTB moment about the major principal axis", unit="kip*ft", ref="AISC 360-16 Eq. F10-4")
+        calc.branch(
+            "M_n_LTB",
+            [("M_y/M_cr <= 1", "min((1.92 - 1.17*sqrt(M_y/M_cr))*M_y, 1.5*M_y)", "M_y/M_cr <= 1, Eq. F10-2"),
+             (None, "(0.92 - 0.17*M_cr/M_y)*M_cr", "M_y/M_cr > 1, Eq. F10-3")],
+            "Lateral-torsional buckling",
+            unit="kip*ft",
+            ref="AISC 360-16 F10.2",
+        )
+        cands["M_n_LTB"] = "lateral-torsional buckling (F10.2)"
+    elif major:
+        calc.sh.note("Continuous lateral-torsional restraint: F10.2 does not apply.")
+    else:
+        calc.sh.note("Bending about the minor principal axis z: lateral-torsional buckling does not apply (F10.2).")
+    if s_c:
+        calc.branch(
+            "M_n_LLB",
+            [("lambda_l <= lambda_pl", "M_p", "compact legs, no leg local buckling"),
+             ("lambda_l <= lambda_rl", f"F_y*{s_c}*(2.43 - 1.72*lambda_l*sqrt(F_y/E))", "noncompact legs, Eq. F10-6"),
+             (None, f"0.71*E/lambda_l**2*{s_c}", "slender legs, Eqs. F10-7, F10-8")],
+            "Leg local buckling (toe in compression)",
+            unit="kip*ft",
+            ref="AISC 360-16 F10.3",
+        )
+        cands["M_n_LLB"] = "leg local buckling (F10.3)"
+    else:
+        calc.sh.note("Toes in tension: leg local buckling (F10.3) does not apply.")
     calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
