@@ -68,6 +68,9 @@ PROPS: dict[str, tuple[str, str]] = {
     "Iw": ("in**4", "Moment of inertia about the major principal axis w"),
     "Iz": ("in**4", "Moment of inertia about the minor principal axis z"),
     "Sw_toe": ("in**3", "Section modulus about w to the toes"),
+    "Sw_long": ("in**3", "Section modulus about w to the long leg's toe"),
+    "Sw_short": ("in**3", "Section modulus about w to the short leg's toe"),
+    "beta_w": ("in", "Single-angle section property beta_w (magnitude)"),
     "Sz_toe": ("in**3", "Section modulus about z to the toes"),
     "Sz_heel": ("in**3", "Section modulus about z to the heel"),
 }
@@ -131,8 +134,32 @@ def _angle_principal(d: float, b: float, t: float, p: Any) -> dict[str, float]:
     def dist(pts: list[tuple[float, float]], phi: float) -> float:
         return max(abs(-(x - p.xc) * math.sin(phi) + (y - p.yc) * math.cos(phi)) for x, y in pts)
 
+    long_toe, short_toe = (toes[:2], toes[2:]) if d >= b else (toes[2:], toes[:2])
     return {"Iw": p.I_max, "Iz": p.I_min, "Sw_toe": p.I_max / dist(toes, theta),
-            "Sz_toe": p.I_min / dist(toes, theta + math.pi / 2), "Sz_heel": p.I_min / dist(heel, theta + math.pi / 2)}
+            "Sw_long": p.I_max / dist(long_toe, theta), "Sw_short": p.I_max / dist(short_toe, theta),
+            "Sz_toe": p.I_min / dist(toes, theta + math.pi / 2), "Sz_heel": p.I_min / dist(heel, theta + math.pi / 2),
+            "beta_w": _beta_w(d, b, t, p, theta)}
+
+
+def _beta_w(d: float, b: float, t: float, p: Any, theta: float) -> float:
+    """|β_w| = |(1/I_w) ∫ z (w² + z²) dA - 2 z_o| of an angle (legs as rectangles, shear centre at
+    the meeting of the leg centre lines); the integrand is cubic, so 2-point Gauss per direction
+    is exact. AISC 360-16 F10.2(i) User Note (from memory)."""
+    import numpy as np
+
+    g, wts = np.polynomial.legendre.leggauss(2)
+    c, s_ = math.cos(theta), math.sin(theta)
+    total = 0.0
+    for x0, y0, bx, by in ((0.0, 0.0, b, t), (0.0, t, t, d - t)):
+        for gi, wi in zip(g, wts, strict=True):
+            for gj, wj in zip(g, wts, strict=True):
+                x = x0 + bx * (gi + 1) / 2 - p.xc
+                y = y0 + by * (gj + 1) / 2 - p.yc
+                w, z = x * c + y * s_, -x * s_ + y * c
+                total += wi * wj * bx * by / 4 * z * (w * w + z * z)
+    xs, ys = t / 2 - p.xc, t / 2 - p.yc
+    z0 = -xs * s_ + ys * c
+    return float(abs(total / p.I_max - 2.0 * z0))
 
 
 def _from_shape(shape: Any) -> Sec:

@@ -71,12 +71,12 @@ def add_flexure_check(
     sec = resolve_section(section, kind)
     if axis in ("w", "z") and sec.kind != "angle":
         raise CheckInputError("axis", axis, "'x' or 'y': principal axes 'w'/'z' are for single angles")
-    _check_open_options(sec, stem, toe, restraint)
+    _check_open_options(sec, stem, toe, restraint, axis)
     if sec.kind == "tee" and axis != "x":
         raise CheckNotCoveredError("axis", axis, "tees bent in their plane of symmetry (axis='x', AISC 360-16 F9); bending about y is not covered")
-    if sec.kind == "angle" and not math.isclose(sec.need("d", "F10"), sec.need("b", "F10"), rel_tol=1e-9):
-        raise CheckNotCoveredError("section", sec.label, "equal-leg angles about a geometric axis; unequal-leg angles bend about "
-                                   "their principal axes (AISC 360-16 F10.2(iii)) and are not covered: use add_stress_check")
+    if sec.kind == "angle" and axis in ("x", "y") and not math.isclose(sec.need("d", "F10"), sec.need("b", "F10"), rel_tol=1e-9):
+        raise CheckNotCoveredError("section", sec.label, "equal-leg angles about a geometric axis; an unequal-leg angle bends about "
+                                   "its principal axes (AISC 360-16 F10.2(iii)): resolve the moment and use axis='w' and axis='z'")
     sh.heading(f"Flexure about {axis}, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, E)
     calc.given("M_r", M, "Required flexural strength", dim="lbf*in", allow_negative=True)
@@ -99,8 +99,14 @@ def add_flexure_check(
     return calc.check(f"Flexure about {axis}", "M_r", "M_c", key="ratio_b", ref="AISC 360-16 F1")
 
 
-def _check_open_options(sec: Sec, stem: str | None, toe: str | None, restraint: str) -> None:
+def _check_open_options(sec: Sec, stem: str | None, toe: str | None, restraint: str, axis: str = "x") -> None:
     """Validate the tee / angle options before anything is written."""
+    if sec.kind == "angle" and axis == "w":
+        if toe is not None and toe not in ("long", "short"):
+            raise CheckInputError("toe", toe, "'long' or 'short': the leg whose toe is in compression (bending about w)")
+        if restraint != "none":
+            raise CheckInputError("restraint", restraint, "'none' about w (leave L_b out for continuous restraint)")
+        return
     if stem is not None and (sec.kind != "tee" or stem not in ("tension", "compression")):
         expected = "'tension' (flange in compression) or 'compression' (stem tip in compression)" if sec.kind == "tee" else \
             "nothing: it applies to tees only"

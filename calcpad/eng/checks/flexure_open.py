@@ -3,8 +3,9 @@
 
 Covered: tees bent in their plane of symmetry (about x, flange at the top) with the stem in
 tension or in compression; equal-leg single angles bent about a geometric axis with no axial
-compression, or about a principal axis (w major, with LTB by Eq. F10-4 and β_w = 0; z minor).
-Unequal-leg angles (β_w, F10.2(iii)) and tees about y are not covered.
+compression, or any single angle about a principal axis (w major, LTB by Eq. F10-4 with β_w;
+z minor). Unequal-leg angles about a geometric axis (resolve the moment onto w and z) and tees
+about y are not covered.
 """
 
 from __future__ import annotations
@@ -150,13 +151,26 @@ def write_angle_flexure(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: 
 
 
 def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str | None) -> None:
-    """Equal-leg angle about a principal axis: yielding, LTB about w (β_w = 0), leg local buckling."""
+    """Single angle about a principal axis: yielding, LTB about w (Eq. F10-4 with β_w), leg local
+    buckling at a compressed toe."""
     write_elements(calc, sec, "flexure", "x")
     major = axis == "w"
-    if major:
+    equal = abs(sec.need("d", "F10") - sec.need("b", "F10")) <= 1e-9 * sec.need("d", "F10")
+    sign = 1.0
+    if major and equal:
         calc.prop("S_p", sec.need("Sw_toe", "F10"), "in**3", "Section modulus about w (to the toes)", sec.label)
         calc.sh.note("Bending about the major principal axis w: one toe is in compression.")
         s_c = "S_p"
+    elif major:
+        if toe is None:
+            toe = "long"
+            calc.sh.assume("Long leg's toe taken in compression (bending about w; beta_w negative, the lower strength); give "
+                           "toe='short' when the short leg's toe is the compressed one.")
+        sign = 1.0 if toe == "short" else -1.0
+        calc.prop("S_wl", sec.need("Sw_long", "F10"), "in**3", "Section modulus about w to the long leg's toe", sec.label)
+        calc.prop("S_ws", sec.need("Sw_short", "F10"), "in**3", "Section modulus about w to the short leg's toe", sec.label)
+        calc.step("S_p", "min(S_wl, S_ws)", "Least section modulus about w", unit="in^3")
+        s_c = "S_ws" if toe == "short" else "S_wl"
     else:
         if toe is None:
             toe = "compression"
@@ -173,8 +187,10 @@ def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str
         calc.prop("A", sec.need("A", "F10"), "in**2", "Gross area", sec.label, shared=True)
         calc.prop("r_z", sec.need("r_min", "F10"), "in", "Radius of gyration about z", sec.label)
         calc.prop("t", sec.need("t", "F10"), "in", "Leg thickness", sec.label, shared=True)
-        calc.given("beta_w", "0 in", "Section property for single angles (0 for equal legs)", "AISC 360-16 F10.2(i)",
-                   dim="[length]", allow_zero=True)
+        bw = float(sign * sec.need("beta_w", "F10")) if not equal else 0.0
+        calc.given("beta_w", f"{bw!r} in", "Section property for single angles (0 for equal legs; + short leg, - long leg in "
+                   "compression)", "AISC 360-16 F10.2(i); integral over the legs", dim="[length]", allow_zero=True, allow_negative=True,
+                   sig=4)
         calc.step("M_cr", "9*E*A*r_z*t*C_b/(8*L_b)*(sqrt(1 + (4.4*beta_w*r_z/(L_b*t))**2) + 4.4*beta_w*r_z/(L_b*t))",
                   "Elastic LTB moment about the major principal axis", unit="kip*ft", ref="AISC 360-16 Eq. F10-4")
         calc.branch(
