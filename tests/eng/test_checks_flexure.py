@@ -180,3 +180,45 @@ def test_unequal_angle_flexure_not_covered():
 def test_slender_round_beyond_spec_not_covered():
     with pytest.raises(CalcpadError, match="not covered"):
         _mc(RoundTube(20.0, 0.03), "ASD", M="1 kip*ft")
+
+
+@pytest.mark.parametrize("lb_ft", [2.0, 8.0, 30.0])
+def test_welded_i_with_noncompact_web_f4_arithmetic(lb_ft):
+    # AISC 360-16 F4 by hand (Eqs. F4-1..F4-14, from memory) for a doubly symmetric welded I whose web
+    # h/tw = 92 lies between 3.76 and 5.70 sqrt(E/Fy) (90.6 and 137 at 50 ksi).
+    from calcpad.eng.sections import IShape
+
+    g = IShape(18.0, 6.0, 0.375, 0.1875)
+    p = g.props
+    sh = _mc(g, "LRFD", M="50 kip*ft", L_b=f"{lb_ft} ft")
+    E, fy, lb = 29000.0, 50.0, lb_ft * 12
+    lam_w, lam_f = p.ratios["h/tw"], p.ratios["bf/2tf"]
+    lpw, lrw = 3.76 * math.sqrt(E / fy), 5.70 * math.sqrt(E / fy)
+    assert lpw < lam_w <= lrw
+    myc, mp = fy * p.Sx, min(fy * p.Zx, 1.6 * fy * p.Sx)
+    rpc = min(mp / myc - (mp / myc - 1) * (lam_w - lpw) / (lrw - lpw), mp / myc)  # F4-9b
+    fl = 0.7 * fy  # F4-6a
+    aw = lam_w * 0.1875 * 0.1875 / (6.0 * 0.375)  # F4-12
+    rt = 6.0 / math.sqrt(12 * (1 + aw / 6))  # F4-11
+    ho = 18.0 - 0.375
+    lp = 1.1 * rt * math.sqrt(E / fy)  # F4-7
+    k = p.J / (p.Sx * ho)
+    lr = 1.95 * rt * E / fl * math.sqrt(k + math.sqrt(k * k + 6.76 * (fl / E) ** 2))  # F4-8
+    fcr = math.pi**2 * E / (lb / rt) ** 2 * math.sqrt(1 + 0.078 * k * (lb / rt) ** 2)  # F4-5, C_b = 1
+    cap = rpc * myc
+    if lb <= lp:
+        ltb = cap
+    elif lb <= lr:
+        ltb = min(cap - (cap - fl * p.Sx) * (lb - lp) / (lr - lp), cap)
+    else:
+        ltb = min(fcr * p.Sx, cap)
+    lpf, lrf = 0.38 * math.sqrt(E / fy), 1.0 * math.sqrt(E / fy)
+    flb = cap if lam_f <= lpf else cap - (cap - fl * p.Sx) * (lam_f - lpf) / (lrf - lpf)
+    assert sh["M_n"].to("kip*in").magnitude == pytest.approx(min(cap, ltb, flb), rel=ARITH_REL)
+
+
+def test_slender_web_is_not_covered():
+    from calcpad.eng.sections import IShape
+
+    with pytest.raises(NotCoveredError, match="F5"):
+        _mc(IShape(24.0, 6.0, 0.375, 0.125), "ASD", M="1 kip*ft")  # h/tw = 186 > 5.70 sqrt(E/Fy)

@@ -1,4 +1,5 @@
-"""Flexure, AISC 360-16 Chapter F: F2/F3 (I-shapes, major axis; F2 for compact channels),
+"""Flexure, AISC 360-16 Chapter F: F2/F3 (I-shapes, major axis; F2 for compact channels), F4
+(doubly symmetric I-shapes with noncompact webs, :mod:`calcpad.eng.checks.flexure_f4`),
 F6 (I-shapes and channels, minor axis),
 F7 (rectangular HSS), F8 (round HSS), F9 (tees) and F10 (equal-leg angles) via
 :mod:`calcpad.eng.checks.flexure_open`, F11 (solid rectangles and rounds).
@@ -16,6 +17,7 @@ from calcpad.core.sheet import Sheet
 from calcpad.eng.checks._common import Calc, CheckInputError, CheckNotCoveredError, add_material
 from calcpad.eng.checks._section import Sec, resolve_section
 from calcpad.eng.checks.classify import write_elements
+from calcpad.eng.checks.flexure_f4 import write_f4
 from calcpad.eng.checks.flexure_open import write_angle_flexure, write_tee_flexure
 
 __all__ = ["add_flexure_check"]
@@ -129,9 +131,10 @@ def _zs(calc: Calc, sec: Sec, axis: str) -> None:
 def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: float) -> None:
     """I-shapes (F2, F3, F6) and channels (F2 when compact, F6)."""
     channel = sec.kind == "channel"
-    if axis == "x" and sec.need("h_tw", "F2") > 3.76 * math.sqrt(e / fy):
-        raise CheckNotCoveredError("web h/tw", round(sec.need("h_tw", "F2"), 2), "I-shapes and channels with noncompact or slender "
-                                   "webs (AISC 360-16 F4/F5) are not covered; choose a shape with a compact web")
+    noncompact_web = axis == "x" and sec.need("h_tw", "F2") > 3.76 * math.sqrt(e / fy)
+    if noncompact_web and (channel or sec.need("h_tw", "F4") > 5.70 * math.sqrt(e / fy)):
+        raise CheckNotCoveredError("web h/tw", round(sec.need("h_tw", "F2"), 2), "I-shapes with compact or noncompact webs (F2-F4) "
+                                   "and channels with compact webs; slender webs (AISC 360-16 F5) are not covered")
     if axis == "x" and channel and sec.need("bf_tf", "F2") > 0.38 * math.sqrt(e / fy):
         raise CheckNotCoveredError("flange bf/tf", round(sec.need("bf_tf", "F2"), 2), "channels with compact flanges (AISC 360-16 F2; "
                                    "F3 covers I-shapes only)")
@@ -149,6 +152,9 @@ def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: fl
             ref="AISC 360-16 F6.2",
         )
         calc.select("M_n", "min", {"M_p": "yielding (F6-1)", "M_n_FLB": "flange local buckling (F6.2)"}, "Nominal flexural strength", unit="kip*ft")
+        return
+    if noncompact_web:
+        write_f4(calc, sec, braced_len)
         return
     calc.step("M_p", "F_y*Z", _MP_NOTE, unit="kip*ft", ref="AISC 360-16 Eq. F2-1")
     if channel:
