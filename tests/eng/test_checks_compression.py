@@ -108,3 +108,29 @@ def test_ratio_and_status():
     check = sh.summary()[0]
     assert check.status == "NG"
     assert check.ratio == pytest.approx(500 / sh["P_c"].to("kip").magnitude, rel=1e-12)
+
+
+def test_welded_i_slender_web_e7_case_a():
+    # AISC 360-16 E7.1 with Table E7.1 case (a) (stiffened elements: c1 = 0.18, c2 = 1.31, from memory):
+    # a welded I whose web h/tw = 92 > 1.49 sqrt(E/Fy) = 35.9 is slender in compression.
+    from calcpad.eng.sections import IShape
+
+    g = IShape(18.0, 6.0, 0.375, 0.1875)
+    sh = _pc(g, "LRFD", P="50 kip", L="10 ft", F_y="50 ksi")
+    fcr = sh["F_cr"].to("ksi").magnitude
+    h, tw, lam_r = 18.0 - 0.75, 0.1875, 1.49 * math.sqrt(E / 50.0)
+    lam = h / tw
+    assert lam > lam_r * math.sqrt(50.0 / fcr)
+    fel = (1.31 * lam_r / lam) ** 2 * 50.0  # Eq. E7-5
+    be = h * (1 - 0.18 * math.sqrt(fel / fcr)) * math.sqrt(fel / fcr)  # Eq. E7-3
+    assert sh["A_eff"].to("in^2").magnitude == pytest.approx(g.props.A - (h - be) * tw, rel=ARITH_REL)
+    assert sh["P_n"].to("kip").magnitude == pytest.approx(fcr * (g.props.A - (h - be) * tw), rel=ARITH_REL)
+
+
+def test_i_shape_with_slender_flanges_not_covered():
+    from calcpad.core.errors import NotCoveredError
+    from calcpad.eng.sections import IShape
+
+    with pytest.raises(NotCoveredError) as err:
+        _pc(IShape(12.0, 12.0, 0.25, 0.3), "ASD", P="5 kip", L="8 ft", F_y="50 ksi")  # bf/2tf = 24
+    assert err.value.field == "flange bf/2tf"

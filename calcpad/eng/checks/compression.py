@@ -81,10 +81,15 @@ def add_compression_check(
 
     fy = calc.value("F_y", "ksi")
     e = calc.value("E", "ksi")
+    slender_web = False
     if sec.kind == "i_shape":
-        if sec.need("bf_2tf", "E7") > 0.56 * math.sqrt(e / fy) or sec.need("h_tw", "E7") > 1.49 * math.sqrt(e / fy):
-            raise CheckNotCoveredError("section", sec.label, "I-shapes with slender elements in compression (E7.1/E7.2 for "
-                                       "rolled I-shapes) are not covered; choose a section with nonslender elements")
+        kc = min(max(4.0 / math.sqrt(sec.need("h_tw", "E7")), 0.35), 0.76)
+        flange_limit = min(0.56 * math.sqrt(e / fy), 0.64 * math.sqrt(kc * e / fy))  # Table B4.1a cases 1 and 2
+        if sec.need("bf_2tf", "E7") > flange_limit:
+            raise CheckNotCoveredError("flange bf/2tf", round(sec.need("bf_2tf", "E7"), 2),
+                                       f"I-shape flanges nonslender in compression (<= {flange_limit:.1f}, Table B4.1a cases 1/2); "
+                                       "slender flanges are not covered")
+        slender_web = sec.need("h_tw", "E7") > 1.49 * math.sqrt(e / fy)
     if sec.kind == "round_hss" and sec.need("D_t", "E7") > 0.45 * e / fy:
         raise CheckNotCoveredError("D/t", round(sec.need("D_t", "E7"), 2), f"round HSS with D/t <= 0.45E/Fy = {0.45 * e / fy:.1f} "
                                    "(AISC 360-16 E7.2(c)); beyond that the Specification does not apply")
@@ -117,6 +122,11 @@ def add_compression_check(
         calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     elif sec.kind in ("tee", "angle", "channel"):
         _open_shape_e7(calc, sec)
+        calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
+    elif slender_web:
+        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec.label)
+        _effective_widths(calc, [("w", "lambda_w*t_w", "web (h)")], "a")
+        calc.step("A_eff", "A_g - (b_w - b_ew)*t_w", "Effective area (slender web)", unit="in^2", ref="AISC 360-16 E7")
         calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     else:
         calc.step("P_n", "F_cr*A_g", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E3-1")
