@@ -30,6 +30,7 @@ from calcpad.eng.checks.shear import add_shear_check
 from calcpad.eng.checks.stress import add_stress_check
 from calcpad.eng.checks.tension import add_tension_check
 from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interaction_check
+from calcpad.eng.checks.weld_group import WELD_GROUP_SHAPES, add_weld_group_check
 from calcpad.eng.checks.welds import add_fillet_weld_check, add_stitch_weld_check
 
 __all__ = [
@@ -37,6 +38,7 @@ __all__ = [
     "KINDS",
     "PROPS",
     "RESISTANCE",
+    "WELD_GROUP_SHAPES",
     "CheckInputError",
     "CheckNotCoveredError",
     "CheckWarning",
@@ -55,6 +57,7 @@ __all__ = [
     "add_tension_check",
     "add_torsion_check",
     "add_torsion_interaction_check",
+    "add_weld_group_check",
     "check_frame_member",
     "check_member",
     "frame_member_forces",
