@@ -38,7 +38,10 @@ def _dimensionless_float(q: pint.Quantity, node: sp.Basic, what: str, step: str)
 
 def evaluate_expr(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str = "?") -> pint.Quantity:
     """Evaluate ``expr`` with the quantities in ``env``; result is a pint quantity."""
-    return _as_q(_eval(expr, env, step))
+    try:
+        return _as_q(_eval(expr, env, step))
+    except OverflowError:
+        raise SheetError(f"step {step!r}: a value is too large to represent (overflow); check the inputs") from None
 
 
 def _as_q(v: object) -> pint.Quantity:

@@ -196,3 +196,14 @@ def test_min_and_max_keep_the_order_written():
     assert symbolic_mathml(r_expr).index("z") < symbolic_mathml(r_expr).rindex("<mn>1</mn>")
     assert sh["r"].magnitude == pytest.approx(10 / 28)
     assert sh["m"].magnitude == pytest.approx(1.0)
+
+
+def test_overflow_is_a_sheet_error():
+    # found by the fuzz tests: 144**144 overflows a float
+    from calcpad.core.errors import SheetError
+
+    sh = Sheet("big")
+    sh.given("x", 144.0)
+    sh.step("y", "x**x")
+    with pytest.raises(SheetError, match="overflow"):
+        sh.evaluate()

@@ -23,6 +23,7 @@ from calcpad.eng.checks import (
     add_fillet_weld_check,
     add_flexure_check,
     add_torsion_check,
+    add_weld_group_check,
     check_member,
 )
 from calcpad.eng.sections import get_section
@@ -56,6 +57,9 @@ CASES = {
     "base plate": (lambda **k: add_base_plate_check(Sheet("f"), HSS, **k), {"P": "10 kip", "M": "100 kip*in", "B": "10 in", "N": "10 in",
                                                                              "t_p": "3/4 in", "f_c": "3 ksi", "f": "3.75 in",
                                                                              "d_rod": "3/4 in", "F_y": "36 ksi"}),
+    "weld group": (lambda **k: add_weld_group_check(Sheet("f"), **k), {"shape": "c", "d": "6 in", "b": "3 in", "P": "4 kip", "e": "5 in",
+                                                                        "w": "1/4 in"}),
+    "angle principal": (lambda **k: add_flexure_check(Sheet("f"), L3, **k), {"M": "1 kip*ft", "axis": "w", "L_b": "4 ft", "F_y": "36 ksi"}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 

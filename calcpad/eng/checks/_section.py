@@ -211,14 +211,14 @@ def resolve_section(section: Any, kind: str | None = None) -> Sec:
         return sec
     if hasattr(section, "as_dict") and hasattr(section, "Ix") and hasattr(section, "ratios"):
         # a SectionProps record (e.g. of a built-up section): its kind must be named
-        if kind not in KINDS:
+        if not isinstance(kind, str) or kind not in KINDS:
             raise CheckInputError("kind", kind, f"one of {', '.join(KINDS)} for a SectionProps record")
         values = {k: float(v) for k, v in section.as_dict().items() if k in PROPS}
         _derive(kind, values)
         return Sec(kind, str(getattr(section, "name", KINDS[kind])), values, "section properties record")
     if isinstance(section, Mapping):
         k = kind or section.get("kind")
-        if k not in KINDS:
+        if not isinstance(k, str) or k not in KINDS:
             raise CheckInputError("kind", k, f"one of {', '.join(KINDS)} for a section given as a mapping")
         values: dict[str, float] = {}
         for name, raw in section.items():

@@ -145,7 +145,7 @@ def validate_angle_e5(sec: Sec, connected_leg: str | None, truss: str) -> None:
             "'long' or 'short' for a single angle end-connected through one leg (AISC 360-16 E5); angles loaded "
             "otherwise need E4 and Chapter H and are not covered by this check",
         )
-    if truss not in E5_CASES:
+    if not isinstance(truss, str) or truss not in E5_CASES:
         raise CheckInputError("truss", truss, "'planar' (individual members, planar truss webs, E5(a)) or 'space' (box or space truss webs, E5(b))")
     d, b = sec.need("d", "E5"), sec.need("b", "E5")
     if max(d, b) / min(d, b) >= 1.7:

@@ -63,7 +63,7 @@ def add_weld_group_check(
     Returns:
         Key of the check.
     """
-    if shape not in WELD_GROUP_SHAPES:
+    if not isinstance(shape, str) or shape not in WELD_GROUP_SHAPES:
         raise CheckInputError("shape", shape, "one of " + ", ".join(repr(k) for k in WELD_GROUP_SHAPES))
     if (shape == "line") != (b is None):
         raise CheckInputError("b", b, "no width for a single line" if shape == "line" else f"the group width for shape {shape!r}")
