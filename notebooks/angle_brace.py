@@ -9,11 +9,13 @@
 # it be checked as an axial member with an effective slenderness that accounts for the
 # eccentricity. The template checks the brace in compression (E5, E3, E7 for slender legs), in
 # tension (D2 with the shear lag factor of Table D3.1 case 2 for longitudinal welds) and the two
-# longitudinal fillet welds at each end, with the gusset plate along them (J2, J4).
+# longitudinal fillet welds at each end, with the gusset plate along them (J2, J4.2) and its block
+# shear (J4.3).
 #
 # Assumptions: the brace is welded at both ends through the same leg, with no load between its
 # ends (the E5 conditions); the two end welds share the force equally; loads are combined for
-# the chosen method; the gusset plate and the members it joins are checked elsewhere.
+# the chosen method; the gusset's other limit states (Whitmore section, buckling) and the members it
+# joins are checked elsewhere.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -34,7 +36,7 @@ gusset_grade = "A36"  # gusset plate steel, materials catalog name
 
 # %%
 from calcpad import Sheet
-from calcpad.eng.checks import add_compression_check, add_fillet_weld_check, add_tension_check
+from calcpad.eng.checks import add_block_shear_check, add_compression_check, add_fillet_weld_check, add_tension_check
 from calcpad.eng.materials import get_material
 from calcpad.eng.sections import get_section
 
@@ -64,6 +66,14 @@ sh.given("t_gus", gusset_t, "Gusset plate thickness")
 sh.step("t_thin", "min(t_leg, t_gus)", "Thinner part joined", unit="in")
 add_fillet_weld_check(sh, R="R_end", w=weld_size, L="l_w", t_p="t_thin", t_e="t_leg", F_EXX=F_EXX, n=2,
                       base_t="t_gus", base_material=gusset_grade)
+
+sh.heading("Gusset plate: block shear along the welds", 2)
+gusset = get_material(gusset_grade)
+sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b)!r} in", "Width of the welded leg (weld line to weld line)",
+         source=brace)
+sh.step("A_gvg", "2*l_w*t_gus", "Gross shear area of the gusset along both welds", unit="in^2", ref="AISC 360-16 J4.3")
+sh.step("A_ntg", "b_leg*t_gus", "Tension area of the gusset across the end of the welds", unit="in^2", ref="AISC 360-16 J4.3")
+add_block_shear_check(sh, R="R_end", A_gv="A_gvg", A_nt="A_ntg", F_y=f"{gusset.Fy!r} ksi", F_u=f"{gusset.Fu!r} ksi", suffix="gusset")
 sh
 
 # %%

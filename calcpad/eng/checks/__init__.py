@@ -19,6 +19,7 @@ from __future__ import annotations
 from calcpad.eng.checks._common import RESISTANCE, CheckInputError, CheckNotCoveredError, CheckWarning
 from calcpad.eng.checks._section import KINDS, PROPS, resolve_section
 from calcpad.eng.checks.base_plate import add_base_plate_check
+from calcpad.eng.checks.block_shear import add_block_shear_check
 from calcpad.eng.checks.bolts import BOLT_GRADES, add_bolt_line_check
 from calcpad.eng.checks.classify import add_classification
 from calcpad.eng.checks.combined import add_interaction_check
@@ -45,6 +46,7 @@ __all__ = [
     "MemberChecks",
     "MemberForces",
     "add_base_plate_check",
+    "add_block_shear_check",
     "add_bolt_line_check",
     "add_classification",
     "add_compression_check",
