@@ -18,6 +18,7 @@ from calcpad.core.errors import CalcpadError
 from calcpad.eng.checks import (
     CheckWarning,
     add_base_plate_check,
+    add_block_shear_check,
     add_bolt_line_check,
     add_compression_check,
     add_fillet_weld_check,
@@ -60,6 +61,8 @@ CASES = {
     "weld group": (lambda **k: add_weld_group_check(Sheet("f"), **k), {"shape": "c", "d": "6 in", "b": "3 in", "P": "4 kip", "e": "5 in",
                                                                         "w": "1/4 in"}),
     "angle principal": (lambda **k: add_flexure_check(Sheet("f"), L3, **k), {"M": "1 kip*ft", "axis": "w", "L_b": "4 ft", "F_y": "36 ksi"}),
+    "block shear": (lambda **k: add_block_shear_check(Sheet("f"), **k), {"R": "20 kip", "A_gv": "2.25 in^2", "A_nt": "0.94 in^2",
+                                                                          "F_y": "36 ksi", "F_u": "58 ksi", "U_bs": 1.0}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 
