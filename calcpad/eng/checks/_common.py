@@ -205,6 +205,15 @@ class Calc:
         self.names[base] = name
         return name
 
+    def step_once(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "") -> str:
+        """As :meth:`step`, but reuse the value when another check on the sheet already wrote it
+        (e.g. ``C_w`` of a W-shape, needed by both E4 and F2)."""
+        name = self.name(base)
+        if name in self.sh:
+            self.names[base] = name
+            return name
+        return self.step(base, formula, description, unit=unit, ref=ref)
+
     def branch(
         self,
         base: str,

@@ -67,7 +67,7 @@ def write_elastic_buckling(
         d, tf = sec.need("d", "E4"), sec.need("tf", "E4")
         calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec.label, shared=True)
         calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label, shared=True)
-        calc.step("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
+        calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
         calc.step("F_e_tb", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(I_x + I_y)", "Elastic torsional buckling stress", unit="ksi",
                   ref="AISC 360-16 Eq. E4-2")
         calc.select("F_e", "min", {"F_e_fb": "flexural buckling (E3-4)", "F_e_tb": "torsional buckling (E4-2)"},

@@ -197,7 +197,7 @@ def _ltb_f2(calc: Calc, sec: Sec, *, channel: bool) -> None:
         calc.step("c", "h_o/2*sqrt(I_y/C_w)", "Factor c for channels", ref="AISC 360-16 Eq. F2-8b")
         jc, note = "J*c", ""
     else:
-        calc.step("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")
+        calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")
         jc, note = "J", " (c = 1)"
     calc.step("r_ts", "sqrt(sqrt(I_y*C_w)/S)", "Effective radius of gyration", unit="in", ref="AISC 360-16 Eq. F2-7")
     calc.step("L_p", "1.76*r_y*sqrt(E/F_y)", "Limiting length, yielding", unit="ft", ref="AISC 360-16 Eq. F2-5")
