@@ -96,3 +96,17 @@ def test_bad_input(kw, field, err):
 def test_angle_column_not_covered():
     with pytest.raises(NotCoveredError):
         _bp("LRFD", column=get_section("L3x3x1/4"))
+
+
+@pytest.mark.parametrize("column", [W8X31, HSS, get_section("HSS6.625x0.280")], ids=["W", "rect HSS", "round HSS"])
+def test_suffixed_plate_beside_a_member_check(column):
+    # found: with a suffix, a step named a value written later (A_1) and failed; every formula must
+    # name values already written, so the suffix mapping applies.
+    from calcpad.eng.checks import check_member
+
+    sh = Sheet("post and plate", method="ASD")
+    check_member(sh, column, L="10 ft", P="6 kip", M_x="4 kip*ft", V="0.4 kip", F_y="50 ksi")
+    add_base_plate_check(sh, column, P="6 kip", M="4 kip*ft", B="14 in", N="14 in", t_p="1 in", f_c="3 ksi", f="5.5 in",
+                         d_rod="3/4 in", F_y="36 ksi", suffix="plate")
+    checks = {c.key for c in sh.evaluate().checks}
+    assert {"ratio_tp_plate"} <= checks

@@ -58,7 +58,8 @@ def test_two_members_need_suffixes():
      ("HSS6x4x1/4", {"M_y": "1 kip*ft", "T": "1 kip*ft"}), ("HSS6.625x0.280", {"T": "1 kip*ft"}), ("Pipe 2 Std", {}),
      ("W8x31", {"P": "-10 kip", "F_u": "65 ksi", "M_y": "1 kip*ft"})],
 )
-def test_every_family_with_every_force_on_one_sheet(designation, extra):
+@pytest.mark.parametrize("suffix", ["", "m2"])
+def test_every_family_with_every_force_on_one_sheet(designation, extra, suffix):
     # The limit states of one member share a sheet: no name may be written twice with another meaning
     # (found: C_w of a W-shape is needed by both E4-2 and F2, and is now written once).
     import warnings
@@ -70,7 +71,7 @@ def test_every_family_with_every_force_on_one_sheet(designation, extra):
     sh = Sheet("all forces", method="LRFD")
     with warnings.catch_warnings():
         warnings.simplefilter("ignore", CheckWarning)
-        out = check_member(sh, get_section(designation), **args)
+        out = check_member(sh, get_section(designation), suffix=suffix, **args)
     ratios = {c.key: c.ratio for c in sh.evaluate().checks}
     assert set(out.keys.values()) <= set(ratios)
     assert out.governing_ratio == pytest.approx(max(ratios[k] for k in out.keys.values()))

@@ -85,12 +85,12 @@ def add_base_plate_check(
     ratio = calc.given("A2_A1", A2_A1, "Supporting concrete area / plate area, A_2/A_1", "AISC 360-16 J8", dim="")
     if not 1.0 <= float(ratio.magnitude) <= 4.0 + 1e-12:
         raise CheckInputError("A2_A1", A2_A1, "a ratio from 1 to 4 (sqrt(A_2/A_1) <= 2, AISC 360-16 J8)")
-    _footprint(calc, sec)
     calc.step("A_1", "B_p*N_p", "Plate area", unit="in^2")
     calc.step("f_pmax", "min(0.85*f_c*sqrt(A2_A1), 1.7*f_c)", "Nominal bearing stress", unit="ksi", ref="AISC 360-16 Eq. J8-2")
     calc.available_with("f_pa", "f_pmax", _PHI_C, _OMEGA_C, "AISC 360-16 J8", "c", "Available bearing stress", unit="ksi")
     calc.step("q_max", "f_pa*B_p", "Available bearing force per unit length", unit="kip/in", ref="AISC Design Guide 1, 3.3")
     calc.available_with("F_ya", "F_y", _PHI_B, _OMEGA_B, "AISC Design Guide 1, 3.1", "p", "Plate yield stress for bending", unit="ksi")
+    _footprint(calc, sec)  # after A_1 and f_pa: its formulas name them
     keys: list[str] = []
     moment = M is not None and float(calc.given("M_r", M, "Required moment", dim="lbf*in", allow_negative=True,
                                                 allow_zero=True).to("kip*in").magnitude) != 0.0
