@@ -23,13 +23,11 @@ __all__ = ["FUNCTIONS", "Formula", "formula_from_sympy", "parse_condition", "par
 
 MAX_LENGTH = 2000
 
-class MinAsWritten(sp.Min):
-    """``min(...)`` with its arguments in the order written (sympy's Min sorts them).
+class _AsWritten:
+    """Keeps a lattice function's arguments in the order written (sympy's Min/Max sort them);
+    the result is still a :class:`sympy.Min`/:class:`sympy.Max` for evaluation and printing."""
 
-    It is still a :class:`sympy.Min` for evaluation and printing; only the order is kept.
-    """
-
-    def __new__(cls, *args: object, **_options: object) -> MinAsWritten:
+    def __new__(cls, *args: object, **_options: object) -> sp.Expr:
         obj = sp.Expr.__new__(cls, *(sp.sympify(a) for a in args))
         obj._argset = frozenset(obj._args)
         return obj
@@ -37,21 +35,15 @@ class MinAsWritten(sp.Min):
     @property
     def args(self) -> tuple[sp.Basic, ...]:
         """The arguments in the order written."""
-        return self._args
+        return self._args  # type: ignore[attr-defined]
 
 
-class MaxAsWritten(sp.Max):
-    """``max(...)`` with its arguments in the order written (sympy's Max sorts them)."""
+class MinAsWritten(_AsWritten, sp.Min):
+    """``min(...)`` with its arguments in the order written."""
 
-    def __new__(cls, *args: object, **_options: object) -> MaxAsWritten:
-        obj = sp.Expr.__new__(cls, *(sp.sympify(a) for a in args))
-        obj._argset = frozenset(obj._args)
-        return obj
 
-    @property
-    def args(self) -> tuple[sp.Basic, ...]:
-        """The arguments in the order written."""
-        return self._args
+class MaxAsWritten(_AsWritten, sp.Max):
+    """``max(...)`` with its arguments in the order written."""
 
 
 # name in formula text -> (sympy class, number of arguments or None for 1+)

@@ -146,14 +146,7 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
         calc.step("q", "P_r/Y", "Bearing force per unit length", unit="kip/in", ref="AISC Design Guide 1, 3.3.1")
         keys.append(calc.check("Concrete bearing (small moment)", "q", "q_max", key="ratio_fp", ref="AISC 360-16 J8"))
         calc.step("f_p", "q/B_p", "Bearing stress", unit="ksi")
-        calc.branch(
-            "t_req",
-            [("Y >= m", "m*sqrt(2*f_p/F_ya)", "Y >= m, Eq. 3.3.14"),
-             (None, "sqrt(4*f_p*Y*(m - Y/2)/F_ya)", "Y < m, Eq. 3.3.15")],
-            "Plate thickness required (bearing side)",
-            unit="in",
-            ref="AISC Design Guide 1, 3.3.2",
-        )
+        _bearing_side(calc, "t_req", "Plate thickness required (bearing side)", "AISC Design Guide 1, 3.3.2")
         calc.sh.note("Small eccentricity: the resultant stays within the bearing length; the anchor rods carry no tension.")
         return
     if f is None or d_rod is None:
@@ -168,14 +161,7 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
     calc.step("Y", "k_Y - sqrt(Y_disc)", "Bearing length (large moment)", unit="in", ref="AISC Design Guide 1, Eq. 3.4.3")
     calc.step("T_a", "q_max*Y - P_r", "Anchor rod tension (all rods on the tension side)", unit="kip", ref="AISC Design Guide 1, Eq. 3.4.2")
     calc.step("f_p", "q_max/B_p", "Bearing stress (at the available limit)", unit="ksi")
-    calc.branch(
-        "t_b",
-        [("Y >= m", "m*sqrt(2*f_p/F_ya)", "Y >= m, Eq. 3.3.14"),
-         (None, "sqrt(4*f_p*Y*(m - Y/2)/F_ya)", "Y < m, Eq. 3.3.15")],
-        "Plate thickness, bearing side",
-        unit="in",
-        ref="AISC Design Guide 1, 3.4",
-    )
+    _bearing_side(calc, "t_b", "Plate thickness, bearing side", "AISC Design Guide 1, 3.4")
     calc.step("x_t", "f_a - d_c/2 + t_c/2", "Rod line to the middle of the column's tension flange or wall", unit="in",
               ref="AISC Design Guide 1, 3.4")
     if calc.value("x_t", "in") <= 0:
@@ -189,3 +175,15 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
               ref="AISC 360-16 Eq. J3-1, Table J3.2")
     calc.available_with("R_ct", "R_nt", 0.75, 2.00, "AISC 360-16 J3.6", "rt", "Available rod tensile strength", unit="kip")
     keys.append(calc.check("Anchor rod tension (steel)", "T_a", "R_ct", key="ratio_rt", ref="AISC 360-16 J3.6"))
+
+
+def _bearing_side(calc: Calc, base: str, description: str, ref: str) -> None:
+    """Plate bending from uniform bearing f_p over Y: cantilever m (Y >= m) or partial (Y < m)."""
+    calc.branch(
+        base,
+        [("Y >= m", "m*sqrt(2*f_p/F_ya)", "Y >= m, Eq. 3.3.14"),
+         (None, "sqrt(4*f_p*Y*(m - Y/2)/F_ya)", "Y < m, Eq. 3.3.15")],
+        description,
+        unit="in",
+        ref=ref,
+    )

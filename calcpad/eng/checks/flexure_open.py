@@ -125,28 +125,11 @@ def write_angle_flexure(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: 
         sign, eq = ("-", "F10-5a") if toe == "compression" else ("+", "F10-5b")
         calc.step("M_cr", f"k_r*0.58*E*b**4*t*C_b/L_b**2*(sqrt(1 + 0.88*(L_b*t/b**2)**2) {sign} 1)",
                   f"Elastic LTB moment, toe in {toe}", unit="kip*ft", ref=f"AISC 360-16 Eq. {eq}")
-        calc.branch(
-            "M_n_LTB",
-            [("M_y/M_cr <= 1", "min((1.92 - 1.17*sqrt(M_y/M_cr))*M_y, 1.5*M_y)", "M_y/M_cr <= 1, Eq. F10-2"),
-             (None, "(0.92 - 0.17*M_cr/M_y)*M_cr", "M_y/M_cr > 1, Eq. F10-3")],
-            "Lateral-torsional buckling",
-            unit="kip*ft",
-            ref="AISC 360-16 F10.2",
-        )
-        cands["M_n_LTB"] = "lateral-torsional buckling (F10.2)"
+        _f10_ltb(calc, cands)
     else:
         calc.sh.note("Continuous lateral-torsional restraint: F10.2 does not apply; M_y uses the full geometric section modulus.")
     calc.step("S_c", "k_S*S_c0", "Section modulus to the toe in compression", unit="in^3", ref="AISC 360-16 F10.3")
-    calc.branch(
-        "M_n_LLB",
-        [("lambda_l <= lambda_pl", "M_p", "compact legs, no leg local buckling"),
-         ("lambda_l <= lambda_rl", "F_y*S_c*(2.43 - 1.72*lambda_l*sqrt(F_y/E))", "noncompact legs, Eq. F10-6"),
-         (None, "0.71*E/lambda_l**2*S_c", "slender legs, Eqs. F10-7, F10-8")],
-        "Leg local buckling",
-        unit="kip*ft",
-        ref="AISC 360-16 F10.3",
-    )
-    cands["M_n_LLB"] = "leg local buckling (F10.3)"
+    _f10_llb(calc, "S_c", cands)
     calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
 
 
@@ -193,30 +176,40 @@ def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str
                    sig=4)
         calc.step("M_cr", "9*E*A*r_z*t*C_b/(8*L_b)*(sqrt(1 + (4.4*beta_w*r_z/(L_b*t))**2) + 4.4*beta_w*r_z/(L_b*t))",
                   "Elastic LTB moment about the major principal axis", unit="kip*ft", ref="AISC 360-16 Eq. F10-4")
-        calc.branch(
-            "M_n_LTB",
-            [("M_y/M_cr <= 1", "min((1.92 - 1.17*sqrt(M_y/M_cr))*M_y, 1.5*M_y)", "M_y/M_cr <= 1, Eq. F10-2"),
-             (None, "(0.92 - 0.17*M_cr/M_y)*M_cr", "M_y/M_cr > 1, Eq. F10-3")],
-            "Lateral-torsional buckling",
-            unit="kip*ft",
-            ref="AISC 360-16 F10.2",
-        )
-        cands["M_n_LTB"] = "lateral-torsional buckling (F10.2)"
+        _f10_ltb(calc, cands)
     elif major:
         calc.sh.note("Continuous lateral-torsional restraint: F10.2 does not apply.")
     else:
         calc.sh.note("Bending about the minor principal axis z: lateral-torsional buckling does not apply (F10.2).")
     if s_c:
-        calc.branch(
-            "M_n_LLB",
-            [("lambda_l <= lambda_pl", "M_p", "compact legs, no leg local buckling"),
-             ("lambda_l <= lambda_rl", f"F_y*{s_c}*(2.43 - 1.72*lambda_l*sqrt(F_y/E))", "noncompact legs, Eq. F10-6"),
-             (None, f"0.71*E/lambda_l**2*{s_c}", "slender legs, Eqs. F10-7, F10-8")],
-            "Leg local buckling (toe in compression)",
-            unit="kip*ft",
-            ref="AISC 360-16 F10.3",
-        )
-        cands["M_n_LLB"] = "leg local buckling (F10.3)"
+        _f10_llb(calc, s_c, cands)
     else:
         calc.sh.note("Toes in tension: leg local buckling (F10.3) does not apply.")
     calc.select("M_n", "min", cands, "Nominal flexural strength", unit="kip*ft")
+
+
+def _f10_ltb(calc: Calc, cands: dict[str, str]) -> None:
+    """M_n from M_y and M_cr, AISC 360-16 Eqs. F10-2 and F10-3."""
+    calc.branch(
+        "M_n_LTB",
+        [("M_y/M_cr <= 1", "min((1.92 - 1.17*sqrt(M_y/M_cr))*M_y, 1.5*M_y)", "M_y/M_cr <= 1, Eq. F10-2"),
+         (None, "(0.92 - 0.17*M_cr/M_y)*M_cr", "M_y/M_cr > 1, Eq. F10-3")],
+        "Lateral-torsional buckling",
+        unit="kip*ft",
+        ref="AISC 360-16 F10.2",
+    )
+    cands["M_n_LTB"] = "lateral-torsional buckling (F10.2)"
+
+
+def _f10_llb(calc: Calc, s_c: str, cands: dict[str, str]) -> None:
+    """Leg local buckling with the section modulus ``s_c`` to the compressed toe, F10.3."""
+    calc.branch(
+        "M_n_LLB",
+        [("lambda_l <= lambda_pl", "M_p", "compact legs, no leg local buckling"),
+         ("lambda_l <= lambda_rl", f"F_y*{s_c}*(2.43 - 1.72*lambda_l*sqrt(F_y/E))", "noncompact legs, Eq. F10-6"),
+         (None, f"0.71*E/lambda_l**2*{s_c}", "slender legs, Eqs. F10-7, F10-8")],
+        "Leg local buckling (toe in compression)",
+        unit="kip*ft",
+        ref="AISC 360-16 F10.3",
+    )
+    cands["M_n_LLB"] = "leg local buckling (F10.3)"

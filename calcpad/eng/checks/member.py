@@ -27,6 +27,11 @@ from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interactio
 __all__ = ["MemberChecks", "check_member"]
 
 
+def _pair(sh: Sheet, value: Any, required: str, available: str) -> tuple[str | None, str | None]:
+    """Sheet names of a required strength and its available strength, or (None, None) when absent."""
+    return (None, None) if value is None else (_link(sh, value, required), available)
+
+
 @dataclass
 class MemberChecks:
     """What :func:`check_member` wrote: check keys by limit state and the governing one."""
@@ -144,15 +149,16 @@ def check_member(
         out.keys["flexure y"] = add_flexure_check(sh, sec, M=M_y, axis="y", L_b=lb, C_b=C_b, suffix=suffix, **open_opts, **mat)
     if V is not None:
         out.keys["shear"] = add_shear_check(sh, sec, V=V, L_v=L_v, suffix=suffix, **mat)
+    mx, my, vv = _pair(sh, M_x, f"M_r{s}", f"M_c{s}"), _pair(sh, M_y, f"M_r_y{s}", f"M_c_y{s}"), _pair(sh, V, f"V_r{s}", f"V_c{s}")
     if axial_c is not None and (M_x is not None or M_y is not None):
         out.keys["interaction"] = add_interaction_check(
             sh,
             P_r=axial_r,
             P_c=axial_c,
-            M_rx=_link(sh, M_x, f"M_r{s}") if M_x is not None else None,
-            M_cx=f"M_c{s}" if M_x is not None else None,
-            M_ry=_link(sh, M_y, f"M_r_y{s}") if M_y is not None else None,
-            M_cy=f"M_c_y{s}" if M_y is not None else None,
+            M_rx=mx[0],
+            M_cx=mx[1],
+            M_ry=my[0],
+            M_cy=my[1],
             suffix=suffix,
         )
     if T is not None:
@@ -164,10 +170,10 @@ def check_member(
                 T_c=f"T_c_tor{s}",
                 P_r=axial_r,
                 P_c=axial_c,
-                M_r=_link(sh, M_x, f"M_r{s}") if M_x is not None else None,
-                M_c=f"M_c{s}" if M_x is not None else None,
-                V_r=_link(sh, V, f"V_r{s}") if V is not None else None,
-                V_c=f"V_c{s}" if V is not None else None,
+                M_r=mx[0],
+                M_c=mx[1],
+                V_r=vv[0],
+                V_c=vv[1],
                 suffix=suffix,
             )
         elif M_y is not None:

@@ -10,7 +10,7 @@ from typing import Any
 
 from calcpad.core.sheet import Sheet
 from calcpad.eng.checks._common import Calc, CheckInputError, CheckNotCoveredError, add_material, check_length
-from calcpad.eng.checks._section import resolve_section
+from calcpad.eng.checks._section import Sec, resolve_section
 
 __all__ = ["add_shear_check"]
 
@@ -53,11 +53,7 @@ def add_shear_check(
     calc.given("V_r", V, "Required shear strength", dim="lbf", allow_negative=True)
     phi, omega = 0.90, 1.67
     if sec.kind == "i_shape" and axis == "x":
-        calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec.label)
-        calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec.label)
-        calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec.label)
-        calc.step("A_w", "d*t_w", "Area of web", unit="in^2", ref="AISC 360-16 G2.1")
-        calc.given("k_v", 5.34, "Web plate shear buckling coefficient (no stiffeners)", "AISC 360-16 G2.1(b)(2)", dim="")
+        _web(calc, sec)
         calc.branch(
             "C_v1",
             [("h_tw <= 2.24*sqrt(E/F_y)", "1.0", "rolled I-shape web, G2.1(a)"),
@@ -77,11 +73,7 @@ def add_shear_check(
             calc.step("V_c", "V_n/Omega_v", "Available shear strength, ASD", unit="kip", ref="AISC 360-16 G1")
         return calc.check("Shear", "V_r", "V_c", key="ratio_v", ref="AISC 360-16 G1")
     if sec.kind == "channel" and axis == "x":
-        calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec.label)
-        calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec.label)
-        calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec.label)
-        calc.step("A_w", "d*t_w", "Area of web", unit="in^2", ref="AISC 360-16 G2.1")
-        calc.given("k_v", 5.34, "Web plate shear buckling coefficient (no stiffeners)", "AISC 360-16 G2.1(b)(2)", dim="")
+        _web(calc, sec)
         calc.branch(
             "C_v1",
             [("h_tw <= 1.10*sqrt(k_v*E/F_y)", "1.0", "Eq. G2-3"),
@@ -149,3 +141,12 @@ def add_shear_check(
                                    "use add_stress_check for others")
     calc.available_with("V_c", "V_n", phi, omega, "AISC 360-16 G1", "v", "Available shear strength", unit="kip")
     return calc.check("Shear", "V_r", "V_c", key="ratio_v", ref="AISC 360-16 G1")
+
+
+def _web(calc: Calc, sec: Sec) -> None:
+    """Web area d*t_w, h/tw and k_v of an I-shape or channel web, AISC 360-16 G2.1."""
+    calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec.label)
+    calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec.label)
+    calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec.label)
+    calc.step("A_w", "d*t_w", "Area of web", unit="in^2", ref="AISC 360-16 G2.1")
+    calc.given("k_v", 5.34, "Web plate shear buckling coefficient (no stiffeners)", "AISC 360-16 G2.1(b)(2)", dim="")
