@@ -155,14 +155,13 @@ class Sheet:
         except FormulaError as exc:
             raise FormulaError(f"step {name!r}: {exc}") from None
 
-    def _unit(self, name: str, unit: str | None) -> str | None:
+    def _unit(self, name: str, unit: str | None) -> pint.Unit | None:
         if unit is None:
             return None
         try:
-            parse_unit(unit, f"step {name!r} unit")
+            return parse_unit(unit, f"step {name!r} unit")
         except CalcpadError as exc:
             raise SheetError(str(exc)) from None
-        return unit
 
     def given(
         self,
@@ -423,12 +422,13 @@ class Sheet:
         # givens show as entered (no padding zeros) unless a sig is set on them
         return 0 if isinstance(step, Given) else self.prefs.sig
 
-    def _show(self, name: str, value: pint.Quantity, unit: str | None) -> pint.Quantity:
+    def _show(self, name: str, value: pint.Quantity, unit: pint.Unit | None) -> pint.Quantity:
         try:
             shown = value.to(self.prefs.shown_unit(value, unit))
         except pint.DimensionalityError:
+            asked = unit_symbol(unit, "ascii") if unit is not None else "?"
             raise DimensionError(
-                f"step {name!r}: the result is a {value.dimensionality} quantity ({value.units:~}); it cannot be shown in {unit!r}"
+                f"step {name!r}: the result is a {value.dimensionality} quantity ({value.units:~}); it cannot be shown in {asked!r}"
             ) from None
         self._values[name] = value
         self._shown[name] = shown

@@ -45,7 +45,7 @@ class FormulaStep:
     name: str
     formula: Formula
     description: str = ""
-    unit: str | None = None
+    unit: pint.Unit | None = None  # read by parse_unit from the text the author wrote
     ref: str = ""
     sig: int | None = None
 
@@ -74,7 +74,7 @@ class Branch:
     name: str
     cases: list[Case]
     description: str = ""
-    unit: str | None = None
+    unit: pint.Unit | None = None  # read by parse_unit from the text the author wrote
     ref: str = ""
     sig: int | None = None
 
@@ -99,7 +99,7 @@ class Select:
     mode: str
     candidates: dict[str, str]
     description: str = ""
-    unit: str | None = None
+    unit: pint.Unit | None = None  # read by parse_unit from the text the author wrote
     ref: str = ""
     sig: int | None = None
 

@@ -1,26 +1,29 @@
-"""The one shared unit registry, unit-string parsing and display preferences.
+"""The shared unit registry (made in :mod:`calcpad.core.registry`), value parsing and display.
 
 Every module in calcpad uses :data:`ureg` from here; no second registry is ever made.
-Unit strings from users (job files, widgets, formulas) go through :func:`parse_quantity`,
-which checks the text against a character whitelist and rewrites the forms engineers
-write by hand (``1-1/2 in``, ``5'-6"``) before pint's own expression parser sees it
-(pint tokenises and evaluates its own grammar; Python's ``eval`` is never used).
+Text from users (job files, ``--set``, the what-if panel, ``Sheet.given``, template ranges)
+goes through :func:`parse_quantity` / :func:`parse_unit`, which read it with the grammar of
+:mod:`calcpad.core.value_text` (never an expression evaluator, never pint's string parser).
 """
 
 from __future__ import annotations
 
 import functools
 import math
-import re
+import numbers
 from dataclasses import dataclass, field
 from decimal import ROUND_HALF_UP, Decimal
 from typing import Any
 
+import numpy as np
 import pint
 
 from calcpad.core.errors import UnitInputError
+from calcpad.core.registry import Q_, Quantity, ureg
+from calcpad.core.value_text import ACCEPTED_FORMS, read_unit, read_value
 
 __all__ = [
+    "ACCEPTED_FORMS",
     "Q_",
     "DisplayPrefs",
     "Quantity",
@@ -35,61 +38,30 @@ __all__ = [
     "ureg",
 ]
 
-ureg: pint.UnitRegistry = pint.UnitRegistry(
-    autoconvert_offset_to_baseunit=True,
-    cache_folder=":auto:",  # parsed definitions cached on disk: ~0.3 s faster start-up
-)
-ureg.formatter.default_sort_func = None  # keep kip·ft, not ft·kip
-# Trade units that pint does not define (common practice).
-ureg.define("psf = pound_force / foot ** 2")
-ureg.define("ksf = kip / foot ** 2")
-ureg.define("plf = pound_force / foot")
-ureg.define("klf = kip / foot")
-ureg.define("pcf = pound / foot ** 3")
-ureg.define("kipf = kip")  # alias some engineers type
 
-Q_ = ureg.Quantity
-Quantity = pint.Quantity
-
-_ALLOWED = re.compile(r"^[0-9A-Za-z_ .,+\-*/^()'\"µ°²³⁴·×]*$")
-_MIXED = re.compile(r"(?<![\d.])(\d+)\s*-\s*(\d+)\s*/\s*(\d+)")
-_FRACTION = re.compile(r"^\s*(\d+)\s*/\s*(\d+)")
-_FEET_INCH = re.compile(r"""^\s*(-?\d+(?:\.\d+)?)\s*'\s*-?\s*(?:(\d+(?:\.\d+)?)\s*(?:"|in)?)?\s*$""")
-_SUPERSCRIPT = str.maketrans({"²": "**2", "³": "**3", "⁴": "**4", "·": "*", "×": "*", "^": "**"})
-
-
-def _normalise(text: str) -> str:
-    text = text.strip().translate(_SUPERSCRIPT)
-    text = text.replace("µ", "u").replace("°", " degree ")
-    text = re.sub(r"\bkip-ft\b", "kip*ft", text)
-    text = re.sub(r"\blb-ft\b|\blbf-ft\b", "lbf*ft", text)
-    text = re.sub(r"\blb-in\b|\blbf-in\b", "lbf*in", text)
-    text = re.sub(r"\bkip-in\b", "kip*in", text)
-    # a bare "lb" as a force is what engineers mean in a load or moment
-    text = re.sub(r"\blbs?\b", "lbf", text)
-    return text
-
-
-def parse_quantity(text: str | int | float, field_name: str = "value", expected: str | None = None) -> pint.Quantity:
-    """Parse ``"84 in"``, ``"1-1/2 in"``, ``"36 ksi"``, ``"2.5 kN*m"``, ``5'-6"`` to a quantity.
+def parse_quantity(text: Any, field_name: str = "value", expected: str | None = None) -> pint.Quantity:
+    """Read ``"84 in"``, ``"1-1/2 in"``, ``"3'-6 1/2\""``, ``"1,200 lbf"``, ``"2.5 kip*ft"`` as a quantity.
 
     Args:
-        text: The value with its unit, as written by the engineer. Numbers are dimensionless.
+        text: The value with its unit as written (see :mod:`calcpad.core.value_text` for the
+            forms), a number (dimensionless) or a pint quantity. Non-finite numbers are refused.
         field_name: Name used in error messages (the given, job field or widget).
         expected: Optional dimensionality the value must have, e.g. ``"[length]"`` or a unit
             string such as ``"in"`` whose dimension is required.
 
     Raises:
-        UnitInputError: The text is not a value with a known unit, or has the wrong dimension.
+        UnitInputError: The text is not a value with a known unit, is not finite, or has the
+            wrong dimension.
     """
     if isinstance(text, bool):
         raise UnitInputError(f"{field_name}: got {text!r}; expected a number with a unit such as '84 in'")
-    if isinstance(text, (int, float)):
-        q = Q_(float(text), "")
+    if isinstance(text, numbers.Real):
+        q = Q_(_finite(text, field_name), "")
     elif isinstance(text, pint.Quantity):
         q = text
+        _check_finite_quantity(q, field_name)
     elif isinstance(text, str):
-        q = _parse_text(text, field_name)
+        q = read_value(text, field_name)
     else:
         raise UnitInputError(f"{field_name}: got {text!r} ({type(text).__name__}); expected a value with a unit such as '84 in'")
     if expected is not None:
@@ -97,64 +69,32 @@ def parse_quantity(text: str | int | float, field_name: str = "value", expected:
     return q
 
 
-def _parse_text(text: str, field_name: str) -> pint.Quantity:
-    raw = text
-    if not text.strip():
-        raise UnitInputError(f"{field_name}: empty value; expected a number with a unit such as '84 in'")
-    if len(text) > 200 or not _ALLOWED.match(text):
-        raise UnitInputError(
-            f"{field_name}: {raw!r} contains characters that are not part of a value with a unit; "
-            "expected e.g. '84 in', '1-1/2 in', '36 ksi', '2.5 kN*m'"
-        )
-    feet = _FEET_INCH.match(text)
-    if feet and "'" in text:
-        ft = float(feet.group(1))
-        inch = float(feet.group(2) or 0.0)
-        sign = -1.0 if ft < 0 else 1.0
-        return Q_(ft * 12.0 + sign * inch, "inch")
-    if '"' in text or "'" in text:
-        text = re.sub(r'(\d)\s*"', r"\1 in", text)
-        text = re.sub(r"(\d)\s*'", r"\1 ft", text)
-        if '"' in text or "'" in text:
-            raise UnitInputError(f"{field_name}: {raw!r} is not a value with a unit; expected e.g. 5'-6\" or 66 in")
-    if re.search(r"/\s*0+(?:\.0*)?(?![\d.])", text):
-        raise UnitInputError(f"{field_name}: {raw!r} divides by zero; expected a value with a unit such as '3/4 in'")
-    text = _MIXED.sub(lambda m: repr(int(m.group(1)) + int(m.group(2)) / int(m.group(3))), text)
-    frac = _FRACTION.match(text)
-    if frac:
-        text = repr(int(frac.group(1)) / int(frac.group(2))) + text[frac.end() :]
-    text = _normalise(text)
-    if "__" in text:
-        raise UnitInputError(f"{field_name}: {raw!r} is not a value with a unit")
-    for m in re.finditer(r"\*\*\s*(\S*)", text):
-        exp = re.match(r"-?\d+(?:\.\d+)?", m.group(1))
-        if not exp or abs(float(exp.group())) > 12:
-            raise UnitInputError(f"{field_name}: {raw!r}: a unit power must be a plain number such as in**4 or in^4")
+def _finite(x: numbers.Real, field_name: str) -> float:
     try:
-        q = ureg.parse_expression(text)
-    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError) as exc:
-        raise UnitInputError(f"{field_name}: {raw!r} has an unknown unit ({exc}); expected e.g. 'in', 'kip', 'ksi', 'kN*m'") from None
-    except Exception as exc:  # pint's tokenizer raises several types for garbage
-        raise UnitInputError(f"{field_name}: {raw!r} is not a value with a unit ({type(exc).__name__}); expected e.g. '84 in'") from None
+        v = float(x)
+    except (OverflowError, ValueError):
+        v = math.inf
+    if not math.isfinite(v):
+        raise UnitInputError(f"{field_name}: {x!r} is not a finite number; expected a value such as '84 in' or 0.85")
+    return v
+
+
+def _check_finite_quantity(q: pint.Quantity, field_name: str) -> None:
     try:
-        if not isinstance(q, pint.Quantity):
-            q = Q_(float(q), "")
-        finite = isinstance(q.magnitude, (int, float)) and math.isfinite(float(q.magnitude))
-    except (ValueError, OverflowError, TypeError):
-        finite = False
+        finite = bool(np.all(np.isfinite(np.asarray(q.magnitude, dtype=float))))
+    except (TypeError, ValueError):
+        return  # not numeric: fails where it is used
     if not finite:
-        raise UnitInputError(f"{field_name}: {raw!r} is not a finite number with a unit")
-    return Q_(float(q.magnitude), q.units)
+        raise UnitInputError(f"{field_name}: {q!r} is not finite; expected a value such as '84 in'")
 
 
-def parse_unit(text: str, field_name: str = "unit") -> pint.Unit:
-    """Parse a unit string (``"kip*ft"``, ``"in^4"``, ``"ksi"``) through the same safe path."""
-    if text in ("", "1", None):
+def parse_unit(text: str | None, field_name: str = "unit") -> pint.Unit:
+    """Read a unit string (``"kip*ft"``, ``"kip-ft"``, ``"in^4"``, ``"ksi"``, ``"1/in"``) with the same grammar."""
+    if text is None:
         return ureg.dimensionless
-    q = _parse_text("1 " + text if not text.strip()[0].isdigit() else text, field_name)
-    if abs(q.magnitude - 1.0) > 1e-12:
-        raise UnitInputError(f"{field_name}: {text!r} is not a unit; expected e.g. 'in', 'kip*ft', 'ksi'")
-    return q.units
+    if not isinstance(text, str):
+        raise UnitInputError(f"{field_name}: {text!r}; expected a unit string such as 'in', 'kip*ft', 'ksi'")
+    return read_unit(text, field_name)
 
 
 def _require_dimension(q: pint.Quantity, expected: str, field_name: str, raw: Any) -> None:
@@ -296,14 +236,18 @@ class DisplayPrefs:
         if not isinstance(self.sig, int) or not 1 <= self.sig <= 15:
             raise UnitInputError(f"significant figures: {self.sig!r}; expected a whole number from 1 to 15")
 
-    def shown_unit(self, q: pint.Quantity, unit: str | None) -> pint.Unit | str:
+    def shown_unit(self, q: pint.Quantity, unit: pint.Unit | str | None) -> pint.Unit | str:
         """The unit to show ``q`` in: ``unit`` as asked, unless it belongs to the other unit
-        system (a template written in US units on an SI sheet), then this system's choice."""
+        system (a template written in US units on an SI sheet), then this system's choice.
+
+        A string is a unit written in code (pint's reading); text from users arrives already
+        read by :func:`parse_unit` as a :class:`pint.Unit`."""
         if unit is None:
             return self.unit_for(q)
-        other = unit_system_of(unit)
+        asked = unit if isinstance(unit, pint.Unit) else ureg.parse_units(unit)
+        other = unit_system_of(asked)
         if (other is not None and other != self.system and _kind_table().get(q.dimensionality) is not None
-                and ureg.parse_units(unit).dimensionality == q.dimensionality):
+                and asked.dimensionality == q.dimensionality):
             return self.unit_for(q)
         return unit  # a unit of the wrong dimension fails where it is applied, with its message
 

@@ -228,8 +228,8 @@ class WhatIfPanel:
         field = f"what-if control {name!r}"
         if isinstance(value, bool):
             raise InputError(f"{field}: got {value!r}; expected a number in {unit_symbol(self._units[name], 'ascii') or 'no unit'}")
-        if isinstance(value, (int, float)):
-            return Q_(float(value), self._units[name])
+        if isinstance(value, (int, float)):  # a number box: the given's own unit (finite only)
+            return Q_(parse_quantity(value, field).magnitude, self._units[name])
         q = parse_quantity(value, field)
         g = self._givens[name]
         if q.dimensionality != g.value.dimensionality:
