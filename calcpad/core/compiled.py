@@ -6,10 +6,17 @@ becomes a numpy closure built from the already-whitelisted formula tree, with th
 folded into one coefficient per product and scalars combined before arrays are touched, so a
 chain of steps runs as a short chain of array operations with no pint and no sympy at call time.
 Branches become ``numpy.where``; selections ``numpy.minimum``/``maximum``.
+
+A call returns a :class:`CompiledResult`: the arrays by name plus a per-case validity mask.
+A case is invalid exactly where the scalar path would raise for a number: a step value or check
+ratio that is NaN or infinite, or a check capacity that is not greater than zero. The values of
+an invalid case are NaN (so a ratio never reads OK), and the result says which step failed
+first for each case and with which inputs (:meth:`CompiledResult.reason`).
 """
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
@@ -17,14 +24,14 @@ import numpy as np
 import pint
 import sympy as sp
 
-from calcpad.core.errors import SheetError
+from calcpad.core.errors import NonFiniteError, SheetError
 from calcpad.core.steps import Branch, Check, FormulaStep, Given, Select
-from calcpad.core.units import Q_
+from calcpad.core.units import Q_, format_number, unit_symbol
 
 if TYPE_CHECKING:
     from calcpad.core.sheet import Sheet
 
-__all__ = ["CompiledSheet"]
+__all__ = ["CompiledResult", "CompiledSheet"]
 
 
 def _base_factor(q: pint.Quantity) -> float:
@@ -149,6 +156,71 @@ def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
     return build(expr)
 
 
+class CompiledResult(dict[str, Any]):
+    """Every given, step and check ratio by name (display units), with a per-case validity mask.
+
+    Attributes:
+        valid: Boolean array over the cases (the broadcast shape of the inputs; ``()`` for one
+            case): True where every step value and check ratio is finite and every check
+            capacity is greater than zero. Values of invalid cases are NaN.
+    """
+
+    def __init__(
+        self, values: dict[str, Any], valid: np.ndarray, failures: list[tuple[str, np.ndarray]], sheet: CompiledSheet, raw: dict[str, Any]
+    ) -> None:
+        super().__init__(values)
+        self.valid = valid
+        self._failures = failures  # (step, cases where it is the first to fail), in evaluation order
+        self._sheet = sheet
+        self._raw = raw  # the values as computed, before invalid cases were set to NaN
+
+    @property
+    def all_valid(self) -> bool:
+        """True when every case is valid."""
+        return bool(np.all(self.valid))
+
+    @property
+    def invalid_step(self) -> np.ndarray:
+        """Object array over the cases: the name of the first step that failed, ``""`` where valid."""
+        out = np.full(self.valid.shape, "", dtype=object)
+        for name, mask in self._failures:
+            out[mask] = name
+        return out
+
+    @property
+    def invalid_reason(self) -> np.ndarray:
+        """Object array over the cases: why the case is invalid (step and inputs), ``""`` where valid."""
+        out = np.full(self.valid.shape, "", dtype=object)
+        for _name, mask in self._failures:
+            for idx in zip(*np.nonzero(mask), strict=True) if mask.ndim else [()]:
+                out[idx] = self.reason(idx)
+        return out
+
+    def reason(self, case: int | tuple[int, ...] = ()) -> str:
+        """Why ``case`` is invalid (``""`` when it is valid): the step, its value and its inputs."""
+        idx = np.unravel_index(case, self.valid.shape) if isinstance(case, (int, np.integer)) and self.valid.ndim else tuple(case)
+        idx = tuple(int(i) for i in idx)  # type: ignore[union-attr]
+        if self.valid[idx]:
+            return ""
+        label = f"case {idx[0] if len(idx) == 1 else idx}: " if idx else ""
+        for name, mask in self._failures:
+            if mask[idx]:
+                return label + self._sheet.describe_failure(name, self._raw, self.valid.shape, idx)
+        return label + "invalid"  # pragma: no cover - every invalid case has a first failing step
+
+    def reasons(self, limit: int = 10) -> list[str]:
+        """Reasons for the first ``limit`` invalid cases, in case order."""
+        bad = np.argwhere(~np.atleast_1d(self.valid))[:limit]
+        return [self.reason(tuple(int(i) for i in b) if self.valid.ndim else ()) for b in bad]
+
+    def require_valid(self) -> CompiledResult:
+        """Return self, or raise :class:`NonFiniteError` listing the first invalid cases."""
+        if self.all_valid:
+            return self
+        count = int(np.count_nonzero(~self.valid))
+        raise NonFiniteError(f"compiled sheet {self._sheet.title!r}: {count} case(s) without a finite result: " + "; ".join(self.reasons(3)))
+
+
 class CompiledSheet:
     """Vectorised form of a sheet.
 
@@ -167,6 +239,9 @@ class CompiledSheet:
         self._defaults: dict[str, Any] = {}
         self._plan: list[tuple[str, Fn]] = []
         self._checks: list[str] = [c.key for c in result.checks]
+        self._reads: dict[str, tuple[str, ...]] = {}  # step -> names it uses (for failure messages)
+        self._capacity: dict[str, str] = {}  # check key -> capacity name
+        self._titles: dict[str, str] = {}  # check key -> title
         shown = {s.name: s.value for s in result.steps if hasattr(s, "name") and hasattr(s, "value")}
         scale: dict[str, float] = {}  # display-unit value -> SI base value
         for name in sheet.order():
@@ -177,8 +252,10 @@ class CompiledSheet:
                 self._defaults[name] = float(step.value.magnitude)
                 self.units[name] = str(step.value.units)
                 continue
+            self._reads[name] = tuple(step.depends)
             if isinstance(step, Check):
                 d, c = step.demand, step.capacity
+                self._capacity[name], self._titles[name] = c, step.title
                 ratio_expr = sp.Mul(sp.Abs(sp.Symbol(d)), sp.Pow(sp.Symbol(c), -1), sp.Float(step.required_fs or 1.0), evaluate=False)
                 self._plan.append((name, compile_expr(ratio_expr, {d: 1.0, c: scale[c] / scale[d]})))
                 self.units[name] = ""
@@ -228,15 +305,52 @@ class CompiledSheet:
             env[name] = np.asarray(v, dtype=float)
         return env
 
-    def __call__(self, **values: Any) -> dict[str, Any]:
-        """Evaluate for arrays of givens; returns every given, step and check ratio."""
+    def __call__(self, **values: Any) -> CompiledResult:
+        """Evaluate for arrays of givens; returns every given, step and check ratio with the
+        per-case validity mask (see :class:`CompiledResult`)."""
         env = self._inputs(values)
+        shape = np.broadcast_shapes(*(np.shape(v) for v in env.values()))
+        bad = np.zeros(shape, dtype=bool)
+        failures: list[tuple[str, np.ndarray]] = []
         with np.errstate(all="ignore"):
             for name, fn in self._plan:
-                env[name] = fn(env)
-        return env
+                v = fn(env)
+                env[name] = v
+                fails = ~np.isfinite(v)
+                if name in self._capacity:
+                    fails = fails | ~(np.asarray(env[self._capacity[name]]) > 0)
+                if np.any(fails):
+                    new = np.broadcast_to(fails, shape) & ~bad
+                    if np.any(new):
+                        failures.append((name, new))
+                        bad = bad | new
+        raw = dict(env)
+        if failures:  # invalid cases carry no numbers: NaN in every step after the givens
+            for name, _fn in self._plan:
+                env[name] = np.where(bad, np.nan, env[name])
+        return CompiledResult(env, ~bad, failures, self, raw)
 
-    def ratios(self, **values: Any) -> dict[str, Any]:
-        """Only the check ratios, by check key."""
+    def ratios(self, **values: Any) -> CompiledResult:
+        """Only the check ratios, by check key (with the same validity mask)."""
         res = self(**values)
-        return {k: res[k] for k in self._checks}
+        return CompiledResult({k: res[k] for k in self._checks}, res.valid, res._failures, self, res._raw)
+
+    def describe_failure(self, name: str, env: dict[str, Any], shape: tuple[int, ...], idx: tuple[int, ...]) -> str:
+        """Message for the step ``name`` failing in case ``idx``: its value and its inputs' values."""
+
+        def at(n: str) -> float:
+            return float(np.broadcast_to(env[n], shape)[idx])
+
+        def value(n: str) -> str:
+            v = at(n)
+            unit = unit_symbol(self.units[n]) if self.units.get(n) else ""
+            return f"{n} = {'NaN' if math.isnan(v) else format_number(v, 4)} {unit}".rstrip()
+
+        inputs = ", ".join(value(n) for n in self._reads.get(name, ()))
+        if name in self._capacity:
+            cap = self._capacity[name]
+            v = at(cap)
+            if math.isfinite(v) and not v > 0:
+                return f"check {self._titles[name]!r}: capacity {value(cap)} is not greater than zero"
+            return f"check {self._titles[name]!r}: the ratio is not a finite number; {inputs}"
+        return f"step {name!r} is not a finite number ({value(name).split(' = ', 1)[1]}); inputs: {inputs or 'none'}"

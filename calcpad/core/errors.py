@@ -8,6 +8,7 @@ __all__ = [
     "DimensionError",
     "FormulaError",
     "InputError",
+    "NonFiniteError",
     "NotCoveredError",
     "SheetError",
     "UnitInputError",
@@ -32,6 +33,10 @@ class FormulaError(CalcpadError, ValueError):
 
 class SheetError(CalcpadError):
     """A sheet is inconsistent: unknown name, duplicate name, dependency cycle, ..."""
+
+
+class NonFiniteError(SheetError):
+    """A step's result is not a finite number (NaN or infinite); the message names the step and its inputs."""
 
 
 class DimensionError(SheetError):

@@ -19,9 +19,11 @@ import sympy as sp
 from calcpad.core.errors import FormulaError
 from calcpad.core.names import is_valid_name
 
-__all__ = ["FUNCTIONS", "Formula", "formula_from_sympy", "parse_condition", "parse_formula"]
+__all__ = ["FUNCTIONS", "MAX_DEPTH", "RESERVED_NAMES", "Formula", "formula_from_sympy", "parse_condition", "parse_formula"]
 
 MAX_LENGTH = 2000
+MAX_DEPTH = 100
+"""Deepest nesting of operations in one formula (the printers and evaluators recurse per level)."""
 
 class _AsWritten:
     """Keeps a lattice function's arguments in the order written (sympy's Min/Max sort them);
@@ -63,7 +65,21 @@ FUNCTIONS: dict[str, tuple[type, int | None]] = {
     "exp": (sp.exp, 1),
 }
 CONSTANTS = {"pi": sp.pi}
-_RESERVED = set(FUNCTIONS) | set(CONSTANTS)
+RESERVED_NAMES = frozenset(FUNCTIONS) | frozenset(CONSTANTS)
+"""Names a formula reads as a constant or function; a given or step may not take them."""
+_OPERATIONS = (ast.BinOp, ast.UnaryOp, ast.Call, ast.Compare, ast.BoolOp)
+
+
+def _depth(tree: ast.AST) -> int:
+    """Deepest nesting of operations, counted without recursion."""
+    deepest, stack = 0, [(tree, 0)]
+    while stack:
+        node, level = stack.pop()
+        if isinstance(node, _OPERATIONS):
+            level += 1
+            deepest = max(deepest, level)
+        stack.extend((child, level) for child in ast.iter_child_nodes(node))
+    return deepest
 
 
 @dataclass(frozen=True)
@@ -209,6 +225,10 @@ class _Builder(ast.NodeVisitor):
         return (sp.And if isinstance(node.op, ast.And) else sp.Or)(*args, evaluate=False)
 
 
+def _short(text: str) -> str:
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
 def _parse(text: str, allow_compare: bool) -> Formula:
     if not isinstance(text, str):
         raise FormulaError(f"formula {text!r}: expected a formula string such as 'M*c/I'")
@@ -223,6 +243,11 @@ def _parse(text: str, allow_compare: bool) -> Formula:
     except SyntaxError as exc:
         col = f" at column {exc.offset}" if exc.offset else ""
         raise FormulaError(f"formula {text!r}: not a valid formula{col} ({exc.msg})") from None
+    except (RecursionError, MemoryError):
+        raise FormulaError(f"formula {_short(text)!r}: nested too deeply to read; split it into steps") from None
+    depth = _depth(tree)
+    if depth > MAX_DEPTH:
+        raise FormulaError(f"formula {_short(text)!r}: operations nest {depth} levels deep (the limit is {MAX_DEPTH}); split it into steps")
     builder = _Builder(text, allow_compare)
     expr = builder.visit(tree)
     return Formula(text=text, expr=expr, names=tuple(builder.names))

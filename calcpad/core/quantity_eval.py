@@ -13,10 +13,10 @@ import numpy as np
 import pint
 import sympy as sp
 
-from calcpad.core.errors import DimensionError, SheetError
-from calcpad.core.units import Q_, kind_of, ureg
+from calcpad.core.errors import DimensionError, NonFiniteError, SheetError
+from calcpad.core.units import Q_, format_number, kind_of, unit_symbol, ureg
 
-__all__ = ["evaluate_condition", "evaluate_expr"]
+__all__ = ["describe_inputs", "evaluate_condition", "evaluate_expr", "is_finite", "non_finite_error"]
 
 _DIMLESS = ureg.dimensionless
 
@@ -36,12 +36,55 @@ def _dimensionless_float(q: pint.Quantity, node: sp.Basic, what: str, step: str)
     return float(q)
 
 
-def evaluate_expr(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str = "?") -> pint.Quantity:
-    """Evaluate ``expr`` with the quantities in ``env``; result is a pint quantity."""
+def is_finite(value: object) -> bool:
+    """True when every number in ``value`` (a quantity, float or array) is finite."""
+    mag = value.magnitude if isinstance(value, pint.Quantity) else value
     try:
-        return _as_q(_eval(expr, env, step))
+        return bool(np.all(np.isfinite(mag)))
+    except TypeError:  # not numeric
+        return True
+
+
+def describe_inputs(env: Mapping[str, pint.Quantity]) -> str:
+    """``"P = 1,000 lbf, L = 84 in"``: the values a step used, for messages."""
+    parts = []
+    for name, q in env.items():
+        mag = q.magnitude if isinstance(q, pint.Quantity) else q
+        unit = unit_symbol(q.units) if isinstance(q, pint.Quantity) else ""
+        parts.append(f"{name} = {format_number(float(mag), 4)} {unit}".rstrip())
+    return ", ".join(parts) if parts else "no inputs"
+
+
+def non_finite_error(step: str, value: object, env: Mapping[str, pint.Quantity], what: str = "the result") -> NonFiniteError:
+    """The error for a step whose value is NaN or infinite, naming the step and its inputs."""
+    mag = np.asarray(value.magnitude if isinstance(value, pint.Quantity) else value, dtype=float)
+    undefined = bool(np.any(np.isnan(mag)))
+    kind = "undefined (NaN)" if undefined else "infinite (overflow or division by zero)"
+    inputs = f"; inputs: {describe_inputs(env)}. Check these inputs" if env else ". Check the inputs"
+    hint = " (asin and acos need a value from -1 to 1, sqrt and fractional powers a value >= 0)" if undefined else ""
+    return NonFiniteError(f"step {step!r}: {what} is not a finite number, it is {kind}{inputs}{hint}")
+
+
+def evaluate_expr(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str = "?") -> pint.Quantity:
+    """Evaluate ``expr`` with the quantities in ``env``; result is a finite pint quantity.
+
+    Raises:
+        NonFiniteError: The result is NaN or infinite (names the step and the inputs).
+        DimensionError, SheetError: Dimensions disagree, division by zero, log of a value <= 0.
+    """
+    value = _quiet_eval(expr, env, step)
+    if not is_finite(value):
+        raise non_finite_error(step, value, env)
+    return value
+
+
+def _quiet_eval(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str) -> pint.Quantity:
+    """Evaluate without numpy warnings; NaN and infinity are checked by the caller."""
+    try:
+        with np.errstate(all="ignore"):
+            return _as_q(_eval(expr, env, step))
     except OverflowError:
-        raise SheetError(f"step {step!r}: a value is too large to represent (overflow); check the inputs") from None
+        raise NonFiniteError(f"step {step!r}: a value is too large to represent (overflow); inputs: {describe_inputs(env)}") from None
 
 
 def _as_q(v: object) -> pint.Quantity:
@@ -134,8 +177,11 @@ def evaluate_condition(
     if isinstance(cond, sp.Not):
         return (not evaluate_condition(cond.args[0], env, step)[0]), None
     if isinstance(cond, sp.core.relational.Relational):
-        lhs = _as_q(_eval(cond.lhs, env, step))
-        rhs = _as_q(_eval(cond.rhs, env, step))
+        lhs = _quiet_eval(cond.lhs, env, step)
+        rhs = _quiet_eval(cond.rhs, env, step)
+        for side, value in (("the left side of the condition", lhs), ("the right side of the condition", rhs)):
+            if not is_finite(value):
+                raise non_finite_error(step, value, env, side)
         try:
             right = rhs.to(lhs.units).magnitude
         except pint.DimensionalityError:

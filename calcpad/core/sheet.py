@@ -17,6 +17,7 @@ import difflib
 import hashlib
 import importlib
 import io
+import math
 import os
 import re
 from collections.abc import Iterable, Mapping, Sequence
@@ -25,10 +26,10 @@ from typing import Any
 import pint
 import sympy as sp
 
-from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, SheetError
-from calcpad.core.formula import Formula, formula_from_sympy, parse_condition, parse_formula
+from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, NonFiniteError, SheetError
+from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_from_sympy, parse_condition, parse_formula
 from calcpad.core.names import is_valid_name
-from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr
+from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
 from calcpad.core.results import (
     NG,
     OK,
@@ -141,6 +142,12 @@ class Sheet:
             if not is_valid_name(name):
                 raise SheetError(
                     f"sheet {self.title!r}: {name!r} is not a valid name (letters, digits and single underscores; starts with a letter)"
+                )
+            if name in RESERVED_NAMES:
+                what = "the constant" if name in CONSTANTS else "the function"
+                raise SheetError(
+                    f"sheet {self.title!r}: {name!r} is {what} {name!r} in formulas, so it cannot name a given or step; "
+                    f"choose another name such as '{name}_1'"
                 )
             if name in self._defs:
                 raise SheetError(f"sheet {self.title!r}: {name!r} is defined twice; every name in a sheet is unique")
@@ -430,6 +437,8 @@ class Sheet:
             raise DimensionError(
                 f"step {name!r}: the result is a {value.dimensionality} quantity ({value.units:~}); it cannot be shown in {asked!r}"
             ) from None
+        if not is_finite(shown):  # a finite value can overflow when converted (1e300 m**4 in mm**4)
+            raise non_finite_error(name, shown, {}, f"the result in {unit_symbol(shown.units, 'ascii')}")
         self._values[name] = value
         self._shown[name] = shown
         return shown
@@ -508,6 +517,9 @@ class Sheet:
             )
         cap = float(capacity.to(demand.units).magnitude)
         dem = abs(float(demand.magnitude))
+        for role, nm, v in (("demand", step.demand, dem), ("capacity", step.capacity, cap)):
+            if not math.isfinite(v):  # never OK (nor FS = ∞) on a NaN
+                raise NonFiniteError(f"check {step.title!r}: {role} {nm!r} is not a finite number ({v}); check the inputs of {nm!r}")
         if not cap > 0:
             raise SheetError(f"check {step.title!r}: capacity {step.capacity!r} = {capacity:~} must be greater than zero")
         ratio = dem / cap
