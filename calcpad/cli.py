@@ -97,7 +97,7 @@ def _run(args: argparse.Namespace) -> int:
         TimeElapsedColumn(),
         console=err,
         transient=True,
-        disable=args.json and not err.is_terminal,
+        disable=not err.is_terminal,  # no progress display in logs and pipes
     ) as bar:
         task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
 
