@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import math
 import os
 import runpy
 import sys
@@ -256,7 +257,7 @@ def _parser() -> argparse.ArgumentParser:
         help="a template folder to use besides notebooks/ (repeatable); templates are code: register only code you trust",
     )
     waiting = argparse.ArgumentParser(add_help=False)
-    waiting.add_argument("--wait", type=float, default=30.0, metavar="SECONDS", help="wait this long for another run writing the same folder (default 30)")
+    waiting.add_argument("--wait", type=_wait_seconds, default=30.0, metavar="SECONDS", help="wait this long for another run writing the same folder (default 30)")
     run = sub.add_parser("run", parents=[library, waiting], help="run a job file (or one template with --set) and write the submittal")
     run.add_argument("target", help="JOB.toml, or a template (NAME, or a NAME.py/.ipynb file in a template folder)")
     run.add_argument("--out", help="output folder; each revision goes to OUT/rev-<revision> (job default: build/JOBNAME; template default: print only)")
@@ -277,7 +278,24 @@ def _parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _wait_seconds(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        value = math.nan
+    if not math.isfinite(value) or value < 0:
+        raise argparse.ArgumentTypeError(f"{text!r}; expected seconds, a number from 0 up")
+    return value
+
+
+def _check_library(args: argparse.Namespace) -> None:
+    for d in getattr(args, "templates", []):
+        if not Path(d).is_dir():
+            raise CalcpadError(f"--templates {d}: not a folder; give a folder of template notebooks")
+
+
 def _dispatch(args: argparse.Namespace) -> int:
+    _check_library(args)
     if args.command == "run":
         return _run(args)
     if args.command == "issue":
@@ -313,7 +331,7 @@ def main(argv: list[str] | None = None) -> int:
         return int(getattr(exc, "exit_code", EXIT_BAD))
     except OSError as exc:
         where = exc.filename if exc.filename is not None else "a file"
-        print(f"calcpad: cannot write {where}: {exc.strerror or exc}", file=sys.stderr)
+        print(f"calcpad: cannot read or write {where}: {exc.strerror or exc}", file=sys.stderr)
         return EXIT_WRITE
     except Exception as exc:
         head = f"calcpad: internal error ({type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''})"

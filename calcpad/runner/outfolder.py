@@ -427,7 +427,12 @@ def folder_lock(out: Path, wait: float = 30.0, shown: str | None = None) -> Iter
     Waits up to ``wait`` seconds for another holder, then raises :class:`OutputBusyError`.
     """
     path = Path(out) / LOCK_NAME
-    fd = os.open(path, os.O_RDWR | os.O_CREAT, 0o644)
+    try:
+        fd = os.open(path, os.O_RDWR | os.O_CREAT | os.O_NOFOLLOW, 0o644)
+    except OSError as exc:
+        if exc.errno != errno.ELOOP:
+            raise
+        raise OutputRefusedError(f"{path}: a link, not calcpad's lock file; remove it and run again") from None
     try:
         deadline = time.monotonic() + max(wait, 0.0)
         while True:

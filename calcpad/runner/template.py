@@ -443,7 +443,10 @@ def load_template(path: str | Path) -> Template:
     if path.suffix == ".ipynb":
         cells = read_ipynb(path)
     elif path.suffix == ".py":
-        cells = read_percent(path.read_text(encoding="utf-8"))
+        try:
+            cells = read_percent(path.read_text(encoding="utf-8"))
+        except (OSError, UnicodeDecodeError) as exc:
+            raise TemplateError(f"template {str(path)!r}: cannot read it ({exc})") from None
     else:
         raise TemplateError(f"template {str(path)!r}: expected a .py (jupytext percent) or .ipynb file")
     tagged = [c for c in cells if c.kind == "code" and "parameters" in c.tags]

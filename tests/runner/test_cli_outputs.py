@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import errno
 import json
+import os
 import re
 import tempfile
 from pathlib import Path
@@ -163,3 +164,27 @@ def test_json_and_out_record_agree(site: Path, monkeypatch: pytest.MonkeyPatch, 
     assert main(["run", "job.toml", "--out", "../out", "--json"]) == 0
     printed = json.loads(capsys.readouterr().out)
     assert printed == json.loads((site / "out" / "rev-0" / "record.json").read_text())
+
+
+def test_more_bad_input_is_exit_2_without_traceback(site: Path, monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
+    monkeypatch.chdir(site / "proj")
+    with pytest.raises(SystemExit) as info:
+        main(["run", "job.toml", "--out", "../out", "--wait", "nan"])
+    assert info.value.code == 2 and "expected seconds" in capsys.readouterr().err
+    assert main(["run", "job.toml", "--templates", "no-such-dir", "--out", "../out"]) == 2
+    assert "--templates no-such-dir: not a folder" in capsys.readouterr().err
+    (site / "out").mkdir()
+    os.symlink(site / "beside.txt", site / "out" / ".calcpad-lock")
+    assert main(["run", "job.toml", "--out", "../out"]) == 2
+    assert "a link, not calcpad's lock file" in capsys.readouterr().err
+    assert (site / "beside.txt").read_text() == "beside the output folder\n"
+    job = site / "proj" / "job.toml"
+    job.write_text(job.read_text().replace('revision = "0"', 'revision = "../up"'))
+    assert main(["run", "job.toml", "--out", "../out2"]) == 2
+    assert "job.revision: '../up'" in capsys.readouterr().err and not (site / "out2").exists()
+
+
+def test_cannot_write_new_job_exit_3(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    assert main(["new", str(tmp_path / "missing" / "job.toml")]) == 3
+    err = capsys.readouterr().err
+    assert f"cannot read or write {tmp_path / 'missing' / 'job.toml'}: No such file or directory" in err and "Traceback" not in err
