@@ -188,3 +188,14 @@ def test_cannot_write_new_job_exit_3(tmp_path: Path, capsys: pytest.CaptureFixtu
     assert main(["new", str(tmp_path / "missing" / "job.toml")]) == 3
     err = capsys.readouterr().err
     assert f"cannot read or write {tmp_path / 'missing' / 'job.toml'}: No such file or directory" in err and "Traceback" not in err
+
+
+def test_readme_exit_code_table_matches_cli() -> None:
+    from calcpad import cli
+
+    from .conftest import ROOT
+
+    text = (ROOT / "README.md").read_text(encoding="utf-8")
+    table = text[text.index("### Exit codes") :]
+    codes = [int(c) for c in re.findall(r"^\| (\d+) \|", table, re.M)]
+    assert codes == [cli.EXIT_OK, cli.EXIT_NG, cli.EXIT_BAD, cli.EXIT_WRITE, cli.EXIT_INTERNAL, cli.EXIT_INTERRUPTED]
