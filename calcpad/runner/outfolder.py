@@ -508,6 +508,8 @@ def _issue_locked(out: Path, shown: str, by: str, revision: str | None) -> dict[
     issued_path = folder / ISSUED_NAME
     if entry.get("issued"):
         i = entry["issued"]
+        if folder.is_dir():
+            _seal(folder)  # an earlier `issue` may have stopped before sealing every file
         raise OutputRefusedError(f"revision {rev} in {shown} was already issued on {i.get('date')} by {i.get('by')}")
     if not folder.is_dir():
         raise OutputRefusedError(f"{Path(shown) / folder.name}: missing; run the job again before issuing revision {rev}")

@@ -32,7 +32,7 @@ def _job(folder: Path, revision: str, P: str) -> Path:
     return path
 
 
-def _child(loops: int, out: Path, *jobs: Path, env: dict[str, str]) -> subprocess.Popen[str]:
+def _child(loops: int | str, out: Path, *jobs: Path | str, env: dict[str, str]) -> subprocess.Popen[str]:
     cmd = [sys.executable, "-m", "tests.runner.run_child", str(loops), str(out), *map(str, jobs)]
     proc = subprocess.Popen(cmd, cwd=ROOT, env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
     assert proc.stdout is not None and proc.stdout.readline().strip() == "ready"
@@ -116,3 +116,26 @@ def test_two_concurrent_runs_both_end_cleanly(issued_out: tuple[Path, dict[str, 
     _assert_consistent(out, issued, user)
     assert not [p.name for p in out.iterdir() if p.name.startswith((".calcpad-tmp", ".calcpad-old"))]
     assert json.loads((out / "rev-B" / "record.json").read_text())["calcs"][0]["inputs"]["P"] == {"value": 120.0, "unit": "lbf"}
+
+
+@pytest.mark.parametrize("seed", range(3))
+def test_kill_9_while_issuing(issued_out: tuple[Path, dict[str, bytes], dict[str, bytes], dict[str, str]], tmp_path: Path, seed: int) -> None:
+    """Killed while issuing B: B is intact, and either not yet issued or sealed once `issue` is repeated."""
+    out, issued, user, env = issued_out
+    job = _job(tmp_path, "B", "120 lbf")
+    assert main(["run", str(job), "--out", str(out)]) == 0
+    written = _snapshot(out / "rev-B")
+    proc = _child("issue", out, "B", "K. Lee", env=env)
+    time.sleep(random.Random(200 + seed).uniform(0.0, 0.15))
+    proc.send_signal(signal.SIGKILL)
+    proc.wait(timeout=30)
+    after = _snapshot(out / "rev-B")
+    assert {k: v for k, v in after.items() if k != "issued.json"} == written
+    if "issued.json" in after:  # the kill came after issued.json: the revision counts as issued
+        assert main(["run", str(job), "--out", str(out)]) == 2
+    assert main(["issue", str(out), "--revision", "B", "--by", "K. Lee"]) in (0, 2)  # 2: already issued
+    manifest = read_manifest(out)
+    assert manifest is not None and manifest["revisions"]["B"]["issued"]["by"] == "K. Lee"
+    assert all((p.stat().st_mode & 0o222) == 0 for p in [out / "rev-B", *(out / "rev-B").iterdir()])
+    assert main(["run", str(job), "--out", str(out)]) == 2
+    _assert_consistent(out, issued, user)
