@@ -205,6 +205,14 @@ def _remove_tree(path: Path) -> None:
     shutil.rmtree(path)
 
 
+def _folder_of(revision: Any, out: Path) -> Path | None:
+    """``OUT/rev-<revision>``, or None for a revision text that is not a safe folder name."""
+    try:
+        return out / revision_folder(revision) if isinstance(revision, str) else None
+    except OutputRefusedError:
+        return None
+
+
 def _recover(out: Path, manifest: dict[str, Any]) -> bool:
     """Clean what a killed run left (scratch, manifest temp files); True if the manifest changed."""
     for name in sorted(os.listdir(out)):
@@ -219,16 +227,15 @@ def _recover(out: Path, manifest: dict[str, Any]) -> bool:
         except (OSError, ValueError):
             marker = {}
         prev = p / "prev"
-        rev = marker.get("revision")
-        if marker.get("kind") == "old" and isinstance(rev, str) and prev.is_dir():
-            target = out / revision_folder(rev)
-            if not os.path.lexists(target):
-                os.replace(prev, target)  # a kill between the two renames: put the old one back
+        target = _folder_of(marker.get("revision"), out)
+        if marker.get("kind") == "old" and target is not None and prev.is_dir() and not os.path.lexists(target):
+            os.replace(prev, target)  # a kill between the two renames: put the old one back
         _remove_tree(p)
     changed = False
     for rev, entry in manifest["revisions"].items():
-        if "replacing" in entry:  # a write stopped half-way: keep whichever set is on disk
-            on_disk = _digests(out, out / entry.get("folder", revision_folder(rev)))
+        folder = _folder_of(rev, out)
+        if "replacing" in entry and folder is not None:  # a write stopped half-way: keep whichever set is on disk
+            on_disk = _digests(out, folder)
             if on_disk != entry["files"] and on_disk == entry["replacing"]:
                 entry["files"] = entry["replacing"]
             del entry["replacing"]
@@ -240,7 +247,7 @@ def _recover(out: Path, manifest: dict[str, Any]) -> bool:
 
 
 def _digests(out: Path, folder: Path) -> dict[str, str | None]:
-    """``{path relative to OUT: sha256}`` of every entry under ``folder`` (None: not a plain file)."""
+    """``{path relative to OUT: sha256}`` of every file or link under ``folder`` (None: not a plain file)."""
     found: dict[str, str | None] = {}
     if not folder.exists():
         return found
@@ -283,15 +290,13 @@ def _check_revision(out: Path, shown: str, manifest: dict[str, Any], revision: s
     if rev_dir.is_symlink() or not rev_dir.is_dir():
         raise OutputRefusedError(f"{Path(shown) / folder} is not a folder calcpad wrote; move it away or choose another --out folder")
     entry = manifest["revisions"].get(revision) or {}
-    known: dict[str, Any] = {**entry.get("replacing", {}), **entry.get("files", {})}
-    alt: dict[str, Any] = entry.get("replacing", {})
+    files: dict[str, Any] = entry.get("files", {})
+    alt: dict[str, Any] = entry.get("replacing", {})  # a write that stopped half-way
     on_disk = _digests(out, rev_dir)
     foreign = []
     for rel, digest in on_disk.items():
-        if digest is None and (out / rel).is_dir() and not (out / rel).is_symlink():
-            continue
-        if digest is None or digest not in (known.get(rel), alt.get(rel)):
-            state = "was changed since calcpad wrote it" if rel in known else "was not written by calcpad"
+        if digest is None or digest not in (files.get(rel), alt.get(rel)):
+            state = "was changed since calcpad wrote it" if rel in files or rel in alt else "was not written by calcpad"
             foreign.append(f"{Path(shown) / rel} {state}")
     if foreign:
         more = f" (and {len(foreign) - 5} more)" if len(foreign) > 5 else ""
@@ -513,7 +518,7 @@ def _issue_locked(out: Path, shown: str, by: str, revision: str | None) -> dict[
         raise OutputRefusedError(f"revision {rev} in {shown} was already issued on {i.get('date')} by {i.get('by')}")
     if not folder.is_dir():
         raise OutputRefusedError(f"{Path(shown) / folder.name}: missing; run the job again before issuing revision {rev}")
-    on_disk = {k: v for k, v in _digests(out, folder).items() if not (v is None and (out / k).is_dir())}
+    on_disk = _digests(out, folder)
     half_issued = issued_path.is_file() and not issued_path.is_symlink()
     if half_issued:  # an earlier `issue` stopped before the manifest was updated: finish it
         on_disk.pop(f"{folder.name}/{ISSUED_NAME}", None)
