@@ -18,7 +18,8 @@ $(STAMP): pyproject.toml
 demo: $(STAMP)
 	$(PY) -m calcpad.cli run examples/harbor_ridge_condenser_stand.toml --out build/demo; \
 	  rc=$$?; if [ $$rc -gt 1 ]; then exit $$rc; fi; \
-	  echo "submittal: $(CURDIR)/build/demo/submittal.html (record: build/demo/record.json)"
+	  rec=$$($(PY) -c 'from calcpad.runner.outfolder import locate_record; print(locate_record("build/demo").resolve())'); \
+	  echo "submittal: $$(dirname $$rec)/submittal.html (record: $$rec)"
 
 test: $(STAMP)
 	$(VENV)/bin/ruff check calcpad tests benchmarks

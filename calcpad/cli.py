@@ -2,25 +2,30 @@
 
 ::
 
-    calcpad run JOB.toml [--out DIR] [--notebooks] [--json]
-    calcpad run TEMPLATE.py|.ipynb|NAME --set name="value unit" ... [--member M1] [--out DIR] [--json]
-    calcpad templates
-    calcpad new JOB.toml [--template NAME ...]
+    calcpad run JOB.toml [--out DIR] [--notebooks] [--json] [--templates DIR] [--wait S]
+    calcpad run NAME|LIBRARY/NAME.py --set name="value unit" ... [--member M1] [--out DIR] [--json]
+    calcpad issue OUT --by "J. Smith, P.E." [--revision B]
+    calcpad templates [--templates DIR]
+    calcpad new JOB.toml [--template NAME ...] [--templates DIR]
     calcpad demo
 
-Exit codes: 0 every check OK, 1 some check NG, 2 bad input (nothing written) or a calc failed
-to run (the other calcs still run; the folder is written and marks the failure).
+Exit codes: 0 every check OK; 1 some check NG; 2 bad input or refused output folder (nothing
+written), or a calc failed to run (the other calcs still run; the folder is written and marks
+the failure); 3 cannot write (read-only, disk full, folder busy); 4 internal error (one line on
+stderr, the traceback saved to a log file it names); 130 interrupted (nothing half-written).
 """
 
 from __future__ import annotations
 
 import argparse
 import json
+import math
 import os
 import runpy
 import sys
 import tempfile
 import time
+import traceback
 from pathlib import Path
 from typing import Any
 
@@ -29,31 +34,25 @@ from calcpad.core.errors import CalcpadError
 __all__ = ["main"]
 
 ROOT = Path(__file__).resolve().parent.parent
-EXIT_OK, EXIT_NG, EXIT_BAD = 0, 1, 2
-
-
-def _write_atomic(path: Path, text: str) -> None:
-    path.parent.mkdir(parents=True, exist_ok=True)
-    fd, tmp = tempfile.mkstemp(dir=path.parent, suffix=".tmp")
-    with os.fdopen(fd, "w", encoding="utf-8") as fh:
-        fh.write(text)
-    os.replace(tmp, path)
+EXIT_OK, EXIT_NG, EXIT_BAD, EXIT_WRITE, EXIT_INTERNAL, EXIT_INTERRUPTED = 0, 1, 2, 3, 4, 130
 
 
 def _demo(out_dir: Path) -> int:
     from calcpad.core.sheet import Sheet
     from calcpad.render.html import CAUTION, html_document, sheet_html_fragment
     from calcpad.render.text import sheet_text
+    from calcpad.runner.outfolder import check_target
 
+    target = check_target(out_dir, "demo")
     template = ROOT / "notebooks" / "leg_bending.py"
     scope = runpy.run_path(str(template), run_name="calcpad_template")
     sheets = [v for v in scope.values() if isinstance(v, Sheet)]
     body = f'<div class="caution">{CAUTION}</div>' + "".join(sheet_html_fragment(s.evaluate()) for s in sheets)
-    target = out_dir / "leg_bending.html"
-    _write_atomic(target, html_document(body, "calcpad demo"))
+    html = html_document(body, "calcpad demo")
+    folder = target.write(lambda d: (d / "leg_bending.html").write_text(html, encoding="utf-8"))
     for s in sheets:
         print(sheet_text(s.evaluate()))
-    print(f"submittal written: {target}")
+    print(f"submittal written: {folder / 'leg_bending.html'}")
     return 0 if all(s.evaluate().ok for s in sheets) else 1
 
 
@@ -71,18 +70,23 @@ def _run(args: argparse.Namespace) -> int:
 
     from calcpad.runner.execute import run_job
     from calcpad.runner.job import load_job, single_template_job
-    from calcpad.runner.record import job_record, write_outputs
+    from calcpad.runner.outfolder import check_target, write_outputs
+    from calcpad.runner.record import job_record
 
     err = Console(stderr=True)
     out = Console()
+    protect: list[Path] = []
     if _is_template(args.target):
-        job = single_template_job(args.target, args.set or [], member=args.member or "-")
+        job = single_template_job(args.target, args.set or [], member=args.member or "-", templates=args.templates)
         out_dir = Path(args.out) if args.out else None
     else:
         if args.set:
             raise CalcpadError("--set applies to a template run (calcpad run TEMPLATE.py --set ...); put job values in the job file")
-        job = load_job(args.target)
+        job = load_job(args.target, templates=args.templates)
         out_dir = Path(args.out) if args.out else Path("build") / Path(args.target).stem
+        protect.append(Path(args.target))
+    protect += [c.template.path for c in job.calcs]
+    target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
     mode = "kernel" if args.notebooks else "inprocess"
     start = time.perf_counter()
     failures: list[str] = []
@@ -94,7 +98,7 @@ def _run(args: argparse.Namespace) -> int:
         TimeElapsedColumn(),
         console=err,
         transient=True,
-        disable=args.json and not err.is_terminal,
+        disable=not err.is_terminal,  # no progress display in logs and pipes
     ) as bar:
         task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
 
@@ -108,18 +112,17 @@ def _run(args: argparse.Namespace) -> int:
         outcomes = run_job(job, mode=mode, progress=tick)
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
-    if out_dir is not None:
-        write_outputs(out_dir, job, outcomes, record, notebooks=args.notebooks)
+    folder = write_outputs(target, job, outcomes, record, notebooks=args.notebooks, wait=args.wait) if target is not None else None
     if args.json:
         print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
     else:
         _print_summary(out, job, outcomes, record)
-        if out_dir is None:
+        if folder is None:
             for o in outcomes:
                 for s in o.sheets:
                     _print_sheet_text(out, s["record"])
-    if out_dir is not None:
-        err.print(f"submittal written: {out_dir / 'submittal.html'}", highlight=False, soft_wrap=True)
+    if folder is not None:
+        err.print(f"submittal written: {folder / 'submittal.html'}", highlight=False, soft_wrap=True)
     summ = record["summary"]
     if summ["errors"]:
         return EXIT_BAD
@@ -151,14 +154,14 @@ def _print_sheet_text(out: Any, rec: dict[str, Any]) -> None:
 # ----------------------------------------------------------------------------- templates, new
 
 
-def _templates() -> int:
+def _templates(extra: list[str]) -> int:
     from rich.console import Console
     from rich.table import Table
 
     from calcpad.runner.template import list_templates, load_template
 
     out = Console()
-    found = list_templates()
+    found = list_templates(extra)
     if not found:
         out.print("no templates found")
         return EXIT_OK
@@ -184,7 +187,7 @@ def _toml_str(v: Any) -> str:
     return json.dumps(v, ensure_ascii=False) if isinstance(v, str) else repr(v)
 
 
-def starter_job(templates: list[str]) -> str:
+def starter_job(templates: list[str], extra: list[str] | None = None) -> str:
     """Text of a starter job file with every parameter of each template at its default."""
     from calcpad.runner.template import find_template, load_template
 
@@ -205,7 +208,7 @@ def starter_job(templates: list[str]) -> str:
         'units = "US"',
     ]
     for name in templates:
-        tpl = load_template(find_template(name))
+        tpl = load_template(find_template(name, extra or []))
         lines += ["", "[[calcs]]", f"template = {_toml_str(tpl.name)}", 'member = "M1"', "[calcs.inputs]"]
         for p in tpl.parameters.values():
             if p.name == "member_mark":
@@ -215,11 +218,11 @@ def starter_job(templates: list[str]) -> str:
     return "\n".join(lines) + "\n"
 
 
-def _new(path: Path, templates: list[str]) -> int:
+def _new(path: Path, templates: list[str], extra: list[str]) -> int:
     if path.exists():
         print(f"calcpad: {path} already exists; not overwriting it (choose another name)", file=sys.stderr)
         return EXIT_BAD
-    text = starter_job(templates or ["leg_bending"])
+    text = starter_job(templates or ["leg_bending"], extra)
     try:
         with open(path, "x", encoding="utf-8") as fh:
             fh.write(text)
@@ -230,21 +233,44 @@ def _new(path: Path, templates: list[str]) -> int:
     return EXIT_OK
 
 
+# ----------------------------------------------------------------------------- issue
+
+
+def _issue(args: argparse.Namespace) -> int:
+    from calcpad.runner.outfolder import issue_revision, revision_folder
+
+    info = issue_revision(args.out, args.by, args.revision, wait=args.wait)
+    folder = Path(args.out) / revision_folder(info["revision"])
+    print(f"revision {info['revision']} issued by {info['by']} on {info['date']}: {folder} is sealed read-only")
+    return EXIT_OK
+
+
 # ----------------------------------------------------------------------------- main
 
 
 def _parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(prog="calcpad", description="Traceable engineering calc sheets and submittals.")
     sub = parser.add_subparsers(dest="command", required=True)
-    run = sub.add_parser("run", help="run a job file (or one template with --set) and write the submittal")
-    run.add_argument("target", help="JOB.toml, or a template (NAME, NAME.py, NAME.ipynb)")
-    run.add_argument("--out", help="output folder (job default: build/JOBNAME; template default: print only)")
-    run.add_argument("--notebooks", action="store_true", help="run in a Jupyter kernel and keep executed notebooks in OUT/notebooks")
+    library = argparse.ArgumentParser(add_help=False)
+    library.add_argument(
+        "--templates", action="append", default=[], metavar="DIR",
+        help="a template folder to use besides notebooks/ (repeatable); templates are code: register only code you trust",
+    )
+    waiting = argparse.ArgumentParser(add_help=False)
+    waiting.add_argument("--wait", type=_wait_seconds, default=30.0, metavar="SECONDS", help="wait this long for another run writing the same folder (default 30)")
+    run = sub.add_parser("run", parents=[library, waiting], help="run a job file (or one template with --set) and write the submittal")
+    run.add_argument("target", help="JOB.toml, or a template (NAME, or a NAME.py/.ipynb file in a template folder)")
+    run.add_argument("--out", help="output folder; each revision goes to OUT/rev-<revision> (job default: build/JOBNAME; template default: print only)")
+    run.add_argument("--notebooks", action="store_true", help="run in a Jupyter kernel and keep executed notebooks in OUT/rev-*/notebooks")
     run.add_argument("--json", action="store_true", help="print the job record as JSON on stdout")
     run.add_argument("--set", action="append", metavar='NAME="VALUE UNIT"', help="template run: set a parameter (repeatable)")
     run.add_argument("--member", help="template run: member mark (default '-')")
-    sub.add_parser("templates", help="list templates and their parameters")
-    new = sub.add_parser("new", help="write a starter job file (never overwrites)")
+    issue = sub.add_parser("issue", parents=[waiting], help="mark a revision in an output folder as issued and seal it read-only")
+    issue.add_argument("out", help="the output folder of a run (--out)")
+    issue.add_argument("--by", required=True, help="who issues it (name, title)")
+    issue.add_argument("--revision", help="revision to issue (default: the latest written)")
+    sub.add_parser("templates", parents=[library], help="list templates and their parameters")
+    new = sub.add_parser("new", parents=[library], help="write a starter job file (never overwrites)")
     new.add_argument("path", help="JOB.toml to create")
     new.add_argument("--template", action="append", default=[], help="template to include (repeatable; default leg_bending)")
     demo = sub.add_parser("demo", help="render the first template to build/demo")
@@ -252,22 +278,70 @@ def _parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _wait_seconds(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        value = math.nan
+    if not math.isfinite(value) or value < 0:
+        raise argparse.ArgumentTypeError(f"{text!r}; expected seconds, a number from 0 up")
+    return value
+
+
+def _check_library(args: argparse.Namespace) -> None:
+    for d in getattr(args, "templates", []):
+        if not Path(d).is_dir():
+            raise CalcpadError(f"--templates {d}: not a folder; give a folder of template notebooks")
+
+
+def _dispatch(args: argparse.Namespace) -> int:
+    _check_library(args)
+    if args.command == "run":
+        return _run(args)
+    if args.command == "issue":
+        return _issue(args)
+    if args.command == "templates":
+        return _templates(args.templates)
+    if args.command == "new":
+        return _new(Path(args.path), args.template, args.templates)
+    if args.command == "demo":
+        return _demo(Path(args.out))
+    return EXIT_BAD  # pragma: no cover
+
+
+def _save_traceback() -> str:
+    """Write the current exception's traceback to a new log file in the temp folder; its path."""
+    fd, path = tempfile.mkstemp(prefix="calcpad-error-", suffix=".log")
+    with os.fdopen(fd, "w", encoding="utf-8") as fh:
+        fh.write(f"calcpad {' '.join(sys.argv[1:])}\n\n")
+        fh.write(traceback.format_exc())
+    return path
+
+
 def main(argv: list[str] | None = None) -> int:
-    """Entry point of the ``calcpad`` console script."""
+    """Entry point of the ``calcpad`` console script; returns the exit code (see module doc)."""
     args = _parser().parse_args(argv)
     try:
-        if args.command == "run":
-            return _run(args)
-        if args.command == "templates":
-            return _templates()
-        if args.command == "new":
-            return _new(Path(args.path), args.template)
-        if args.command == "demo":
-            return _demo(Path(args.out))
+        return _dispatch(args)
+    except KeyboardInterrupt:
+        print("calcpad: interrupted", file=sys.stderr)
+        return EXIT_INTERRUPTED
     except CalcpadError as exc:
         print(f"calcpad: {exc}", file=sys.stderr)
-        return EXIT_BAD
-    return EXIT_BAD  # pragma: no cover
+        return int(getattr(exc, "exit_code", EXIT_BAD))
+    except OSError as exc:
+        where = exc.filename if exc.filename is not None else "a file"
+        print(f"calcpad: cannot read or write {where}: {exc.strerror or exc}", file=sys.stderr)
+        return EXIT_WRITE
+    except Exception as exc:
+        head = f"calcpad: internal error ({type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''})"
+        try:
+            log = _save_traceback()
+        except OSError:
+            print(f"{head}; the details could not be saved. Please report it.", file=sys.stderr)
+        else:
+            print(f"{head}; details saved to {log}. Please report it with that file.", file=sys.stderr)
+        return EXIT_INTERNAL
 
 
 if __name__ == "__main__":

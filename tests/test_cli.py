@@ -28,6 +28,8 @@ def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.Mo
     monkeypatch.chdir(ROOT)
     out = tmp_path / "demo"
     assert main(["run", "examples/harbor_ridge_condenser_stand.toml", "--out", str(out)]) == 0
+    assert sorted(p.name for p in out.iterdir()) == [".calcpad-lock", ".calcpad-manifest.json", "rev-A"]
+    out = out / "rev-A"  # the example job is revision A
     assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]
     record = json.loads((out / "record.json").read_text())
     assert record["format"] == JOB_RECORD_FORMAT and record["summary"]["status"] == "OK"
@@ -37,7 +39,7 @@ def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.Mo
         assert text in html
     assert "<script" not in html
     assert html.count('<section class="calc"') == len(record["calcs"])
-    assert "submittal written" in capsys.readouterr().err
+    assert f"submittal written: {out / 'submittal.html'}" in capsys.readouterr().err
 
 
 def test_bad_job_exits_2_and_writes_nothing(tmp_path: Path, tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:
@@ -59,7 +61,7 @@ def test_malformed_toml_exit_2(tmp_path: Path, capsys: pytest.CaptureFixture[str
 
 def test_ng_exits_1(tmp_path: Path, tiny_env: Path) -> None:
     assert main(["run", "tiny", "--set", "P=300 lbf", "--out", str(tmp_path / "o")]) == 1
-    assert json.loads((tmp_path / "o" / "record.json").read_text())["summary"]["ng"] == 1
+    assert json.loads((tmp_path / "o" / "rev-draft" / "record.json").read_text())["summary"]["ng"] == 1
 
 
 def test_template_run_json(tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:
@@ -80,6 +82,7 @@ def test_failing_cell_reported_other_calcs_run(tmp_path: Path, tiny_env: Path, c
     assert main(["run", str(job), "--out", str(out)]) == 2
     captured = capsys.readouterr()
     assert "template 'tiny', cell 4: ValueError: requested failure" in captured.err
+    out = out / "rev-0"
     record = json.loads((out / "record.json").read_text())
     assert [c["status"] for c in record["calcs"]] == ["ERROR", "OK"]
     assert "INCOMPLETE" in (out / "submittal.html").read_text()
@@ -88,6 +91,7 @@ def test_failing_cell_reported_other_calcs_run(tmp_path: Path, tiny_env: Path, c
 def test_notebooks_flag_keeps_executed_notebooks(tmp_path: Path, tiny_env: Path) -> None:
     out = tmp_path / "out"
     assert main(["run", "tiny", "--member", "B7", "--out", str(out), "--notebooks"]) == 0
+    out = out / "rev-draft"
     (nb,) = (out / "notebooks").iterdir()
     assert nb.name == "01_tiny_B7.ipynb"
     cells = json.loads(nb.read_text())["cells"]
@@ -114,7 +118,7 @@ def test_new_writes_valid_job_and_refuses_overwrite(tmp_path: Path, capsys: pyte
 
 def test_demo_still_runs(tmp_path: Path) -> None:
     assert main(["demo", "--out", str(tmp_path)]) == 0
-    assert (tmp_path / "leg_bending.html").exists()
+    assert (tmp_path / "rev-demo" / "leg_bending.html").exists()
 
 
 def test_cli_start_does_not_import_notebook_tooling() -> None:

@@ -12,7 +12,7 @@
     units = "US"                 # "US" or "SI": display units of sheets that do not fix their own
 
     [[calcs]]
-    template = "leg_bending"     # a name from `calcpad templates`, or a path relative to the job
+    template = "leg_bending"     # a name from `calcpad templates` (never a path: templates are code)
     members = ["L1", "L3"]       # or member = "L1"
     title = "Legs L1 and L3"     # optional
     [calcs.inputs]
@@ -21,7 +21,9 @@
 
 Every parameter of the template must be given (the job file is the complete record of what was
 assumed; `calcpad new` writes them all). A template parameter named ``member_mark`` is filled with
-the member mark by the runner. The job file is data only: nothing in it is executed. Validation
+the member mark by the runner. The job file is data only: nothing in it is executed, and a
+template is named, never pointed at: it is looked up in the template library folders
+(:func:`~calcpad.runner.template.find_template`), and names that are paths are refused. Validation
 collects every problem, each with its location (``calcs[3].inputs.L``; calcs count from 1 in
 file order) and raises one :class:`JobError`.
 """
@@ -34,6 +36,7 @@ import hashlib
 import json
 import re
 import tomllib
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -42,7 +45,7 @@ import pint
 
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
-from calcpad.runner.template import Template, TemplateError, find_template, load_template
+from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
 
 __all__ = ["Calc", "Job", "JobError", "JobInfo", "input_record", "load_job", "parse_job", "single_template_job"]
 
@@ -230,8 +233,11 @@ def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], 
     return {n: full[n] for n in tpl.parameters if n not in CONTEXT_PARAMETERS}
 
 
-def parse_job(text: str, source: str = "job.toml", base: Path | None = None) -> Job:
-    """Validate job-file text. Raises JobError listing every problem found."""
+def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Path] = ()) -> Job:
+    """Validate job-file text. Raises JobError listing every problem found.
+
+    ``templates``: extra template library folders (``--templates``), searched first.
+    """
     try:
         raw = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
@@ -265,7 +271,7 @@ def parse_job(text: str, source: str = "job.toml", base: Path | None = None) -> 
             problems.append((f"{loc}.template", f"{name!r}; expected a template name such as 'leg_bending'"))
             continue
         try:
-            tpl = load_template(find_template(name, base))
+            tpl = load_template(find_template(name, templates))
         except TemplateError as exc:
             problems.append((f"{loc}.template", str(exc)))
             continue
@@ -282,21 +288,26 @@ def parse_job(text: str, source: str = "job.toml", base: Path | None = None) -> 
     return Job(info, calcs, source)
 
 
-def load_job(path: str | Path) -> Job:
+def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:
     """Read and validate a job file. Raises JobError (bad content) or InputError (unreadable)."""
     path = Path(path)
     try:
         text = path.read_text(encoding="utf-8")
     except (OSError, UnicodeDecodeError) as exc:
         raise JobError(str(path), [("", f"cannot read the job file ({exc.__class__.__name__}: {exc})")]) from None
-    return parse_job(text, str(path), path.parent)
+    return parse_job(text, str(path), templates)
 
 
-def single_template_job(template: str | Path, sets: list[str], member: str = "-") -> Job:
-    """A one-calc job for ``calcpad run TEMPLATE --set name="value unit"`` (defaults fill the rest)."""
+def single_template_job(template: str | Path, sets: list[str], member: str = "-", templates: Sequence[str | Path] = ()) -> Job:
+    """A one-calc job for ``calcpad run TEMPLATE --set name="value unit"`` (defaults fill the rest).
+
+    ``template`` is a library name or the path of a file inside a library folder.
+    """
     source = str(template)
+    text = str(template)
+    is_path = Path(template).exists() or "/" in text or "\\" in text
     try:
-        tpl = load_template(find_template(str(template)) if not Path(template).exists() else Path(template))
+        tpl = load_template(library_template(template, templates) if is_path else find_template(text, templates))
     except TemplateError as exc:
         raise JobError(source, [("template", str(exc))]) from None
     problems: list[tuple[str, str]] = []

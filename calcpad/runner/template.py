@@ -24,6 +24,7 @@ import json
 import os
 import re
 import tokenize
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -40,6 +41,7 @@ __all__ = [
     "Template",
     "TemplateError",
     "find_template",
+    "library_template",
     "list_templates",
     "load_template",
     "template_dirs",
@@ -52,6 +54,7 @@ ENV_VAR = "CALCPAD_TEMPLATES"
 _MARKER = re.compile(r"^# %%(.*)$")
 _TAGS = re.compile(r"tags\s*=\s*(\[[^\]]*\])")
 _NUMERIC = re.compile(r"^\s*[-+]?(\d|\.\d)")
+_NAME = re.compile(r"^[A-Za-z0-9][A-Za-z0-9_-]{0,63}$")
 _REF = re.compile(r"^(?:(?P<k1>\d+(?:\.\d+)?)\s*\*\s*)?(?P<name>[A-Za-z_]\w*)(?:\s*(?P<op>[*/])\s*(?P<k2>\d+(?:\.\d+)?))?$")
 
 
@@ -440,7 +443,10 @@ def load_template(path: str | Path) -> Template:
     if path.suffix == ".ipynb":
         cells = read_ipynb(path)
     elif path.suffix == ".py":
-        cells = read_percent(path.read_text(encoding="utf-8"))
+        try:
+            cells = read_percent(path.read_text(encoding="utf-8"))
+        except (OSError, UnicodeDecodeError) as exc:
+            raise TemplateError(f"template {str(path)!r}: cannot read it ({exc})") from None
     else:
         raise TemplateError(f"template {str(path)!r}: expected a .py (jupytext percent) or .ipynb file")
     tagged = [c for c in cells if c.kind == "code" and "parameters" in c.tags]
@@ -452,40 +458,81 @@ def load_template(path: str | Path) -> Template:
     return tpl
 
 
-def template_dirs() -> list[Path]:
-    """Folders searched for templates: ``$CALCPAD_TEMPLATES`` entries, then the repo's notebooks/."""
-    dirs = [Path(p) for p in os.environ.get(ENV_VAR, "").split(os.pathsep) if p]
+def template_dirs(extra: Sequence[str | Path] = ()) -> list[Path]:
+    """The template library, in search order: ``extra`` (``--templates``), ``$CALCPAD_TEMPLATES``, notebooks/.
+
+    Templates are code: only files in these folders are ever run.
+    """
+    dirs = [Path(p) for p in extra]
+    dirs += [Path(p) for p in os.environ.get(ENV_VAR, "").split(os.pathsep) if p]
     dirs.append(ROOT / "notebooks")
     return dirs
 
 
-def list_templates() -> dict[str, Path]:
-    """Template name → file, ``.py`` preferred over ``.ipynb``; first folder wins."""
+def _scan(dirs: Sequence[Path]) -> tuple[dict[str, Path], dict[str, Path]]:
+    """(name → file inside the library, name → file whose real path lies outside its folder)."""
     found: dict[str, Path] = {}
-    for d in template_dirs():
+    outside: dict[str, Path] = {}
+    for d in dirs:
         if not d.is_dir():
             continue
+        real_dir = d.resolve()
         here: dict[str, Path] = {}
         for f in sorted(d.iterdir()):
             if f.suffix in (".py", ".ipynb") and not f.name.startswith(("_", ".")) and (f.stem not in here or f.suffix == ".py"):
                 here[f.stem] = f
         for stem, f in here.items():
-            found.setdefault(stem, f)
-    return dict(sorted(found.items()))
+            if stem in found:
+                continue
+            if f.resolve().is_relative_to(real_dir) and f.is_file():
+                found[stem] = f
+            else:
+                outside.setdefault(stem, f)
+    return dict(sorted(found.items())), outside
 
 
-def find_template(name: str, base: Path | None = None) -> Path:
-    """Resolve a template name (or a path relative to ``base``). Raises TemplateError."""
-    if name.endswith((".py", ".ipynb")) or "/" in name:
-        p = Path(name)
-        if not p.is_absolute() and base is not None:
-            p = base / p
-        if p.is_file():
-            return p
-        raise TemplateError(f"template {name!r}: file not found")
-    found = list_templates()
+def list_templates(extra: Sequence[str | Path] = ()) -> dict[str, Path]:
+    """Template name → file, ``.py`` preferred over ``.ipynb``; first folder wins.
+
+    Files that resolve (through links) outside their library folder are left out.
+    """
+    return _scan(template_dirs(extra))[0]
+
+
+def _library_hint() -> str:
+    return f"templates are code and run only from the template folders (built-in notebooks/, --templates DIR, ${ENV_VAR})"
+
+
+def find_template(name: str, extra: Sequence[str | Path] = ()) -> Path:
+    """The file of the library template called ``name`` (a bare name). Raises TemplateError.
+
+    Paths (separators, ``..``, absolute), file suffixes and names that resolve outside the
+    library folders are refused: a job file names a template, it never points at code.
+    """
+    if not isinstance(name, str) or not _NAME.match(name):
+        if isinstance(name, str) and name.endswith((".py", ".ipynb")) and _NAME.match(Path(name).stem) and "/" not in name and "\\" not in name:
+            raise TemplateError(f"template {name!r}: write the name without the file suffix ({Path(name).stem!r})")
+        raise TemplateError(
+            f"template {name!r}: expected a template name (letters, digits, '_' or '-'), not a path; {_library_hint()}"
+        )
+    found, outside = _scan(template_dirs(extra))
     if name in found:
         return found[name]
+    if name in outside:
+        raise TemplateError(f"template {name!r}: {outside[name]} resolves outside its template folder; refused ({_library_hint()})")
     close = difflib.get_close_matches(name, list(found), n=3, cutoff=0.5)
     hint = f"; did you mean {', '.join(repr(c) for c in close)}?" if close else ""
     raise TemplateError(f"unknown template {name!r}{hint} (available: {', '.join(sorted(found)) or 'none'})")
+
+
+def library_template(path: str | Path, extra: Sequence[str | Path] = ()) -> Path:
+    """A template given as a file path (command line): accepted only inside a library folder."""
+    p = Path(path)
+    real = p.resolve()
+    if real.is_file() and real.suffix in (".py", ".ipynb"):
+        for d in template_dirs(extra):
+            if d.is_dir() and real.parent == d.resolve():
+                return p
+    raise TemplateError(
+        f"template {str(path)!r}: not in a template folder; {_library_hint()}. Register its folder with --templates DIR if it is code you trust"
+    )

@@ -10,7 +10,7 @@ import pytest
 
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import Job, load_job, parse_job
-from calcpad.runner.record import JOB_RECORD_FORMAT, job_record, write_atomic_dir
+from calcpad.runner.record import JOB_RECORD_FORMAT, job_record
 
 from .conftest import EXAMPLE, JOB_HEAD, tiny_calc
 
@@ -82,20 +82,6 @@ def test_record_fields(tiny_env: Path) -> None:
     assert set(rec["versions"]) >= {"calcpad", "python", "pint", "sympy", "numpy"}
     other = parse_job(JOB_HEAD + tiny_calc(P='"101 lbf"')).calcs[0]
     assert len(calc["input_digest"]) == 64 and calc["input_digest"] != other.input_digest
-
-
-def test_atomic_dir_leaves_nothing_on_failure(tmp_path: Path) -> None:
-    out = tmp_path / "out"
-    write_atomic_dir(out, lambda d: (d / "a.txt").write_text("first"))
-
-    def broken(d: Path) -> None:
-        (d / "a.txt").write_text("half")
-        raise RuntimeError("disk full")
-
-    with pytest.raises(RuntimeError):
-        write_atomic_dir(out, broken)
-    assert (out / "a.txt").read_text() == "first"
-    assert sorted(p.name for p in tmp_path.iterdir()) == ["out"]
 
 
 def test_job_units_set_sheet_display_system(tmp_path):

@@ -1,0 +1,41 @@
+"""Child process for the kill/interrupt/concurrency tests: runs ``calcpad run`` in a loop.
+
+Usage: python -m tests.runner.run_child LOOPS OUT JOB [JOB ...]
+       python -m tests.runner.run_child issue OUT REVISION BY
+
+``os.replace`` is slowed (20 ms before and after each rename) to widen the windows between the
+steps of a write, so a signal at a random time lands inside one often. Prints ``ready`` once the
+heavy imports are done; exits with the first non-zero exit code, else 0.
+"""
+
+from __future__ import annotations
+
+import os
+import sys
+import time
+
+import calcpad.runner.execute  # heavy imports before "ready"
+import calcpad.runner.outfolder  # noqa: F401
+from calcpad.cli import main
+
+_replace = os.replace
+
+
+def _slow_replace(src, dst, *args, **kwargs):  # type: ignore[no-untyped-def]
+    time.sleep(0.02)
+    _replace(src, dst, *args, **kwargs)
+    time.sleep(0.02)
+
+
+if __name__ == "__main__":
+    os.replace = _slow_replace
+    if sys.argv[1] == "issue":
+        print("ready", flush=True)
+        sys.exit(main(["issue", sys.argv[2], "--revision", sys.argv[3], "--by", sys.argv[4]]))
+    loops, out, jobs = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
+    print("ready", flush=True)
+    for i in range(loops):
+        rc = main(["run", jobs[i % len(jobs)], "--out", out, "--wait", "60"])
+        if rc:
+            sys.exit(rc)
+    sys.exit(0)
