@@ -223,9 +223,12 @@ def _compare_inputs(d: RecordDiff, label: str, old: dict[str, Any], new: dict[st
         a, b = old.get(name), new.get(name)
         same_typed = isinstance(a, dict) and isinstance(b, dict) and a.get("typed") == b.get("typed")
         same_value = isinstance(a, dict) and isinstance(b, dict) and a.get("unit") == b.get("unit") and _close(a.get("value"), b.get("value"), 0.0)
-        if not (same_typed and same_value):
+        if same_typed and not same_value:  # same text read differently (or the record was edited)
             changed.add(name)
-            d.inputs.append(Change(label, name, _typed(a), _typed(b), "" if same_value else f"parsed {_qty(a)} → {_qty(b)}" if same_typed else ""))
+            d.inputs.append(Change(label, name, _qty(a), _qty(b), f"typed {_typed(b)} in both"))
+        elif not same_typed:
+            changed.add(name)
+            d.inputs.append(Change(label, name, _typed(a), _typed(b)))
     return changed
 
 
@@ -289,7 +292,8 @@ def diff_table(diff: RecordDiff, title: str | None = None) -> Any:
     from rich.table import Table
 
     t = Table(title=title or f"Changes from {diff.old_label} to {diff.new_label}", title_justify="left")
-    for col in ("What", "Calc", "Item", diff.old_label, diff.new_label, "Note"):
+    same = diff.old_label == diff.new_label
+    for col in ("What", "Calc", "Item", f"old ({diff.old_label})" if same else diff.old_label, f"new ({diff.new_label})" if same else diff.new_label, "Note"):
         t.add_column(col, overflow="fold")
     for kind, c in diff.rows():
         t.add_row(KINDS[kind], c.calc, c.item, c.old, c.new, c.note)
