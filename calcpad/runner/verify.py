@@ -127,7 +127,8 @@ def verify_renderables(report: VerifyReport) -> list[Any]:
         return "[green]yes[/green]" if flag else "[bold red]NO[/bold red]"
 
     d = report.diff
-    t = Table(title=f"verify {report.path or 'record'} (digest {report.stored_digest[:12]})", title_justify="left", show_header=False)
+    heading = f"verify {report.path or 'record'} — record digest {report.stored_digest[:12]}"
+    t = Table(show_header=False)
     t.add_column("Question")
     t.add_column("Answer")
     t.add_column("Detail", overflow="fold")
@@ -141,8 +142,8 @@ def verify_renderables(report: VerifyReport) -> list[Any]:
         t.add_row("templates unchanged", yes(report.templates_unchanged), f"{len(d.templates)} changed" if d.templates else "")
         t.add_row("data unchanged", yes(report.data_unchanged), f"{len(d.data)} changed" if d.data else "")
         n = len(d.added) + len(d.removed) + len(d.inputs) + len(d.flips) + len(d.results)
-        t.add_row("results reproduced", yes(report.results_reproduced), f"rtol {report.rtol:g}" + (f"; {n} differences" if n else ""))
-    out: list[Any] = [t]
+        t.add_row("results reproduced", yes(report.results_reproduced), f"rtol {report.rtol:g}" + (f"; {n} difference{'s' if n != 1 else ''}" if n else ""))
+    out: list[Any] = [heading, t]
     if d is not None and d.rows():
         out.append(diff_table(d, title="Differences (recorded → now)"))
     elif d is not None and d.versions:

@@ -17,9 +17,10 @@ from calcpad.cli import main
 from calcpad.runner import record as record_mod
 from calcpad.runner.job import input_record
 from calcpad.runner.record import JOB_RECORD_FORMAT, record_digest, short_digest
-from calcpad.runner.recordfile import RecordError, find_record, read_record
+from calcpad.runner.recordfile import RecordError, find_record, load_record, read_record
 from calcpad.runner.verify import verify_record
 
+from .conftest import JOB_HEAD, tiny_calc
 from .records import ROOT, copy_template, job_text, run_text, tube_ratio, write_record
 
 PACKAGE = ROOT / "calcpad"
@@ -295,3 +296,20 @@ def test_verify_when_the_template_is_gone(tmp_path: Path, monkeypatch: pytest.Mo
     assert report.rerun_error is not None and "unknown template 'dock_post'" in report.rerun_error
     assert main(["verify", str(out)]) == 1
     assert "cannot rebuild the calcs" in capsys.readouterr().out
+
+
+def test_verify_outputs_of_calcpad_run(tmp_path: Path, tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    """End to end through ``calcpad run``: a job file and a one-template --set run."""
+    job = tmp_path / "job.toml"
+    job.write_text(JOB_HEAD + tiny_calc("A1") + tiny_calc("A2", P='"300 lbf"'))
+    assert main(["run", str(job), "--out", str(tmp_path / "job_out")]) == 1  # A2: 3000 > 2000 lbf*in, NG
+    assert main(["run", "tiny", "--set", "L=12 in", "--member", "B7", "--out", str(tmp_path / "set_out")]) == 0
+    capsys.readouterr()
+    assert main(["verify", str(tmp_path / "job_out")]) == 0
+    assert main(["verify", str(tmp_path / "set_out")]) == 0
+    path, rec = load_record(tmp_path / "set_out")
+    assert rec["job_file"]["text"] is None and rec["calcs"][0]["inputs"]["L"]["typed"] == "12 in"
+    rec["calcs"][0]["inputs"]["L"]["typed"] = "11 in"  # a hand edit of what was typed
+    path.write_text(json.dumps(rec))
+    assert main(["verify", str(path)]) == 1
+    assert "NOT verified" in capsys.readouterr().out
