@@ -213,7 +213,10 @@ def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float)
     for o in outcomes:
         path = o.calc.template.path
         if path not in template_shas:
-            template_shas[path] = file_digest(path)
+            try:
+                template_shas[path] = file_digest(path)
+            except OSError:  # removed or unreadable since it ran: verify will report it
+                template_shas[path] = "unreadable"
     calcs = [_calc_record(o, template_shas[o.calc.template.path]) for o in outcomes]
     templates: list[dict[str, str]] = []
     for c in calcs:
