@@ -8,6 +8,8 @@
     calcpad templates [--templates DIR]
     calcpad new JOB.toml [--template NAME ...] [--templates DIR]
     calcpad demo
+    calcpad verify OUT [--revision R] [--rtol 1e-9]
+    calcpad diff OLD NEW [--rtol 1e-6] [--html FILE]
 
 Exit codes: 0 every check OK; 1 some check NG; 2 bad input or refused output folder (nothing
 written), or a calc failed to run (the other calcs still run; the folder is written and marks
@@ -35,6 +37,19 @@ __all__ = ["main"]
 
 ROOT = Path(__file__).resolve().parent.parent
 EXIT_OK, EXIT_NG, EXIT_BAD, EXIT_WRITE, EXIT_INTERNAL, EXIT_INTERRUPTED = 0, 1, 2, 3, 4, 130
+
+
+def _write_atomic(path: Path, text: str) -> None:
+    """Write ``text`` to ``path`` through a temporary sibling file (never half-written)."""
+    path.parent.mkdir(parents=True, exist_ok=True)
+    fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8") as fh:
+            fh.write(text)
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
 
 
 def _demo(out_dir: Path) -> int:
@@ -245,6 +260,66 @@ def _issue(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
+# ----------------------------------------------------------------------------- verify, diff
+
+
+def _rtol(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        value = float("nan")
+    if not (0.0 <= value < 1.0):
+        raise argparse.ArgumentTypeError(f"{text!r}; expected a relative tolerance such as 1e-6 (0 up to 1)")
+    return value
+
+
+def _verify(args: argparse.Namespace) -> int:
+    """``calcpad verify OUT``: exit 0 when intact and reproduced, 1 on any difference."""
+    from rich.console import Console
+
+    from calcpad.runner.recordfile import load_record
+    from calcpad.runner.verify import verify_record, verify_renderables
+
+    path, record = load_record(args.out, args.revision)
+    report = verify_record(record, rtol=args.rtol, path=path)
+    out = Console()
+    for part in verify_renderables(report):
+        out.print(part, highlight=False)
+    out.print("verified: intact and reproduced" if report.ok else "[bold red]NOT verified[/bold red]: see the differences above", highlight=False)
+    return EXIT_OK if report.ok else EXIT_NG
+
+
+def _diff(args: argparse.Namespace) -> int:
+    """``calcpad diff OLD NEW``: exit 0 when nothing changed, 1 when something did."""
+    from rich.console import Console
+
+    from calcpad.runner.diff import diff_html, diff_records, diff_table
+    from calcpad.runner.record import record_digest
+    from calcpad.runner.recordfile import load_record
+
+    (old_path, old), (new_path, new) = load_record(args.old), load_record(args.new)
+    out = Console()
+    for path, rec in ((old_path, old), (new_path, new)):
+        try:
+            intact = record_digest(rec) == rec.get("record_digest")
+        except (TypeError, ValueError):
+            intact = False
+        if not intact:
+            out.print(f"warning: {path} does not match its record_digest (edited after it was written)", highlight=False, soft_wrap=True)
+    diff = diff_records(old, new, rtol=args.rtol)
+    out.print(diff_table(diff, title=f"Changes from {old_path} (rev. {diff.old_label}) to {new_path} (rev. {diff.new_label})"), highlight=False)
+    if args.html:
+        target = Path(args.html)
+        if target.exists() and not target.read_text(encoding="utf-8", errors="replace").startswith(_DIFF_MARK):
+            raise CalcpadError(f"--html {args.html}: the file exists and was not written by calcpad diff; choose another name")
+        _write_atomic(target, f"{_DIFF_MARK}\n{diff_html(diff)}\n")
+        print(f"changes written: {target}", file=sys.stderr)
+    return EXIT_NG if diff.changed else EXIT_OK
+
+
+_DIFF_MARK = "<!-- calcpad diff -->"
+
+
 # ----------------------------------------------------------------------------- main
 
 
@@ -275,6 +350,15 @@ def _parser() -> argparse.ArgumentParser:
     new.add_argument("--template", action="append", default=[], help="template to include (repeatable; default leg_bending)")
     demo = sub.add_parser("demo", help="render the first template to build/demo")
     demo.add_argument("--out", default="build/demo", help="output folder (default build/demo)")
+    verify = sub.add_parser("verify", help="check a record is intact and re-run its calcs to reproduce it")
+    verify.add_argument("out", help="output folder (or its record.json)")
+    verify.add_argument("--revision", help="revision sub-folder to verify (default: the newest)")
+    verify.add_argument("--rtol", type=_rtol, default=1e-9, help="relative tolerance on values (default 1e-9)")
+    diff = sub.add_parser("diff", help="list what changed between two runs (folders or record.json files)")
+    diff.add_argument("old", help="older output folder or record.json")
+    diff.add_argument("new", help="newer output folder or record.json")
+    diff.add_argument("--rtol", type=_rtol, default=1e-6, help="relative tolerance on values (default 1e-6)")
+    diff.add_argument("--html", metavar="FILE", help="also write the changes as an HTML fragment for a submittal")
     return parser
 
 
@@ -306,6 +390,10 @@ def _dispatch(args: argparse.Namespace) -> int:
         return _new(Path(args.path), args.template, args.templates)
     if args.command == "demo":
         return _demo(Path(args.out))
+    if args.command == "verify":
+        return _verify(args)
+    if args.command == "diff":
+        return _diff(args)
     return EXIT_BAD  # pragma: no cover
 
 

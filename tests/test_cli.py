@@ -67,7 +67,8 @@ def test_ng_exits_1(tmp_path: Path, tiny_env: Path) -> None:
 def test_template_run_json(tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:
     assert main(["run", str(tiny_env / "tiny.py"), "--set", "L=12 in", "--json"]) == 0
     record = json.loads(capsys.readouterr().out)
-    assert record["calcs"][0]["inputs"]["L"] == {"value": 12.0, "unit": "in"}
+    assert record["calcs"][0]["inputs"]["L"] == {"typed": "12 in", "value": 12.0, "unit": "in"}
+    assert record["calcs"][0]["inputs"]["P"] == {"typed": None, "value": 100.0, "unit": "lbf"}  # template default
 
 
 def test_template_run_bad_set(tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:

@@ -98,6 +98,7 @@ class Calc:
     member: str
     inputs: dict[str, str | float]  # values as they go into the template
     title: str = ""
+    typed: dict[str, Any] = field(default_factory=dict)  # inputs as written in the job (TOML value or --set text)
 
     @property
     def input_digest(self) -> str:
@@ -113,10 +114,18 @@ class Job:
     info: JobInfo
     calcs: list[Calc]
     source: str = ""
+    text: str | None = None  # the job file text as read (None for a one-template --set run)
 
 
-def input_record(value: str | float) -> dict[str, Any]:
-    """``{"value": 84.0, "unit": "in"}`` for a quantity, ``{"value": "A36", "unit": None}`` for text."""
+def input_record(value: str | float, kind: str | None = None) -> dict[str, Any]:
+    """``{"value": 84.0, "unit": "in"}`` for a quantity, ``{"value": "A36", "unit": None}`` for text.
+
+    ``kind`` is the template parameter's kind ("quantity", "number" or "text"); a text is kept as
+    typed (``"C"`` is an exposure category, not a coulomb). Without a kind, a string that does
+    not read as a quantity is kept as text.
+    """
+    if kind == "text" or isinstance(value, bool):
+        return {"value": value, "unit": None}
     if isinstance(value, (int, float)):
         return {"value": float(value), "unit": ""}
     try:
@@ -282,10 +291,11 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
                 problems.append((where, f"duplicate member mark {mark!r}: already checked with template {tpl.name!r} in {seen[key]}"))
                 continue
             seen[key] = loc
-            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title))
+            typed = {n: v for n, v in (c.get("inputs") or {}).items() if n in inputs}
+            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed))
     if problems:
         raise JobError(source, problems)
-    return Job(info, calcs, source)
+    return Job(info, calcs, source, text)
 
 
 def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:
@@ -322,4 +332,4 @@ def single_template_job(template: str | Path, sets: list[str], member: str = "-"
     if problems:
         raise JobError(source, [(loc.replace("--set.inputs.", "--set ").replace("--set.inputs", "--set"), msg) for loc, msg in problems])
     info = JobInfo(number="-", title=tpl.title, units="US")
-    return Job(info, [Calc(1, "--set", tpl, member, inputs)], source)
+    return Job(info, [Calc(1, "--set", tpl, member, inputs, typed={n: v for n, v in raw.items() if n in inputs})], source)

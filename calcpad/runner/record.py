@@ -1,19 +1,44 @@
-"""The job record (JSON) of a run.
+"""The job record (JSON): what was run, on what, with what result — sealed by one digest.
 
-Record format ``"calcpad-job-record/1"``::
+Record format ``"calcpad-job-record/2"``::
 
-    {"format", "job": {number, title, client, site, engineer, checker, revision, date, codes, units},
+    {"format": "calcpad-job-record/2",
+     "job": {number, title, client, site, engineer, checker, revision, date, codes, units},
+     "job_file": {"source": path as given (or the template of a --set run),
+                  "base": folder relative template paths were resolved from,
+                  "text": the job file text exactly as read (null for a --set run),
+                  "sha256": digest of that text (null for a --set run)},
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
+     "templates": [{"name", "file", "sha256"}],      # every template the calcs used
+     "data": {"eng/sections/data/pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
      "summary": {"calcs", "checks", "ok", "ng", "errors", "status"},
-     "calcs": [{"number", "location", "template", "template_title", "member", "title",
-                "inputs": {name: {"value", "unit"}}, "input_digest", "status", "error",
+     "calcs": [{"number", "location", "template", "template_title", "template_file",
+                "template_sha256", "member", "title",
+                "inputs": {name: {"typed", "value", "unit"}}, "input_digest", "status", "error",
                 "results": {sheet title: {name: {"value", "unit"}}},
                 "checks": [{"sheet", "name", "demand", "capacity", "ratio", "status", "ref"}],
                 "sheets": [calcpad-record/1 of each sheet]}],
+     "record_digest": sha256 (hex) of the canonical JSON of everything above,
      "run": {"mode", "seconds", "created"}}
 
-Everything except ``run`` depends only on the job and the installed versions, so in-process and
-kernel runs give the same record apart from ``run``.
+- ``inputs``: ``typed`` is the value as written (the TOML value, or the ``--set`` text; null for
+  a template default a ``--set`` run did not give), ``value``/``unit`` as parsed: a float and
+  its unit for quantities, ``unit = ""`` for plain numbers, the text itself and ``unit = null``
+  for texts (an exposure category ``"C"`` stays ``"C"``).
+- Digests are SHA-256 in hex. ``sha256`` of a template is over its source file's bytes (the
+  ``.py`` or ``.ipynb`` that ran). ``data`` digests every data file shipped with calcpad
+  (section catalogs and materials): a catalog lookup reads the whole catalog, so all of them
+  count as used.
+- ``record_digest`` (:func:`record_digest`) is over ``json.dumps(sort_keys=True,
+  separators=(",", ":"), ensure_ascii=False)`` of the record without ``run`` and without
+  ``record_digest`` itself: a hand edit of any other field breaks it. Its first 12 hex digits
+  (:func:`short_digest`) are printed on every submittal page. Whoever adds a field after
+  :func:`job_record` must call :func:`seal` again (or put it under ``run``).
+
+Everything except ``run`` depends only on the job, the templates, the data and the installed
+versions, so in-process and kernel runs give the same record apart from ``run``.
+``calcpad verify`` (``runner/verify.py``) re-runs a record; ``calcpad diff`` (``runner/diff.py``)
+compares two.
 
 Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`.
 """
@@ -21,16 +46,36 @@ Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.ou
 from __future__ import annotations
 
 import datetime as dt
+import hashlib
+import json
+import math
 import platform
 from importlib import metadata
+from pathlib import Path
 from typing import Any
 
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, input_record
 
-__all__ = ["JOB_RECORD_FORMAT", "job_record", "package_versions"]
+__all__ = [
+    "JOB_RECORD_FORMAT",
+    "data_digests",
+    "data_files",
+    "file_digest",
+    "job_record",
+    "package_versions",
+    "record_digest",
+    "seal",
+    "short_digest",
+]
 
-JOB_RECORD_FORMAT = "calcpad-job-record/1"
+JOB_RECORD_FORMAT = "calcpad-job-record/2"
+#: The calcpad package folder; data files are named relative to it.
+PACKAGE_DIR = Path(__file__).resolve().parent.parent
+#: Shipped data files (section catalogs, materials), as globs under :data:`PACKAGE_DIR`.
+DATA_GLOBS = ("eng/sections/data/*.csv", "eng/data/*.toml")
+#: Keys left out of :func:`record_digest`.
+UNSEALED_KEYS = ("run", "record_digest")
 
 
 def package_versions() -> dict[str, str]:
@@ -44,7 +89,65 @@ def package_versions() -> dict[str, str]:
     return out
 
 
-def _calc_record(o: CalcOutcome) -> dict[str, Any]:
+def file_digest(path: Path) -> str:
+    """SHA-256 (hex) of a file's bytes."""
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
+
+
+def data_files() -> dict[str, Path]:
+    """Shipped data files by their name relative to the package (``eng/data/materials.toml``)."""
+    out: dict[str, Path] = {}
+    for pattern in DATA_GLOBS:
+        for f in sorted(PACKAGE_DIR.glob(pattern)):
+            out[f.relative_to(PACKAGE_DIR).as_posix()] = f
+    return out
+
+
+def data_digests() -> dict[str, str]:
+    """SHA-256 of every shipped data file (see :func:`data_files`)."""
+    return {name: file_digest(f) for name, f in data_files().items()}
+
+
+def _canonical(record: dict[str, Any]) -> bytes:
+    body = {k: v for k, v in record.items() if k not in UNSEALED_KEYS}
+    return json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False).encode("utf-8")
+
+
+def record_digest(record: dict[str, Any]) -> str:
+    """SHA-256 (hex) over the canonical JSON of ``record`` without ``run`` and ``record_digest``."""
+    return hashlib.sha256(_canonical(record)).hexdigest()
+
+
+def short_digest(record_or_digest: dict[str, Any] | str) -> str:
+    """The first 12 hex digits of a record's digest (what a submittal page prints)."""
+    digest = record_or_digest if isinstance(record_or_digest, str) else record_or_digest["record_digest"]
+    return digest[:12]
+
+
+def seal(record: dict[str, Any]) -> dict[str, Any]:
+    """Set ``record["record_digest"]`` (kept just before ``run``) and return the record."""
+    run = record.pop("run", None)
+    record.pop("record_digest", None)
+    record["record_digest"] = record_digest(record)
+    if run is not None:
+        record["run"] = run
+    return record
+
+
+def _json_safe(value: Any) -> Any:
+    """A TOML value as JSON: dates as ISO text, non-finite floats as text."""
+    if isinstance(value, dict):
+        return {str(k): _json_safe(v) for k, v in value.items()}
+    if isinstance(value, list):
+        return [_json_safe(v) for v in value]
+    if isinstance(value, float) and not math.isfinite(value):
+        return repr(value)
+    if isinstance(value, (dt.date, dt.time)):
+        return value.isoformat()
+    return value
+
+
+def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
     c = o.calc
     results: dict[str, Any] = {}
     checks: list[dict[str, Any]] = []
@@ -63,14 +166,21 @@ def _calc_record(o: CalcOutcome) -> dict[str, Any]:
                     "ref": ch["ref"],
                 }
             )
+    params = c.template.parameters
+    inputs = {
+        n: {"typed": _json_safe(c.typed.get(n)), **input_record(v, params[n].kind if n in params else None)}
+        for n, v in c.inputs.items()
+    }
     return {
         "number": c.number,
         "location": c.location,
         "template": c.template.name,
         "template_title": c.template.title,
+        "template_file": c.template.path.name,
+        "template_sha256": template_sha,
         "member": c.member,
         "title": c.title,
-        "inputs": {n: input_record(v) for n, v in c.inputs.items()},
+        "inputs": inputs,
         "input_digest": c.input_digest,
         "status": o.status,
         "error": o.error,
@@ -80,18 +190,46 @@ def _calc_record(o: CalcOutcome) -> dict[str, Any]:
     }
 
 
+def _job_file(job: Job) -> dict[str, Any]:
+    base = Path(job.source).resolve().parent if job.text is not None and job.source else None
+    return {
+        "source": job.source,
+        "base": str(base) if base is not None else None,
+        "text": job.text,
+        "sha256": hashlib.sha256(job.text.encode("utf-8")).hexdigest() if job.text is not None else None,
+    }
+
+
 def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float) -> dict[str, Any]:
-    """Build the job record dictionary."""
-    calcs = [_calc_record(o) for o in outcomes]
+    """Build the job record dictionary, sealed with its ``record_digest``."""
+    template_shas: dict[Path, str] = {}
+    for o in outcomes:
+        path = o.calc.template.path
+        if path not in template_shas:
+            try:
+                template_shas[path] = file_digest(path)
+            except OSError:  # removed or unreadable since it ran: verify will report it
+                template_shas[path] = "unreadable"
+    calcs = [_calc_record(o, template_shas[o.calc.template.path]) for o in outcomes]
+    templates: list[dict[str, str]] = []
+    for c in calcs:
+        entry = {"name": c["template"], "file": c["template_file"], "sha256": c["template_sha256"]}
+        if entry not in templates:
+            templates.append(entry)
     checks = [ch for c in calcs for ch in c["checks"]]
     errors = sum(1 for c in calcs if c["status"] == "ERROR")
     ng = sum(1 for ch in checks if ch["status"] != "OK")
     status = "ERROR" if errors else ("NG" if ng else "OK")
-    return {
+    record = {
         "format": JOB_RECORD_FORMAT,
         "job": job.info.as_dict(),
+        "job_file": _job_file(job),
         "versions": package_versions(),
+        "templates": templates,
+        "data": data_digests(),
         "summary": {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status},
         "calcs": calcs,
         "run": {"mode": mode, "seconds": round(seconds, 3), "created": dt.datetime.now(dt.UTC).isoformat(timespec="seconds")},
     }
+    return seal(record)
+

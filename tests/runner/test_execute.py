@@ -76,8 +76,8 @@ def test_record_fields(tiny_env: Path) -> None:
     rec = job_record(job, run_job(job), "inprocess", 0.5)
     assert rec["format"] == JOB_RECORD_FORMAT
     (calc,) = rec["calcs"]
-    assert calc["inputs"]["P"] == {"value": 100.0, "unit": "lbf"}
-    assert calc["inputs"]["mode"] == {"value": "ok", "unit": None}
+    assert calc["inputs"]["P"] == {"typed": "100 lbf", "value": 100.0, "unit": "lbf"}
+    assert calc["inputs"]["mode"] == {"typed": "ok", "value": "ok", "unit": None}
     assert calc["checks"][0]["name"] == "Moment" and calc["checks"][0]["ratio"] == pytest.approx(0.5)
     assert set(rec["versions"]) >= {"calcpad", "python", "pint", "sympy", "numpy"}
     other = parse_job(JOB_HEAD + tiny_calc(P='"101 lbf"')).calcs[0]
