@@ -281,7 +281,7 @@ def _verify(args: argparse.Namespace) -> int:
     from calcpad.runner.verify import verify_record, verify_renderables
 
     path, record = load_record(args.out, args.revision)
-    report = verify_record(record, rtol=args.rtol, path=path)
+    report = verify_record(record, rtol=args.rtol, path=path, templates=args.templates)
     out = Console()
     for part in verify_renderables(report):
         out.print(part, highlight=False)
@@ -350,7 +350,7 @@ def _parser() -> argparse.ArgumentParser:
     new.add_argument("--template", action="append", default=[], help="template to include (repeatable; default leg_bending)")
     demo = sub.add_parser("demo", help="render the first template to build/demo")
     demo.add_argument("--out", default="build/demo", help="output folder (default build/demo)")
-    verify = sub.add_parser("verify", help="check a record is intact and re-run its calcs to reproduce it")
+    verify = sub.add_parser("verify", parents=[library], help="check a record is intact and re-run its calcs to reproduce it")
     verify.add_argument("out", help="output folder (or its record.json)")
     verify.add_argument("--revision", help="revision sub-folder to verify (default: the newest)")
     verify.add_argument("--rtol", type=_rtol, default=1e-9, help="relative tolerance on values (default 1e-9)")

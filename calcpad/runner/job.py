@@ -115,6 +115,7 @@ class Job:
     calcs: list[Calc]
     source: str = ""
     text: str | None = None  # the job file text as read (None for a one-template --set run)
+    library: tuple[str, ...] = ()  # extra template library folders (--templates) the job was read with
 
 
 def input_record(value: str | float, kind: str | None = None) -> dict[str, Any]:
@@ -295,7 +296,7 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
             calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed))
     if problems:
         raise JobError(source, problems)
-    return Job(info, calcs, source, text)
+    return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates))
 
 
 def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:
@@ -332,4 +333,4 @@ def single_template_job(template: str | Path, sets: list[str], member: str = "-"
     if problems:
         raise JobError(source, [(loc.replace("--set.inputs.", "--set ").replace("--set.inputs", "--set"), msg) for loc, msg in problems])
     info = JobInfo(number="-", title=tpl.title, units="US")
-    return Job(info, [Calc(1, "--set", tpl, member, inputs, typed={n: v for n, v in raw.items() if n in inputs})], source)
+    return Job(info, [Calc(1, "--set", tpl, member, inputs, typed={n: v for n, v in raw.items() if n in inputs})], source, None, tuple(str(Path(d).resolve()) for d in templates))

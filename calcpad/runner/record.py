@@ -5,7 +5,7 @@ Record format ``"calcpad-job-record/2"``::
     {"format": "calcpad-job-record/2",
      "job": {number, title, client, site, engineer, checker, revision, date, codes, units},
      "job_file": {"source": path as given (or the template of a --set run),
-                  "base": folder relative template paths were resolved from,
+                  "library": extra template library folders the job was read with (--templates),
                   "text": the job file text exactly as read (null for a --set run),
                   "sha256": digest of that text (null for a --set run)},
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
@@ -191,10 +191,9 @@ def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
 
 
 def _job_file(job: Job) -> dict[str, Any]:
-    base = Path(job.source).resolve().parent if job.text is not None and job.source else None
     return {
         "source": job.source,
-        "base": str(base) if base is not None else None,
+        "library": list(job.library),
         "text": job.text,
         "sha256": hashlib.sha256(job.text.encode("utf-8")).hexdigest() if job.text is not None else None,
     }

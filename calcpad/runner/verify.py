@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import hashlib
 import time
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
@@ -71,8 +72,10 @@ class VerifyReport:
         return self.record_intact and self.templates_unchanged and self.data_unchanged and self.results_reproduced
 
 
-def rerun_record(record: dict[str, Any]) -> dict[str, Any]:
+def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -> dict[str, Any]:
     """Re-run the record's calcs in-process with the installed templates; the new record.
+
+    ``templates``: extra library folders (``--templates``), searched before the ones the record names.
 
     Raises CalcpadError when the job cannot be rebuilt (template gone, job text no longer valid).
     """
@@ -81,10 +84,11 @@ def rerun_record(record: dict[str, Any]) -> dict[str, Any]:
     from calcpad.runner.record import job_record
 
     jf = record.get("job_file") or {}
+    recorded = jf.get("library") if isinstance(jf.get("library"), list) else []
+    library = [*templates, *(d for d in recorded if isinstance(d, str) and Path(d).is_dir())]
     text = jf.get("text")
     if isinstance(text, str):
-        base = jf.get("base")
-        job = parse_job(text, str(jf.get("source") or "job text in the record"), Path(base) if isinstance(base, str) else None)
+        job = parse_job(text, str(jf.get("source") or "job text in the record"), library)
     else:
         calcs = record.get("calcs") or []
         if len(calcs) != 1 or not isinstance(jf.get("source"), str):
@@ -92,13 +96,13 @@ def rerun_record(record: dict[str, Any]) -> dict[str, Any]:
         c = calcs[0]
         inputs = c.get("inputs") if isinstance(c.get("inputs"), dict) else {}
         sets = [f"{n}={i['typed']}" for n, i in inputs.items() if isinstance(i, dict) and i.get("typed") is not None]
-        job = single_template_job(jf["source"], sets, member=str(c.get("member", "-")))
+        job = single_template_job(jf["source"], sets, member=str(c.get("member", "-")), templates=library)
     start = time.perf_counter()
     outcomes = run_job(job, mode="inprocess")
     return job_record(job, outcomes, "inprocess", time.perf_counter() - start)
 
 
-def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path | None = None) -> VerifyReport:
+def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path | None = None, templates: Sequence[str | Path] = ()) -> VerifyReport:
     """Check a record read back from disk (see the module docstring)."""
     stored = record.get("record_digest")
     try:
@@ -111,7 +115,7 @@ def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path
     if isinstance(text, str) and hashlib.sha256(text.encode("utf-8")).hexdigest() != sha:
         report.problems.append("the job file text does not match its recorded digest (job_file.sha256)")
     try:
-        new = rerun_record(record)
+        new = rerun_record(record, templates)
     except CalcpadError as exc:
         report.rerun_error = str(exc)
         return report

@@ -115,7 +115,7 @@ def test_two_concurrent_runs_both_end_cleanly(issued_out: tuple[Path, dict[str, 
         assert p.returncode == 0, err
     _assert_consistent(out, issued, user)
     assert not [p.name for p in out.iterdir() if p.name.startswith((".calcpad-tmp", ".calcpad-old"))]
-    assert json.loads((out / "rev-B" / "record.json").read_text())["calcs"][0]["inputs"]["P"] == {"value": 120.0, "unit": "lbf"}
+    assert json.loads((out / "rev-B" / "record.json").read_text())["calcs"][0]["inputs"]["P"] == {"typed": "120 lbf", "value": 120.0, "unit": "lbf"}
 
 
 @pytest.mark.parametrize("seed", range(3))
