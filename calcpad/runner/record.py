@@ -59,14 +59,17 @@ from calcpad.runner.job import Job, input_record
 
 __all__ = [
     "JOB_RECORD_FORMAT",
+    "calc_results_and_checks",
     "data_digests",
     "data_files",
     "file_digest",
     "job_record",
+    "job_summary",
     "package_versions",
     "record_digest",
     "seal",
     "short_digest",
+    "template_list",
 ]
 
 JOB_RECORD_FORMAT = "calcpad-job-record/2"
@@ -147,12 +150,11 @@ def _json_safe(value: Any) -> Any:
     return value
 
 
-def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
-    c = o.calc
+def calc_results_and_checks(sheets: list[dict[str, Any]]) -> tuple[dict[str, Any], list[dict[str, Any]]]:
+    """A calc's ``results`` and ``checks`` as derived from its sheet records."""
     results: dict[str, Any] = {}
     checks: list[dict[str, Any]] = []
-    for s in o.sheets:
-        rec = s["record"]
+    for rec in sheets:
         results[rec["title"]] = rec["results"]
         for ch in rec["checks"]:
             checks.append(
@@ -166,6 +168,31 @@ def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
                     "ref": ch["ref"],
                 }
             )
+    return results, checks
+
+
+def job_summary(calcs: list[dict[str, Any]]) -> dict[str, Any]:
+    """The record's ``summary`` as derived from its calc records."""
+    checks = [ch for c in calcs for ch in c["checks"]]
+    errors = sum(1 for c in calcs if c["status"] == "ERROR")
+    ng = sum(1 for ch in checks if ch["status"] != "OK")
+    status = "ERROR" if errors else ("NG" if ng else "OK")
+    return {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status}
+
+
+def template_list(calcs: list[dict[str, Any]]) -> list[dict[str, str]]:
+    """The record's ``templates`` as derived from its calc records (first use order, no repeats)."""
+    templates: list[dict[str, str]] = []
+    for c in calcs:
+        entry = {"name": c["template"], "file": c["template_file"], "sha256": c["template_sha256"]}
+        if entry not in templates:
+            templates.append(entry)
+    return templates
+
+
+def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
+    c = o.calc
+    results, checks = calc_results_and_checks([s["record"] for s in o.sheets])
     params = c.template.parameters
     inputs = {
         n: {"typed": _json_safe(c.typed.get(n)), **input_record(v, params[n].kind if n in params else None)}
@@ -210,23 +237,14 @@ def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float)
             except OSError:  # removed or unreadable since it ran: verify will report it
                 template_shas[path] = "unreadable"
     calcs = [_calc_record(o, template_shas[o.calc.template.path]) for o in outcomes]
-    templates: list[dict[str, str]] = []
-    for c in calcs:
-        entry = {"name": c["template"], "file": c["template_file"], "sha256": c["template_sha256"]}
-        if entry not in templates:
-            templates.append(entry)
-    checks = [ch for c in calcs for ch in c["checks"]]
-    errors = sum(1 for c in calcs if c["status"] == "ERROR")
-    ng = sum(1 for ch in checks if ch["status"] != "OK")
-    status = "ERROR" if errors else ("NG" if ng else "OK")
     record = {
         "format": JOB_RECORD_FORMAT,
         "job": job.info.as_dict(),
         "job_file": _job_file(job),
         "versions": package_versions(),
-        "templates": templates,
+        "templates": template_list(calcs),
         "data": data_digests(),
-        "summary": {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status},
+        "summary": job_summary(calcs),
         "calcs": calcs,
         "run": {"mode": mode, "seconds": round(seconds, 3), "created": dt.datetime.now(dt.UTC).isoformat(timespec="seconds")},
     }

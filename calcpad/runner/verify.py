@@ -2,8 +2,11 @@
 
 :func:`verify_record` answers four questions about a record read back from disk:
 
-1. *record intact*: its ``record_digest`` equals the digest recomputed over its content, and its
-   job file text matches the job file digest (a hand edit of any field shows here);
+1. *record intact*: its ``record_digest`` equals the digest recomputed over its content, its
+   job file text matches the job file digest, the fields derived from others agree (each calc's
+   ``results``/``checks`` with its sheets, ``summary`` with the calcs, ``templates`` with the
+   calcs) and the title block and calc titles agree with the job text; a hand edit of any field
+   breaks the digest, and these comparisons name the field where they can;
 2. *templates unchanged*: each template the calcs used has the same source digest now;
 3. *data unchanged*: every shipped catalog and material file has the same digest now;
 4. *results reproduced*: the calcs re-run in-process from the record's own job text (or, for a
@@ -18,6 +21,7 @@ accidental or hand edits, not a signature: someone who rewrites a record can rec
 from __future__ import annotations
 
 import hashlib
+import json
 import time
 from collections.abc import Sequence
 from dataclasses import dataclass, field
@@ -25,8 +29,8 @@ from pathlib import Path
 from typing import Any
 
 from calcpad.core.errors import CalcpadError
-from calcpad.runner.diff import RecordDiff, diff_records, diff_table
-from calcpad.runner.record import record_digest
+from calcpad.runner.diff import Change, RecordDiff, diff_records, diff_table
+from calcpad.runner.record import calc_results_and_checks, job_summary, record_digest, template_list
 
 __all__ = ["DEFAULT_RTOL", "VerifyReport", "rerun_record", "verify_record", "verify_renderables"]
 
@@ -41,6 +45,7 @@ class VerifyReport:
     computed_digest: str
     rtol: float
     problems: list[str] = field(default_factory=list)  # integrity problems found without re-running
+    fields: list[Change] = field(default_factory=list)  # record fields that disagree with the rest or the re-run
     rerun_error: str | None = None  # the job could not be rebuilt from the record
     diff: RecordDiff | None = None  # recorded → now
     path: Path | None = None
@@ -48,7 +53,7 @@ class VerifyReport:
     @property
     def record_intact(self) -> bool:
         """The stored digest matches the content and the job text matches its digest."""
-        return self.stored_digest == self.computed_digest and not self.problems
+        return self.stored_digest == self.computed_digest and not self.problems and not self.fields
 
     @property
     def templates_unchanged(self) -> bool:
@@ -102,6 +107,69 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
     return job_record(job, outcomes, "inprocess", time.perf_counter() - start)
 
 
+_RERUN_CALC_FIELDS = ("number", "location", "title", "template_title", "template_file", "member", "template")
+
+
+def _text(value: Any) -> str:
+    text = json.dumps(value, ensure_ascii=False, sort_keys=True) if not isinstance(value, str) else value
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
+def _leaf_diffs(a: Any, b: Any, path: str = "") -> list[tuple[str, Any, Any]]:
+    """``(path, a_leaf, b_leaf)`` wherever two JSON values differ (exactly)."""
+    if isinstance(a, dict) and isinstance(b, dict):
+        out = []
+        for k in [*a, *(k for k in b if k not in a)]:
+            out += _leaf_diffs(a.get(k), b.get(k), f"{path} › {k}" if path else str(k))
+        return out
+    if isinstance(a, list) and isinstance(b, list) and len(a) == len(b):
+        return [d for i, (x, y) in enumerate(zip(a, b, strict=True)) for d in _leaf_diffs(x, y, f"{path}[{i}]")]
+    return [] if a == b else [(path, a, b)]
+
+
+def _derived_fields(record: dict[str, Any]) -> list[Change]:
+    """Fields of ``record`` that disagree with what the rest of the record implies."""
+    out: list[Change] = []
+    calcs = record.get("calcs") or []
+    from_sheets = []  # the calcs as their sheets say they are
+    for i, c in enumerate(calcs):
+        label = f"{c.get('member', '?')} ({c.get('template', '?')})"
+        try:
+            results, checks = calc_results_and_checks(c["sheets"])
+        except (KeyError, TypeError):
+            out.append(Change(label, f"calcs[{i + 1}].sheets", "malformed", "a list of sheet records"))
+            continue
+        status = "ERROR" if c.get("error") is not None else "NG" if any(ch["status"] != "OK" for ch in checks) else "OK"
+        from_sheets.append({**c, "results": results, "checks": checks, "status": status})
+        for key, derived in (("results", results), ("checks", checks), ("status", status)):
+            for path, stored, now in _leaf_diffs(c.get(key), derived, key):
+                out.append(Change(label, path, _text(stored), _text(now), "from its own sheets"))
+    for key, derive in (("summary", job_summary), ("templates", template_list)):
+        try:
+            derived = derive(from_sheets)
+        except (KeyError, TypeError):
+            out.append(Change("", key, "cannot be derived", "calcs are malformed"))
+            continue
+        for path, stored, now in _leaf_diffs(record.get(key), derived, key):
+            out.append(Change("", path, _text(stored), _text(now), "from the calcs"))
+    return out
+
+
+def _rerun_fields(record: dict[str, Any], new: dict[str, Any]) -> list[Change]:
+    """Title block and calc fields that disagree with the re-run of the record's job text."""
+    out = [Change("", path, _text(a), _text(b), "from the job text") for path, a, b in _leaf_diffs(record.get("job"), new.get("job"), "job")]
+    olds = {(c.get("template"), c.get("member")): c for c in record.get("calcs") or []}
+    for c in new.get("calcs") or []:
+        old = olds.get((c.get("template"), c.get("member")))
+        if old is None:
+            continue
+        label = f"{c.get('member')} ({c.get('template')})"
+        for key in _RERUN_CALC_FIELDS:
+            if old.get(key) != c.get(key):
+                out.append(Change(label, key, _text(old.get(key)), _text(c.get(key)), "from the job text"))
+    return out
+
+
 def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path | None = None, templates: Sequence[str | Path] = ()) -> VerifyReport:
     """Check a record read back from disk (see the module docstring)."""
     stored = record.get("record_digest")
@@ -114,12 +182,14 @@ def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path
     text, sha = jf.get("text"), jf.get("sha256")
     if isinstance(text, str) and hashlib.sha256(text.encode("utf-8")).hexdigest() != sha:
         report.problems.append("the job file text does not match its recorded digest (job_file.sha256)")
+    report.fields = _derived_fields(record)
     try:
         new = rerun_record(record, templates)
     except CalcpadError as exc:
         report.rerun_error = str(exc)
         return report
     report.diff = diff_records(record, new, rtol, old_label="recorded", new_label="now")
+    report.fields += _rerun_fields(record, new)
     return report
 
 
@@ -139,6 +209,8 @@ def verify_renderables(report: VerifyReport) -> list[Any]:
     detail = list(report.problems)
     if report.stored_digest != report.computed_digest:
         detail.insert(0, f"stored digest {report.stored_digest[:12]}, content gives {report.computed_digest[:12]}: the record was edited")
+    if report.fields:
+        detail.append(f"{len(report.fields)} field{'s' if len(report.fields) != 1 else ''} disagree (listed below)")
     t.add_row("record intact", yes(report.record_intact), "; ".join(detail))
     if report.rerun_error is not None:
         t.add_row("re-run", yes(False), f"cannot rebuild the calcs: {report.rerun_error}")
@@ -148,6 +220,13 @@ def verify_renderables(report: VerifyReport) -> list[Any]:
         n = len(d.added) + len(d.removed) + len(d.inputs) + len(d.flips) + len(d.results)
         t.add_row("results reproduced", yes(report.results_reproduced), f"rtol {report.rtol:g}" + (f"; {n} difference{'s' if n != 1 else ''}" if n else ""))
     out: list[Any] = [heading, t]
+    if report.fields:
+        ft = Table(title="Record fields that disagree", title_justify="left")
+        for col in ("Calc", "Field", "Recorded", "Expected", "Expected from"):
+            ft.add_column(col, overflow="fold")
+        for c in report.fields:
+            ft.add_row(c.calc, c.item, c.old, c.new, c.note)
+        out.append(ft)
     if d is not None and d.rows():
         out.append(diff_table(d, title="Differences (recorded → now)"))
     elif d is not None and d.versions:

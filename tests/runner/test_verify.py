@@ -172,6 +172,35 @@ def test_verify_lists_an_altered_result(base: dict[str, Any], tmp_path: Path) ->
     ]
 
 
+def _set(path: tuple[Any, ...], value: Any) -> Any:
+    def edit(rec: dict[str, Any]) -> None:
+        node: Any = rec
+        for key in path[:-1]:
+            node = next(c for c in node if c["member"] == key[1:]) if isinstance(key, str) and key.startswith("@") else node[key]
+        node[path[-1]] = value
+
+    return edit
+
+
+@pytest.mark.parametrize(
+    ("path", "value", "expected"),
+    [
+        (("job", "engineer"), "B. Someone", ("", "job › engineer", "B. Someone", "A. Engineer")),
+        (("summary", "ng"), 1, ("", "summary › ng", "1", "0")),
+        (("templates", 0, "file"), "other.py", ("", "templates[0] › file", "other.py", "leg_bending.py")),
+        (("calcs", "@P1", "title"), "Renamed", ("P1 (leg_bending)", "title", "Renamed", "")),
+        (("calcs", "@P2", "checks", 0, "status"), "NG", ("P2 (leg_bending)", "checks[0] › status", "NG", "OK")),
+        (("calcs", "@P2", "status"), "NG", ("P2 (leg_bending)", "status", "NG", "OK")),
+        (("calcs", "@P1", "results", "Leg - bending at base", "M", "value"), 3599.0, ("P1 (leg_bending)", "results › Leg - bending at base › M › value", "3599.0", "3600.0")),
+    ],
+)
+def test_verify_names_a_hand_edited_field(base: dict[str, Any], tmp_path: Path, path: tuple[Any, ...], value: Any, expected: tuple[str, str, str, str]) -> None:
+    report = verify_record(read_record(_edited(base, tmp_path, _set(path, value)) / "record.json"))
+    assert not report.record_intact and report.stored_digest != report.computed_digest
+    assert [(c.calc, c.item, c.old, c.new) for c in report.fields] == [expected]
+    assert report.results_reproduced  # the sheets themselves were not touched
+
+
 def test_verify_finds_an_edited_template(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
     tpl_dir = tmp_path / "templates"
     tpl = copy_template("leg_bending", tpl_dir)
