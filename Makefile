@@ -18,7 +18,7 @@ $(STAMP): pyproject.toml
 demo: $(STAMP)
 	$(PY) -m calcpad.cli run examples/harbor_ridge_condenser_stand.toml --out build/demo; \
 	  rc=$$?; if [ $$rc -gt 1 ]; then exit $$rc; fi; \
-	  rec=$$($(PY) -c 'from calcpad.runner.outfolder import locate_record; print(locate_record("build/demo").resolve())'); \
+	  rec=$$($(PY) -c 'from calcpad.runner.recordfile import find_record; print(find_record("build/demo").resolve())'); \
 	  echo "submittal: $$(dirname $$rec)/submittal.html (record: $$rec)"
 
 test: $(STAMP)

@@ -68,7 +68,6 @@ __all__ = [
     "check_target",
     "folder_lock",
     "issue_revision",
-    "locate_record",
     "read_manifest",
     "revision_folder",
     "write_outputs",
@@ -549,23 +548,6 @@ def _issue_locked(out: Path, shown: str, by: str, revision: str | None) -> dict[
 
 
 # ----------------------------------------------------------------------------- reading back
-
-
-def locate_record(path: str | Path, revision: str | None = None) -> Path:
-    """The ``record.json`` of a record file, a revision folder or an output folder (latest revision)."""
-    p = Path(path)
-    if p.is_file():
-        return p
-    if (p / "record.json").is_file() and revision is None:
-        return p / "record.json"
-    manifest = read_manifest(p) if p.is_dir() else None
-    if manifest is not None:
-        rev = revision or manifest.get("latest")
-        if rev in manifest["revisions"]:
-            rec = p / revision_folder(rev) / "record.json"
-            if rec.is_file():
-                return rec
-    raise InputError(f"{path}: no record.json found (expected a record file, a revision folder or a calcpad output folder)")
 
 
 # ----------------------------------------------------------------------------- a run's files

@@ -1,8 +1,8 @@
 """Find and read a job record (``record.json``) back from an output folder.
 
 ``OUT`` may be the record file itself, a folder holding ``record.json``, or a folder whose
-revision sub-folders hold one (``OUT/rev-A/record.json``, or one level deeper): then the newest
-record is taken (by file time), or the one a ``revision`` names (the sub-folder's name, with or
+revision sub-folders hold one (``OUT/rev-A/record.json``, or one level deeper): then the
+revision the folder's manifest names as latest, else the newest record (by file time), or the one a ``revision`` names (the sub-folder's name, with or
 without a ``rev-`` prefix, or the record's ``job.revision``). Problems raise
 :class:`RecordError` with the path and what was expected; nothing here writes.
 """
@@ -14,6 +14,7 @@ from pathlib import Path
 from typing import Any
 
 from calcpad.core.errors import InputError
+from calcpad.runner.outfolder import read_manifest, revision_folder
 from calcpad.runner.record import JOB_RECORD_FORMAT
 
 __all__ = ["RECORD_NAME", "RecordError", "find_record", "load_record", "read_record"]
@@ -53,6 +54,11 @@ def find_record(target: str | Path, revision: str | None = None) -> Path:
     direct = p / RECORD_NAME
     if direct.is_file() and (revision is None or _matches(direct, revision)):
         return direct
+    manifest = read_manifest(p)
+    if manifest is not None:  # a calcpad output folder: its manifest names the latest revision
+        rev = revision or manifest.get("latest")
+        if rev in manifest.get("revisions", {}) and (p / revision_folder(rev) / RECORD_NAME).is_file():
+            return p / revision_folder(rev) / RECORD_NAME
     found = sorted({*p.glob(f"*/{RECORD_NAME}"), *p.glob(f"*/*/{RECORD_NAME}")})
     found = [f for f in found if f.is_file() and not f.parent.name.startswith(".")]
     if revision is not None:

@@ -17,10 +17,10 @@ from calcpad.runner.outfolder import (
     check_target,
     folder_lock,
     issue_revision,
-    locate_record,
     read_manifest,
     revision_folder,
 )
+from calcpad.runner.recordfile import find_record
 
 
 def _fill(text: str):
@@ -238,11 +238,11 @@ def test_issue_half_done_is_finished_and_counts_as_issued(tmp_path: Path) -> Non
     assert m is not None and m["revisions"]["A"]["issued"]["by"] == "K. Lee"
 
 
-def test_locate_record(tmp_path: Path) -> None:
+def test_find_record(tmp_path: Path) -> None:
     out = tmp_path / "out"
     _write(out, "A", "first")
     _write(out, "B", "second")
-    assert locate_record(out) == out / "rev-B" / "record.json"
-    assert locate_record(out, "A") == out / "rev-A" / "record.json"
-    assert locate_record(out / "rev-A") == out / "rev-A" / "record.json"
-    assert locate_record(out / "rev-A" / "record.json") == out / "rev-A" / "record.json"
+    assert find_record(out) == out / "rev-B" / "record.json"
+    assert find_record(out, "A") == out / "rev-A" / "record.json"
+    assert find_record(out / "rev-A") == out / "rev-A" / "record.json"
+    assert find_record(out / "rev-A" / "record.json") == out / "rev-A" / "record.json"
