@@ -180,26 +180,28 @@ def _unit_named(name: str) -> pint.Unit:
     """The registry unit of one name, or :class:`_RefusedError` saying why it is not one."""
     if name in _POUND_FORCE:
         name = "lbf"
-    suggestion = difflib.get_close_matches(name, _COMMON_UNITS, n=2, cutoff=0.6)
-    hint = f"did you mean {' or '.join(suggestion)}?" if suggestion else f"units such as {', '.join(_COMMON_UNITS[:12])}"
-    m = re.fullmatch(r"([A-Za-z]+)([2-6])", name)
-    if m:
-        hint = f"write {m.group(1)}^{m.group(2)}"
     if name in _constant_names():
-        raise _RefusedError(f"{name!r} is a physical constant, not a unit", hint)
+        raise _RefusedError(f"{name!r} is a physical constant, not a unit", _unit_hint(name))
     candidates = ureg.parse_unit_name(name)
     if not candidates:
-        raise _RefusedError(f"unknown unit {name!r}", hint)
+        raise _RefusedError(f"unknown unit {name!r}", _unit_hint(name))
     prefix, base, _suffix = candidates[0]
     if base in _constant_names():
-        raise _RefusedError(f"{name!r} is a physical constant, not a unit", hint)
+        raise _RefusedError(f"{name!r} is a physical constant, not a unit", _unit_hint(name))
     if prefix and base not in _PREFIXABLE:
-        raise _RefusedError(f"unknown unit {name!r} (read as {prefix}-{base})", hint)
+        raise _RefusedError(f"unknown unit {name!r} (read as {prefix}-{base})", _unit_hint(name))
     unit = ureg.Unit(prefix + base)
-    odd = set(unit.dimensionality) - _BASE_DIMENSIONS
-    if odd:
-        raise _RefusedError(f"{name!r} is not a unit of length, force, mass, time or angle", hint)
+    if set(unit.dimensionality) - _BASE_DIMENSIONS:
+        raise _RefusedError(f"{name!r} is not a unit of length, force, mass, time or angle", _unit_hint(name))
     return unit
+
+
+def _unit_hint(name: str) -> str:
+    m = re.fullmatch(r"([A-Za-z]+)([2-6])", name)
+    if m:
+        return f"write {m.group(1)}^{m.group(2)}"
+    close = difflib.get_close_matches(name, _COMMON_UNITS, n=2, cutoff=0.6)
+    return f"did you mean {' or '.join(close)}?" if close else f"units such as {', '.join(_COMMON_UNITS[:12])}"
 
 
 # --------------------------------------------------------------------------- grammar
@@ -231,6 +233,10 @@ class _Reader:
             return
         if tok.kind == ".":
             raise _RefusedError(f"unexpected '.' at column {tok.col}", "write a unit without a period (84 in)")
+        before = self.tokens[self.i - 1] if self.i else None
+        after_unit = before is not None and (before.kind == "name" or (before.kind == "num" and self.i >= 2 and self.tokens[self.i - 2].kind == "^"))
+        if tok.kind == "name" and after_unit:
+            raise _RefusedError(f"two units side by side before {tok.text!r}", "join units with * or - (kip*ft or kip-ft)")
         raise _RefusedError(f"unexpected {tok.text!r} at column {tok.col}", "a value is one number and one unit")
 
     # ----------------------------------------------------------------- values
