@@ -395,3 +395,28 @@ def test_any_text_is_read_or_refused_never_crashes(text):
 def test_powers_of_numbers_are_refused_by_rule(text):
     with pytest.raises(UnitInputError):
         parse_quantity(text + " in")
+
+
+def test_template_range_bounds_use_the_same_reader():
+    from calcpad.runner.template import parse_parameters
+
+    params = parse_parameters('L = "84 in"  # leg length; 3\'-6 1/2" to 1,200 in\n', "test")
+    L = params["L"]
+    assert L.lower.value.to("inch").magnitude == 42.5 and L.upper.value.to("inch").magnitude == 1200.0
+    assert L.quantity.to("inch").magnitude == 84.0
+
+
+def test_what_if_panel_uses_the_same_reader():
+    pytest.importorskip("ipywidgets")
+    from calcpad.widgets import what_if
+
+    sh = Sheet("leg")
+    sh.given("P", "85 lbf")
+    sh.given("L", "42 in")
+    sh.step("M", "P*L")
+    panel = what_if(sh)
+    assert panel.set("L", "3'-6 1/2\"") is True
+    assert sh["L"].to("inch").magnitude == 42.5
+    assert panel.set("P", "1 200 lbf") is False and "write 1,200 or 1200" in panel.last_error
+    assert panel.set("P", math.nan) is False and "finite" in panel.last_error
+    assert sh["P"].to("lbf").magnitude == 85.0  # the last good value stays
