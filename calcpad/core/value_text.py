@@ -133,7 +133,7 @@ def _tokens(text: str) -> list[_Token]:
                 raise _RefusedError(f"{text[i:j + 1]!r} is not a number", "a number has one decimal point")
             if nxt and nxt in "eE" and not re.search(r"[eE][+-]?\d+$", m.group()):
                 raise _RefusedError(f"{text[i:j + 1]!r} is not a number",
-                               "write scientific notation with digits after e (1.5e3) and a space before the unit")
+                                    "write scientific notation with digits after e (1.5e3) and a space before the unit")
             out.append(_Token("num", m.group(), i + 1, space))
             i = j
         elif c.isalpha():
@@ -294,13 +294,13 @@ class _Reader:
             value, whole = self.mixed(tok, second, self.take()), False
         elif self.at("-") and self.at("num", 1):
             raise _RefusedError(f"'-' between the numbers {tok.text} and {self.peek(1).text}",  # type: ignore[union-attr]
-                           "a mixed number is written 1-1/2 or 1 1/2; a value is one number")
+                                "a mixed number is written 1-1/2 or 1 1/2; a value is one number")
         else:
             value, whole = self.decimal(tok), "." not in tok.text and "e" not in tok.text.lower()
         nxt = self.peek()
         if nxt is not None and (nxt.kind in "^*(" or (nxt.kind == "/" and self.at("num", 1))):
             raise _RefusedError(f"{nxt.text!r} after the number {tok.text}: a value is a number, not a calculation",
-                           "work the number out first; powers belong to units (in^4)")
+                                "work the number out first; powers belong to units (in^4)")
         return _Magnitude(value, whole)
 
     @staticmethod
@@ -378,9 +378,13 @@ class _Reader:
                 self.take()
                 u = u / self.denominator()
         tok = self.peek()
-        if tok is not None and tok.kind in "/*-^":
+        if tok is None:
+            return u
+        if tok.kind == "/" or (tok.kind in "*-" and self.at("name", 1)):
             raise _RefusedError(f"{tok.text!r} at column {tok.col}: a unit has one '/' with the whole denominator after it",
-                           "write kip/(ft*in) or lbf/ft^2")
+                                "write kip/(ft*in) or lbf/ft^2")
+        if tok.kind in "*-^":
+            raise _RefusedError(f"unexpected {tok.text!r} at column {tok.col}", "write units as kip*ft, kip-ft, lbf/ft or in^4")
         return u
 
     def product(self) -> pint.Unit:

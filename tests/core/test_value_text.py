@@ -128,6 +128,9 @@ REFUSED = [
     ("2 in^4 ft", "side by side"),
     ("2 kip)", "one number and one unit"),
     ("2 kip/ft/ft", "kip/(ft*in)"),
+    ("2 kip/ft*in", "kip/(ft*in)"),  # kip/(ft*in) or (kip/ft)*in? ambiguous: refused
+    ("2 in^4^2", f"whole number from 1 to {MAX_POWER}"),
+    ("2 kip-", "write units as"),
     ("84 in.", "without a period"),
     ("84 in4", "write in^4"),
     ("84 furlongz", "unknown unit"),
