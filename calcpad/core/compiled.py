@@ -198,8 +198,12 @@ class CompiledResult(dict[str, Any]):
 
     def reason(self, case: int | tuple[int, ...] = ()) -> str:
         """Why ``case`` is invalid (``""`` when it is valid): the step, its value and its inputs."""
-        idx = np.unravel_index(case, self.valid.shape) if isinstance(case, (int, np.integer)) and self.valid.ndim else tuple(case)
-        idx = tuple(int(i) for i in idx)  # type: ignore[union-attr]
+        if self.valid.ndim == 0:
+            idx: tuple[int, ...] = ()
+        elif isinstance(case, (int, np.integer)):
+            idx = tuple(int(i) for i in np.unravel_index(int(case), self.valid.shape))
+        else:
+            idx = tuple(int(i) for i in case)
         if self.valid[idx]:
             return ""
         label = f"case {idx[0] if len(idx) == 1 else idx}: " if idx else ""
