@@ -5,7 +5,7 @@ Knows nothing of engineering, Jupyter, widgets or files.
 
 from __future__ import annotations
 
-from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, SheetError, UnitInputError
+from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, NonFiniteError, SheetError, UnitInputError
 from calcpad.core.formula import parse_condition, parse_formula
 from calcpad.core.results import NG, OK, SheetResult
 from calcpad.core.sheet import Sheet
@@ -19,6 +19,7 @@ __all__ = [
     "DimensionError",
     "DisplayPrefs",
     "FormulaError",
+    "NonFiniteError",
     "Sheet",
     "SheetError",
     "SheetResult",

@@ -133,7 +133,7 @@ def _tokens(text: str) -> list[_Token]:
                 raise _RefusedError(f"{text[i:j + 1]!r} is not a number", "a number has one decimal point")
             if nxt and nxt in "eE" and not re.search(r"[eE][+-]?\d+$", m.group()):
                 raise _RefusedError(f"{text[i:j + 1]!r} is not a number",
-                               "write scientific notation with digits after e (1.5e3) and a space before the unit")
+                                    "write scientific notation with digits after e (1.5e3) and a space before the unit")
             out.append(_Token("num", m.group(), i + 1, space))
             i = j
         elif c.isalpha():
@@ -180,26 +180,28 @@ def _unit_named(name: str) -> pint.Unit:
     """The registry unit of one name, or :class:`_RefusedError` saying why it is not one."""
     if name in _POUND_FORCE:
         name = "lbf"
-    suggestion = difflib.get_close_matches(name, _COMMON_UNITS, n=2, cutoff=0.6)
-    hint = f"did you mean {' or '.join(suggestion)}?" if suggestion else f"units such as {', '.join(_COMMON_UNITS[:12])}"
-    m = re.fullmatch(r"([A-Za-z]+)([2-6])", name)
-    if m:
-        hint = f"write {m.group(1)}^{m.group(2)}"
     if name in _constant_names():
-        raise _RefusedError(f"{name!r} is a physical constant, not a unit", hint)
+        raise _RefusedError(f"{name!r} is a physical constant, not a unit", _unit_hint(name))
     candidates = ureg.parse_unit_name(name)
     if not candidates:
-        raise _RefusedError(f"unknown unit {name!r}", hint)
+        raise _RefusedError(f"unknown unit {name!r}", _unit_hint(name))
     prefix, base, _suffix = candidates[0]
     if base in _constant_names():
-        raise _RefusedError(f"{name!r} is a physical constant, not a unit", hint)
+        raise _RefusedError(f"{name!r} is a physical constant, not a unit", _unit_hint(name))
     if prefix and base not in _PREFIXABLE:
-        raise _RefusedError(f"unknown unit {name!r} (read as {prefix}-{base})", hint)
+        raise _RefusedError(f"unknown unit {name!r} (read as {prefix}-{base})", _unit_hint(name))
     unit = ureg.Unit(prefix + base)
-    odd = set(unit.dimensionality) - _BASE_DIMENSIONS
-    if odd:
-        raise _RefusedError(f"{name!r} is not a unit of length, force, mass, time or angle", hint)
+    if set(unit.dimensionality) - _BASE_DIMENSIONS:
+        raise _RefusedError(f"{name!r} is not a unit of length, force, mass, time or angle", _unit_hint(name))
     return unit
+
+
+def _unit_hint(name: str) -> str:
+    m = re.fullmatch(r"([A-Za-z]+)([2-6])", name)
+    if m:
+        return f"write {m.group(1)}^{m.group(2)}"
+    close = difflib.get_close_matches(name, _COMMON_UNITS, n=2, cutoff=0.6)
+    return f"did you mean {' or '.join(close)}?" if close else f"units such as {', '.join(_COMMON_UNITS[:12])}"
 
 
 # --------------------------------------------------------------------------- grammar
@@ -231,6 +233,10 @@ class _Reader:
             return
         if tok.kind == ".":
             raise _RefusedError(f"unexpected '.' at column {tok.col}", "write a unit without a period (84 in)")
+        before = self.tokens[self.i - 1] if self.i else None
+        after_unit = before is not None and (before.kind == "name" or (before.kind == "num" and self.i >= 2 and self.tokens[self.i - 2].kind == "^"))
+        if tok.kind == "name" and after_unit:
+            raise _RefusedError(f"two units side by side before {tok.text!r}", "join units with * or - (kip*ft or kip-ft)")
         raise _RefusedError(f"unexpected {tok.text!r} at column {tok.col}", "a value is one number and one unit")
 
     # ----------------------------------------------------------------- values
@@ -288,13 +294,13 @@ class _Reader:
             value, whole = self.mixed(tok, second, self.take()), False
         elif self.at("-") and self.at("num", 1):
             raise _RefusedError(f"'-' between the numbers {tok.text} and {self.peek(1).text}",  # type: ignore[union-attr]
-                           "a mixed number is written 1-1/2 or 1 1/2; a value is one number")
+                                "a mixed number is written 1-1/2 or 1 1/2; a value is one number")
         else:
             value, whole = self.decimal(tok), "." not in tok.text and "e" not in tok.text.lower()
         nxt = self.peek()
         if nxt is not None and (nxt.kind in "^*(" or (nxt.kind == "/" and self.at("num", 1))):
             raise _RefusedError(f"{nxt.text!r} after the number {tok.text}: a value is a number, not a calculation",
-                           "work the number out first; powers belong to units (in^4)")
+                                "work the number out first; powers belong to units (in^4)")
         return _Magnitude(value, whole)
 
     @staticmethod
@@ -372,9 +378,13 @@ class _Reader:
                 self.take()
                 u = u / self.denominator()
         tok = self.peek()
-        if tok is not None and tok.kind in "/*-^":
+        if tok is None:
+            return u
+        if tok.kind == "/" or (tok.kind in "*-" and self.at("name", 1)):
             raise _RefusedError(f"{tok.text!r} at column {tok.col}: a unit has one '/' with the whole denominator after it",
-                           "write kip/(ft*in) or lbf/ft^2")
+                                "write kip/(ft*in) or lbf/ft^2")
+        if tok.kind in "*-^":
+            raise _RefusedError(f"unexpected {tok.text!r} at column {tok.col}", "write units as kip*ft, kip-ft, lbf/ft or in^4")
         return u
 
     def product(self) -> pint.Unit:

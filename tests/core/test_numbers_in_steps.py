@@ -73,6 +73,8 @@ def test_compiled_marks_the_case_invalid_with_its_reason(formula, x):
     with pytest.raises(NonFiniteError, match="1 case"):
         out.require_valid()
     assert f(x=0.5).require_valid().all_valid
+    one = f(x=x)  # a single case: reason() needs no index
+    assert not one.all_valid and one.reason().startswith("step 'y'") and one.reason(0) == one.reason()
 
 
 def leg(demand_formula: str = "P*L") -> Sheet:
