@@ -320,9 +320,8 @@ def _save_traceback() -> str:
 
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the ``calcpad`` console script; returns the exit code (see module doc)."""
-    args = _parser().parse_args(argv)
     try:
-        return _dispatch(args)
+        return _dispatch(_parser().parse_args(argv))
     except KeyboardInterrupt:
         print("calcpad: interrupted", file=sys.stderr)
         return EXIT_INTERRUPTED

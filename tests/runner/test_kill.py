@@ -33,7 +33,9 @@ def _job(folder: Path, revision: str, P: str) -> Path:
 
 
 def _child(loops: int | str, out: Path, *jobs: Path | str, env: dict[str, str]) -> subprocess.Popen[str]:
-    cmd = [sys.executable, "-m", "tests.runner.run_child", str(loops), str(out), *map(str, jobs)]
+    # run as a file, like the `calcpad` console script (under `python -m`, CPython may end a process
+    # that caught a KeyboardInterrupt by SIGINT instead of its exit code; a shell shows 130 either way)
+    cmd = [sys.executable, str(Path(__file__).with_name("run_child.py")), str(loops), str(out), *map(str, jobs)]
     proc = subprocess.Popen(cmd, cwd=ROOT, env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
     assert proc.stdout is not None and proc.stdout.readline().strip() == "ready"
     return proc
