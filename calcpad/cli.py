@@ -31,8 +31,6 @@ import traceback
 from pathlib import Path
 from typing import Any
 
-from calcpad.core.errors import CalcpadError
-
 __all__ = ["main"]
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -96,6 +94,8 @@ def _run(args: argparse.Namespace) -> int:
         out_dir = Path(args.out) if args.out else None
     else:
         if args.set:
+            from calcpad.core.errors import CalcpadError
+
             raise CalcpadError("--set applies to a template run (calcpad run TEMPLATE.py --set ...); put job values in the job file")
         job = load_job(args.target, templates=args.templates)
         out_dir = Path(args.out) if args.out else Path("build") / Path(args.target).stem
@@ -173,6 +173,7 @@ def _templates(extra: list[str]) -> int:
     from rich.console import Console
     from rich.table import Table
 
+    from calcpad.core.errors import CalcpadError
     from calcpad.runner.template import list_templates, load_template
 
     out = Console()
@@ -373,6 +374,8 @@ def _wait_seconds(text: str) -> float:
 
 
 def _check_library(args: argparse.Namespace) -> None:
+    from calcpad.core.errors import CalcpadError
+
     for d in getattr(args, "templates", []):
         if not Path(d).is_dir():
             raise CalcpadError(f"--templates {d}: not a folder; give a folder of template notebooks")
@@ -406,30 +409,55 @@ def _save_traceback() -> str:
     return path
 
 
-def main(argv: list[str] | None = None) -> int:
-    """Entry point of the ``calcpad`` console script; returns the exit code (see module doc)."""
-    args = _parser().parse_args(argv)
+def _caused_by_interrupt(exc: BaseException) -> bool:
+    """True when a KeyboardInterrupt is in ``exc``'s chain (Python wraps some, e.g. in class creation)."""
+    seen: set[int] = set()
+    cur: BaseException | None = exc
+    while cur is not None and id(cur) not in seen:
+        if isinstance(cur, KeyboardInterrupt):
+            return True
+        seen.add(id(cur))
+        cur = cur.__cause__ or cur.__context__
+    return False
+
+
+def _internal_error(exc: Exception) -> int:
+    head = f"calcpad: internal error ({type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''})"
     try:
-        return _dispatch(args)
+        log = _save_traceback()
+    except OSError:
+        print(f"{head}; the details could not be saved. Please report it.", file=sys.stderr)
+    else:
+        print(f"{head}; details saved to {log}. Please report it with that file.", file=sys.stderr)
+    return EXIT_INTERNAL
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Entry point of the ``calcpad`` console script; returns the exit code (see module doc).
+
+    Everything heavy (sympy, pint, the runner) is imported in here, so Ctrl-C while calcpad
+    starts is reported like any other interruption.
+    """
+    try:
+        from calcpad.core.errors import CalcpadError
+
+        try:
+            return _dispatch(_parser().parse_args(argv))
+        except CalcpadError as exc:
+            print(f"calcpad: {exc}", file=sys.stderr)
+            return int(getattr(exc, "exit_code", EXIT_BAD))
+        except OSError as exc:
+            where = exc.filename if exc.filename is not None else "a file"
+            print(f"calcpad: cannot read or write {where}: {exc.strerror or exc}", file=sys.stderr)
+            return EXIT_WRITE
     except KeyboardInterrupt:
         print("calcpad: interrupted", file=sys.stderr)
         return EXIT_INTERRUPTED
-    except CalcpadError as exc:
-        print(f"calcpad: {exc}", file=sys.stderr)
-        return int(getattr(exc, "exit_code", EXIT_BAD))
-    except OSError as exc:
-        where = exc.filename if exc.filename is not None else "a file"
-        print(f"calcpad: cannot read or write {where}: {exc.strerror or exc}", file=sys.stderr)
-        return EXIT_WRITE
     except Exception as exc:
-        head = f"calcpad: internal error ({type(exc).__name__}: {str(exc).splitlines()[0] if str(exc) else ''})"
-        try:
-            log = _save_traceback()
-        except OSError:
-            print(f"{head}; the details could not be saved. Please report it.", file=sys.stderr)
-        else:
-            print(f"{head}; details saved to {log}. Please report it with that file.", file=sys.stderr)
-        return EXIT_INTERNAL
+        if _caused_by_interrupt(exc):
+            print("calcpad: interrupted", file=sys.stderr)
+            return EXIT_INTERRUPTED
+        return _internal_error(exc)
 
 
 if __name__ == "__main__":

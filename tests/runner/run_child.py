@@ -1,7 +1,7 @@
 """Child process for the kill/interrupt/concurrency tests: runs ``calcpad run`` in a loop.
 
-Usage: python -m tests.runner.run_child LOOPS OUT JOB [JOB ...]
-       python -m tests.runner.run_child issue OUT REVISION BY
+Usage: python tests/runner/run_child.py LOOPS OUT JOB [JOB ...]
+       python tests/runner/run_child.py issue OUT REVISION BY
 
 ``os.replace`` is slowed (20 ms before and after each rename) to widen the windows between the
 steps of a write, so a signal at a random time lands inside one often. Prints ``ready`` once the

@@ -199,3 +199,19 @@ def test_readme_exit_code_table_matches_cli() -> None:
     table = text[text.index("### Exit codes") :]
     codes = [int(c) for c in re.findall(r"^\| (\d+) \|", table, re.M)]
     assert codes == [cli.EXIT_OK, cli.EXIT_NG, cli.EXIT_BAD, cli.EXIT_WRITE, cli.EXIT_INTERNAL, cli.EXIT_INTERRUPTED]
+
+
+def test_interrupt_wrapped_by_python_is_still_interrupted(site: Path, monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
+    """Python wraps an exception raised while a class is created (e.g. Ctrl-C during an import) in RuntimeError."""
+    import calcpad.runner.execute as execute
+
+    def wrapped(*args: object, **kwargs: object) -> None:
+        try:
+            raise KeyboardInterrupt
+        except KeyboardInterrupt as exc:
+            raise RuntimeError("Error calling __set_name__") from exc
+
+    monkeypatch.setattr(execute, "run_job", wrapped)
+    monkeypatch.chdir(site / "proj")
+    assert main(["run", "job.toml", "--out", "../out"]) == 130
+    assert capsys.readouterr().err == "calcpad: interrupted\n"

@@ -33,7 +33,9 @@ def _job(folder: Path, revision: str, P: str) -> Path:
 
 
 def _child(loops: int | str, out: Path, *jobs: Path | str, env: dict[str, str]) -> subprocess.Popen[str]:
-    cmd = [sys.executable, "-m", "tests.runner.run_child", str(loops), str(out), *map(str, jobs)]
+    # run as a file, like the `calcpad` console script (under `python -m`, CPython may end a process
+    # that caught a KeyboardInterrupt by SIGINT instead of its exit code; a shell shows 130 either way)
+    cmd = [sys.executable, str(Path(__file__).with_name("run_child.py")), str(loops), str(out), *map(str, jobs)]
     proc = subprocess.Popen(cmd, cwd=ROOT, env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
     assert proc.stdout is not None and proc.stdout.readline().strip() == "ready"
     return proc
@@ -139,3 +141,23 @@ def test_kill_9_while_issuing(issued_out: tuple[Path, dict[str, bytes], dict[str
     assert all((p.stat().st_mode & 0o222) == 0 for p in [out / "rev-B", *(out / "rev-B").iterdir()])
     assert main(["run", str(job), "--out", str(out)]) == 2
     _assert_consistent(out, issued, user)
+
+
+def test_ctrl_c_during_start_up(tmp_path: Path, tiny_env: Path) -> None:
+    """The heavy imports happen inside main(): Ctrl-C while calcpad starts is 'interrupted', exit 130."""
+    job = _job(tmp_path, "B", "120 lbf")
+    env = {**os.environ, "CALCPAD_TEMPLATES": str(tiny_env), "PYTHONPATH": str(ROOT)}
+    code = (
+        "import sys, calcpad.cli as cli\n"
+        "print('ready' if 'sympy' not in sys.modules and 'pint' not in sys.modules else 'heavy', flush=True)\n"
+        f"sys.exit(cli.main(['run', {str(job)!r}, '--out', {str(tmp_path / 'out')!r}]))\n"
+    )
+    rng = random.Random(11)
+    for _ in range(3):
+        proc = subprocess.Popen([sys.executable, "-c", code], cwd=tmp_path, env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+        assert proc.stdout is not None and proc.stdout.readline().strip() == "ready"
+        time.sleep(rng.uniform(0.0, 0.3))
+        proc.send_signal(signal.SIGINT)
+        _, err = proc.communicate(timeout=60)
+        assert (proc.returncode, err) == (130, "calcpad: interrupted\n")
+        assert not (tmp_path / "out").exists()
