@@ -310,6 +310,8 @@ def _diff(args: argparse.Namespace) -> int:
     diff = diff_records(old, new, rtol=args.rtol)
     out.print(diff_table(diff, title=f"Changes from {old_path} (rev. {diff.old_label}) to {new_path} (rev. {diff.new_label})"), highlight=False)
     if args.html:
+        from calcpad.core.errors import CalcpadError
+
         target = Path(args.html)
         if target.exists() and not target.read_text(encoding="utf-8", errors="replace").startswith(_DIFF_MARK):
             raise CalcpadError(f"--html {args.html}: the file exists and was not written by calcpad diff; choose another name")
