@@ -133,7 +133,7 @@ class Parameter:
             unit = value.get("unit", "")
             if not isinstance(unit, str):
                 raise InputError(f"{where}.unit: {unit!r}; expected a unit string such as 'in'")
-            value = f"{v:g} {unit}".strip() if isinstance(v, float) else f"{v} {unit}".strip()
+            value = f"{v!r} {unit}".strip()  # repr keeps every digit ({v:g} kept six)
         if self.kind == "text":
             if not isinstance(value, str) or not value.strip():
                 raise InputError(f"{where}: {value!r}; expected a text value like {self.default!r}")
@@ -157,7 +157,7 @@ class Parameter:
             )
         if self.kind == "number":  # same Python type as the template's default
             if isinstance(self.default, str):
-                return value if isinstance(value, str) else f"{value:g}"
+                return value if isinstance(value, str) else repr(value)
             return float(q.magnitude) if isinstance(value, str) else value
         return value if isinstance(value, str) else f"{value} {self.unit}".strip()
 

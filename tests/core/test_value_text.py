@@ -399,6 +399,16 @@ def test_powers_of_numbers_are_refused_by_rule(text):
         parse_quantity(text + " in")
 
 
+@pytest.mark.parametrize("table, inches", [('{ value = 84.1234567, unit = "in" }', 84.1234567), ('{ value = 84, unit = "in" }', 84.0),
+                                           ('{ value = 6.000000001, unit = "in" }', 6.000000001)])
+def test_job_value_tables_keep_every_digit(table, inches):
+    from calcpad.runner.job import parse_job
+
+    job = parse_job(JOB.replace("{P}", '"85 lbf"').replace("{FS}", "1.23456789").replace('"42 in"', table))
+    assert parse_quantity(job.calcs[0].inputs["L"]).to("inch").magnitude == inches
+    assert parse_quantity(job.calcs[0].inputs["FS_req"]).magnitude == 1.23456789
+
+
 def test_template_range_bounds_use_the_same_reader():
     from calcpad.runner.template import parse_parameters
 
