@@ -315,10 +315,9 @@ def single_template_job(template: str | Path, sets: list[str], member: str = "-"
     ``template`` is a library name or the path of a file inside a library folder.
     """
     source = str(template)
-    text = str(template)
-    is_path = Path(template).exists() or "/" in text or "\\" in text
+    is_path = Path(template).exists() or "/" in source or "\\" in source
     try:
-        tpl = load_template(library_template(template, templates) if is_path else find_template(text, templates))
+        tpl = load_template(library_template(template, templates) if is_path else find_template(source, templates))
     except TemplateError as exc:
         raise JobError(source, [("template", str(exc))]) from None
     problems: list[tuple[str, str]] = []

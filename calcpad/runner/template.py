@@ -479,7 +479,7 @@ def _scan(dirs: Sequence[Path]) -> tuple[dict[str, Path], dict[str, Path]]:
         real_dir = d.resolve()
         here: dict[str, Path] = {}
         for f in sorted(d.iterdir()):
-            if f.suffix in (".py", ".ipynb") and not f.name.startswith(("_", ".")) and (f.stem not in here or f.suffix == ".py"):
+            if f.suffix in (".py", ".ipynb") and _NAME.match(f.stem) and (f.stem not in here or f.suffix == ".py"):
                 here[f.stem] = f
         for stem, f in here.items():
             if stem in found:
