@@ -63,6 +63,7 @@ class TemplateSession:
 
     def __init__(self, template: str | Path | Template, values: Mapping[str, Any] | None = None) -> None:
         self.template = template if isinstance(template, Template) else load_template(find_template(str(template)))
+        self._parsed: dict[tuple[str, Any], pint.Quantity] = {}
         self.parameters: dict[str, Parameter] = {n: p for n, p in self.template.parameters.items() if n not in CONTEXT_NAMES}
         self.values: dict[str, str | float] = {n: p.default for n, p in self.template.parameters.items()}
         given = dict(values) if values is not None else _user_values(list(self.template.parameters))
@@ -77,8 +78,12 @@ class TemplateSession:
         out = {}
         for n, p in self.template.parameters.items():
             if p.kind != "text" and n in vals:
-                with contextlib.suppress(CalcpadError):
-                    out[n] = parse_quantity(vals[n], n)
+                key = (n, vals[n])
+                if key not in self._parsed:  # values repeat: parse each once
+                    with contextlib.suppress(CalcpadError):
+                        self._parsed[key] = parse_quantity(vals[n], n)
+                if key in self._parsed:
+                    out[n] = self._parsed[key]
         return out
 
     def check(self, name: str, value: Any, others: Mapping[str, Any] | None = None) -> str | float:

@@ -12,8 +12,8 @@ With ``template=`` every control follows the template's parameters cell: its lab
 description in words with the symbol, a value goes through the same parser, dimension check,
 range and choices as a job file or ``calcpad run --set`` (an out-of-range value shows an inline
 message and the last good result stays), a section is a dropdown of its catalog family, a grade
-a dropdown of catalog grades of the same kind. A parameter that sets a given of the sheet (same
-name, or named in ``bind``) changes that given and evaluates incrementally; any other (section,
+a dropdown of catalog grades of the same kind. A parameter that sets a given of the sheet (named in
+``bind``) changes that given and evaluates incrementally; any other (section,
 grade, a factor) re-runs the template's cells before its what-if cell.
 
 Without ``template=`` there is one control per given (slider for ``min``/``max``, dropdown for
@@ -145,7 +145,7 @@ class WhatIfPanel:
         names: Sequence[str] | None = None,
         show: str = "checks",
         template: Any = None,
-        bind: Mapping[str, str] | None = None,
+        bind: Mapping[str, str] | Sequence[str] | None = None,
         values: Mapping[str, Any] | None = None,
     ) -> None:
         if not isinstance(sheet, Sheet):
@@ -163,7 +163,8 @@ class WhatIfPanel:
             from calcpad.widgets.session import TemplateSession
 
             self.session = TemplateSession(template, values)
-            self._inputs = self._template_inputs(names, dict(bind or {}))
+            pairs = dict(bind) if isinstance(bind, Mapping) else {str(n): str(n) for n in bind or ()}
+            self._inputs = self._template_inputs(names, pairs)
         else:
             self._inputs = self._given_inputs(names)
         self._start = {n: self._current(n) for n in self._inputs}
@@ -205,15 +206,19 @@ class WhatIfPanel:
             if name not in params:
                 raise SheetError(f"what-if panel: {name!r} is not a parameter of template {self.session.template.name!r}{self.session.template.suggest(name)}")
         givens = self._givens()
+        qs = self.session.quantities()
         for p, g in bind.items():
             if p not in params or g not in givens:
                 raise SheetError(f"what-if panel: bind {p!r} -> {g!r}: expected a parameter of the template and a given of the sheet")
-        qs = self.session.quantities()
+            q, gv = qs.get(p), givens[g].value
+            same = q is not None and q.dimensionality == gv.dimensionality and abs(float((q - gv).to_base_units().magnitude)) <= 1e-9 * max(
+                abs(float(gv.to_base_units().magnitude)), 1e-300)
+            if not same:
+                raise SheetError(f"what-if panel: bind {p!r} -> {g!r}: the parameter ({self.session.values[p]!r}) and the given ({gv:~}) differ")
         out = {}
         for name in picked:
             p = params[name]
-            given = bind.get(name) or (name if name in givens and p.kind != "text" and qs.get(name) is not None
-                                       and qs[name].dimensionality == givens[name].value.dimensionality else None)
+            given = bind.get(name)
             label = _label(p.description, name_text(name))
             value = self.session.values[name]
             if p.kind == "text":
@@ -590,7 +595,7 @@ def what_if(
     names: Sequence[str] | None = None,
     show: str = "checks",
     template: Any = None,
-    bind: Mapping[str, str] | None = None,
+    bind: Mapping[str, str] | Sequence[str] | None = None,
     values: Mapping[str, Any] | None = None,
 ) -> WhatIfPanel:
     """Make a what-if panel for ``sheet``.
@@ -602,8 +607,10 @@ def what_if(
         show: ``"checks"`` for the check summary, ``"sheet"`` to add a live copy of the sheet.
         template: The template the sheet comes from (name or path): controls, ranges, choices and
             the value parser follow its parameters cell.
-        bind: Parameter -> given for parameters that set a given of another name
-            (``{"P": "P_top"}``); a given with the parameter's own name is bound automatically.
+        bind: Parameters that only set one given of the sheet: ``{"P": "P_top"}``, or a list of
+            names for givens named like their parameter. These change the given directly (and
+            have sensitivity and "what would it take"); every other parameter re-runs the
+            template. Bind only a parameter the template uses for nothing but that given.
         values: The template's current values (default: the notebook's, else the defaults).
 
     Raises:

@@ -20,6 +20,7 @@ from calcpad.widgets import live, what_if
 from calcpad.widgets.session import TemplateSession
 
 POST_BIND = {"P": "P_top", "H": "H_top", "L": "L_post"}
+LEG_BIND = ["P", "L", "D_o", "t", "F_y"]
 
 
 def leg_ratio(P: float = 85.0, L: float = 42.0, D_o: float = 1.9, t: float = 0.145, F_y: float = 35_000.0, FS: float = 1.67) -> float:
@@ -31,7 +32,7 @@ def leg_ratio(P: float = 85.0, L: float = 42.0, D_o: float = 1.9, t: float = 0.1
 
 def leg_panel(**kw):
     sh = TemplateSession("leg_bending").build()[0]
-    return what_if(sh, template="leg_bending", **kw)
+    return what_if(sh, template="leg_bending", bind=LEG_BIND, **kw)
 
 
 def post_panel(**kw):
@@ -139,7 +140,7 @@ def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> No
     live.show(sh)
     live.show_summary(sh)
     assert len(shown) == 1 + len(sh.steps) + 1
-    panel = what_if(sh, template="leg_bending")
+    panel = what_if(sh, template="leg_bending", bind=LEG_BIND)
     updated.clear()
     assert panel.set("P", "300 lbf") is True
     step_ids = {u[0] for u in updated if "summary" not in u[0]}
@@ -318,3 +319,19 @@ def test_exported_block_runs_through_the_job_loader_and_reproduces_the_ratios(wh
     assert got.keys() == panel.ratios.keys()
     for title, ratio in panel.ratios.items():
         assert got[title] == pytest.approx(ratio, rel=1e-12)
+
+
+def test_bind_refuses_a_given_that_the_parameter_does_not_set() -> None:
+    from calcpad.core.errors import SheetError
+
+    sh = TemplateSession("leg_bending").build()[0]
+    with pytest.raises(SheetError, match=r"bind 'P' -> 'L'.*differ"):
+        what_if(sh, template="leg_bending", bind={"P": "L"})
+
+
+def test_an_unbound_parameter_re_runs_the_template() -> None:
+    panel = leg_panel()
+    runs = panel.session.runs
+    assert panel.set("FS_req", 2.0) is True  # FS_req goes into the check, not into a given
+    assert panel.session.runs == runs + 1
+    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
