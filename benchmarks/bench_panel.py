@@ -45,8 +45,8 @@ def _median(fn: Callable[[int], None]) -> float:
 
 def main() -> None:
     live._shell = lambda: object()  # type: ignore[assignment] # as if in a notebook
-    ipd.display = lambda *a, **k: None  # type: ignore[assignment]
-    ipd.update_display = lambda *a, **k: None  # type: ignore[assignment]
+    ipd.display = lambda *_a, **_k: None  # type: ignore[assignment]
+    ipd.update_display = lambda *_a, **_k: None  # type: ignore[assignment]
     print(f"{'template':15} {'mode':7} {'change':8} {'rebuild ms':>10} {'refresh ms':>10} {'ratio':>6}")
     for name, (bind, param, values) in CASES.items():
         session = TemplateSession(name)
