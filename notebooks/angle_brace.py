@@ -91,7 +91,7 @@ show_summary(sh)
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, template="angle_brace", bind={"P_c": "P_comp", "P_t": "P_tens", "L": "L_br", "weld_length": "l_w", "gusset_t": "t_gus"})
+panel = what_if(sh, template="angle_brace", bind={"P_c": "P_comp", "P_t": "P_tens", "L": "L_br", "weld_length": "l_w", "gusset_t": "t_gus"}, values=globals())
 panel
 
 # %%

@@ -75,7 +75,7 @@ show_summary(sh)
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, template="cross_member", bind={"span": "L", "w": "w", "P": "P_mid", "defl_limit": "N_defl"})
+panel = what_if(sh, template="cross_member", bind={"span": "L", "w": "w", "P": "P_mid", "defl_limit": "N_defl"}, values=globals())
 panel
 
 # %%

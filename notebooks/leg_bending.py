@@ -49,7 +49,7 @@ show_summary(sh)
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, template="leg_bending", bind=["P", "L", "D_o", "t", "F_y"])
+panel = what_if(sh, template="leg_bending", bind=["P", "L", "D_o", "t", "F_y"], values=globals())
 panel
 
 # %%

@@ -76,7 +76,7 @@ show_summary(sh)
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, template="post_combined", bind={"P": "P_top", "H": "H_top", "L": "L_post"})
+panel = what_if(sh, template="post_combined", bind={"P": "P_top", "H": "H_top", "L": "L_post"}, values=globals())
 panel
 
 # %%

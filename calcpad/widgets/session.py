@@ -57,8 +57,9 @@ class TemplateSession:
 
     Args:
         template: A template name, a path, or a loaded :class:`Template`.
-        values: Current values; default the running notebook's values of the parameters
-            (in IPython), else the template's defaults.
+        values: Current values (a mapping that may hold other names too, e.g. a template's
+            ``globals()``, so job values injected by the runner are seen); default the running
+            notebook's values of the parameters (in IPython), else the template's defaults.
     """
 
     def __init__(self, template: str | Path | Template, values: Mapping[str, Any] | None = None) -> None:
@@ -68,7 +69,7 @@ class TemplateSession:
         self.values: dict[str, str | float] = {n: p.default for n, p in self.template.parameters.items()}
         given = dict(values) if values is not None else _user_values(list(self.template.parameters))
         for name, value in given.items():
-            if name in self.template.parameters:
+            if name in self.template.parameters and name not in CONTEXT_NAMES and isinstance(value, (str, int, float)):
                 self.values[name] = self.check(name, value, given)
         self.runs = 0
 
