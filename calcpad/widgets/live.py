@@ -28,7 +28,7 @@ from typing import Any
 from calcpad.core.results import CheckResult, HeadingResult, SheetResult
 from calcpad.core.sheet import Sheet
 
-__all__ = ["SheetView", "quiet", "refresh", "show", "show_summary", "step_bundle", "summary_bundle", "transfer"]
+__all__ = ["SheetView", "quiet", "refresh", "show", "show_summary", "step_bundle", "summary_bundle", "transfer", "view_for"]
 
 _EMPTY: dict[str, str] = {"text/plain": ""}
 _ids = itertools.count(1)
@@ -176,7 +176,14 @@ def _slot_bundles(bundles: list[dict[str, str]], slots: int) -> list[dict[str, s
 
 
 def _live_for(sheet: Sheet) -> _Live | None:
-    return _LIVE.get(id(sheet))
+    live = _LIVE.get(id(sheet))
+    return live if live is not None and live.view.sheet is sheet else None
+
+
+def view_for(sheet: Sheet) -> SheetView | None:
+    """The view of ``sheet`` shown live in the notebook (None when it is not)."""
+    live = _live_for(sheet)
+    return live.view if live is not None else None
 
 
 def show(sheet: Sheet) -> SheetView | None:

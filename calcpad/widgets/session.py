@@ -65,6 +65,7 @@ class TemplateSession:
     def __init__(self, template: str | Path | Template, values: Mapping[str, Any] | None = None) -> None:
         self.template = template if isinstance(template, Template) else load_template(find_template(str(template)))
         self._parsed: dict[tuple[str, Any], pint.Quantity] = {}
+        self._code: list[Any] | None = None
         self.parameters: dict[str, Parameter] = {n: p for n, p in self.template.parameters.items() if n not in CONTEXT_NAMES}
         self.values: dict[str, str | float] = {n: p.default for n, p in self.template.parameters.items()}
         given = dict(values) if values is not None else _user_values(list(self.template.parameters))
@@ -101,6 +102,20 @@ class TemplateSession:
         p.check_range(coerced, self.quantities(merged), where)
         return coerced
 
+    def _compiled_cells(self) -> list[tuple[int, Any]]:
+        """Code cells after the parameters cell and before the what-if cell, compiled once."""
+        if self._code is None:
+            tpl = self.template
+            cells = []
+            for cell in tpl.code_cells:
+                if cell.index == tpl.parameters_cell:
+                    continue
+                if is_what_if_cell(cell.source):
+                    break
+                cells.append((cell.index, compile(cell.source, f"<template {tpl.name} cell {cell.index}>", "exec")))
+            self._code = cells
+        return self._code
+
     def build(self, values: Mapping[str, Any] | None = None) -> list[Sheet]:
         """Run the template's code cells before its what-if cell; the sheets made, in order.
 
@@ -114,17 +129,13 @@ class TemplateSession:
         sink = io.StringIO()
         with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink), warnings.catch_warnings(), live.quiet():
             warnings.simplefilter("ignore")  # a what-if run's warnings would pile up under the panel
-            for cell in tpl.code_cells:
-                if cell.index == tpl.parameters_cell:
-                    continue
-                if is_what_if_cell(cell.source):
-                    break
+            for index, code in self._compiled_cells():
                 try:
-                    exec(compile(cell.source, f"<template {tpl.name} cell {cell.index}>", "exec"), ns)  # template code (trusted)
+                    exec(code, ns)  # template code (trusted); the values are data in `ns`
                 except CalcpadError as exc:
                     raise InputError(str(exc)) from None
                 except Exception as exc:
-                    raise InputError(f"template {tpl.name!r} cell {cell.index}: {type(exc).__name__}: {exc}") from None
+                    raise InputError(f"template {tpl.name!r} cell {index}: {type(exc).__name__}: {exc}") from None
                 finally:
                     plt = sys.modules.get("matplotlib.pyplot")
                     if plt is not None:

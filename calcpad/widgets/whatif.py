@@ -469,24 +469,26 @@ class WhatIfPanel:
         self._out.outputs = (
             {"output_type": "display_data", "data": {"text/html": summary_html(result), "text/plain": summary_text(result)}, "metadata": {}},
         )
-        live.refresh(self.sheet)
+        changed = live.refresh(self.sheet)
         if self.show == "sheet":
-            self._redraw_sheet()
+            view = live.view_for(self.sheet)  # printed once for both copies when the sheet is shown live
+            if view is None:
+                view = self._view
+                changed = view.update()
+            self._redraw_sheet(view, changed)
 
-    def _redraw_sheet(self) -> list[int]:
+    def _redraw_sheet(self, view: live.SheetView, changed: list[int]) -> None:
         """Redraw the panel's copy of the sheet: only outputs of steps whose print changed."""
-        changed = self._view.update()
-        bundles = self._view.bundles()
+        bundles = view.bundles()
         w = _widgets()
         if len(self._sheet_outs) != len(bundles):
             while len(self._sheet_outs) < len(bundles):
                 self._sheet_outs.append(w.Output())
             del self._sheet_outs[len(bundles) :]
             self._sheet_box.children = tuple(self._sheet_outs)
-        for i in changed if self._sheet_outs and len(changed) < len(bundles) + 1 else range(len(bundles)):
-            if i < len(bundles):
-                self._sheet_outs[i].outputs = ({"output_type": "display_data", "data": bundles[i], "metadata": {}},)
-        return changed
+        for i, out in enumerate(self._sheet_outs):
+            if i in changed or not out.outputs or out.outputs[0]["data"] is not bundles[i]:
+                out.outputs = ({"output_type": "display_data", "data": bundles[i], "metadata": {}},)
 
     @property
     def checks(self) -> list[CheckResult]:

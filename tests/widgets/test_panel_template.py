@@ -133,7 +133,7 @@ def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> No
 
     shown: list[str] = []
     updated: list[tuple[str, str]] = []
-    monkeypatch.setattr(live, "_shell", lambda: object())
+    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
     monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: shown.append(display_id))
     monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append((display_id, b.get("text/plain", ""))))
     sh = TemplateSession("leg_bending").build()[0]
