@@ -128,32 +128,41 @@ def test_only_the_changed_rows_are_reprinted() -> None:
 
 
 def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> None:
-    """With an IPython shell, the sheet shown by show() gets update_display for changed steps only."""
+    """With an IPython shell, the sheet shown by show() (one output per section) gets
+    update_display only for the sections whose steps changed, and the summary is redrawn."""
     import IPython.display as ipd
 
-    shown: list[str] = []
+    shown: list[tuple[str, str]] = []
     updated: list[tuple[str, str]] = []
-    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
-    monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: shown.append(display_id))
-    monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append((display_id, b.get("text/plain", ""))))
     sh = TemplateSession("leg_bending").build()[0]
+    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
+    monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: shown.append((display_id, b.get("text/plain", ""))))
+    monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append((display_id, b.get("text/plain", ""))))
     live.show(sh)
     live.show_summary(sh)
-    assert len(shown) == 1 + len(sh.steps) + 1
+    headings = [s for s in sh.steps if type(s).__name__ == "Heading"]
+    assert len(shown) == 1 + len(headings) + 1  # title, one per section, the summary
     panel = what_if(sh, template="leg_bending", bind=LEG_BIND)
     updated.clear()
     assert panel.set("P", "300 lbf") is True
-    step_ids = {u[0] for u in updated if "summary" not in u[0]}
-    assert len(step_ids) == 4  # P, M, sigma_b, the check
+    sections = [u for u in updated if "summary" not in u[0]]
+    # P is in "Inputs"; M, sigma_b and the check in "Demand and check"; "Section properties" is untouched
+    assert len(sections) == 2
+    assert any("P = 300 lbf" in text for _, text in sections)
+    assert not any("Moment of inertia" in text for _, text in sections)
     summary = [u[1] for u in updated if "summary" in u[0]]
     assert summary and "NG" in summary[-1]
 
 
-def test_a_rebuild_with_more_steps_fits_the_slots() -> None:
-    bundles = [{"text/plain": str(i), "text/latex": f"$${i}$$"} for i in range(5)]
-    slots = live._slot_bundles(bundles, 3)
-    assert [s["text/plain"] for s in slots] == ["0", "1", "2\n3\n4"]
-    assert live._slot_bundles(bundles[:2], 3)[2] == {"text/plain": ""}
+def test_sections_are_merged_to_fit_the_slots() -> None:
+    sh = TemplateSession("post_combined").build()[0]
+    view = live.SheetView(sh)
+    view.update()
+    for slots in (3, 40):
+        groups = view.groups(slots)
+        assert len(groups) == slots
+        covered = [i for a, b in groups for i in range(a, b)]
+        assert covered == list(range(len(sh.steps) + 1))  # every step once, in order (title first)
 
 
 # ----------------------------------------------------------------------------- sensitivity
