@@ -43,8 +43,11 @@ show_summary(sh)
 # %% [markdown]
 # ## What-if
 #
-# Change a given in the panel below to see the check follow (the sheet and the summary above redraw in place).
-# A value the sheet cannot take is refused with its message and the last good values stay.
+# Each parameter has a control with its stated range; the sheet and the summary above redraw in
+# place. A value outside its range, or one the sheet cannot take, is refused with its message and
+# the last good values stay. "Sensitivity" ranks the inputs by their effect on the ratio; "What
+# would it take?" gives the load or length at which the check reaches 1.0; "Export job block"
+# gives the values as a job-file calc.
 
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if

@@ -278,7 +278,8 @@ class WhatIfPanel:
         self._extra = w.Output()
         numeric = [n for n, i in self._inputs.items() if i.given is not None or i.kind == "section"]
         self._goal_pick = w.Dropdown(options=[(self._inputs[n].label, n) for n in numeric], description="Input", layout=w.Layout(width="32em"))
-        goal = w.Button(description="What would it take?", tooltip="value of the input at which the governing check reaches 1.0")
+        goal = w.Button(description="What would it take?", tooltip="value of the input at which the governing check reaches 1.0",
+                        layout=w.Layout(width="13em"))
         sens = w.Button(description="Sensitivity", tooltip="elasticity of each check ratio to each numeric input")
         export = w.Button(description="Export job block", tooltip="the current values as a job-file [[calcs]] block")
         goal.on_click(lambda _b: self._show_answer(self._goal_pick.value))
