@@ -46,13 +46,11 @@ def _title_row(title: str) -> str:
 
 
 def _latex_rows(rows: list[tuple[str, str, str]]) -> str:
-    """Rows ``(description, math, reference)`` as one display block, laid out like the sheet."""
-    out = []
-    for desc, math, ref in rows:
-        lead = desc if desc.startswith("\\") or not desc else rf"\text{{{desc}}}"
-        tail = rf"{{\scriptsize \text{{[{ref}]}}}}" if ref else ""
-        out.append(f"{lead} & {math} & {tail}")
-    return "$$\n\\begin{array}{lll}\n" + " \\\\\n".join(out) + "\n\\end{array}\n$$"
+    """Rows ``(description, math, reference)`` as one display block, laid out by the LaTeX
+    printer's own row function (so the live sheet follows the printer's row layout)."""
+    from calcpad.render.latex import _row_latex
+
+    return "$$\n\\begin{array}{lll}\n" + " \\\\\n".join(_row_latex(*r) for r in rows) + "\n\\end{array}\n$$"
 
 
 def _printed(step: Any) -> tuple[list[tuple[str, str, str]], str]:

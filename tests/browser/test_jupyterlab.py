@@ -132,8 +132,10 @@ _CHECK_JS = """() => {
     const box = m.closest('.jp-OutputArea-output').getBoundingClientRect();
     const trs = m.querySelectorAll('mjx-mtr, mjx-mlabeledtr');
     for (const r of (trs.length ? trs : [m.querySelector('mjx-math') || m])) {
-      const rect = r.getBoundingClientRect();  // a row's extent from the output area's left edge
-      rows.push([Math.round(rect.right - box.left), Math.round(box.width)]);
+      // a row's extent: the right edge of the content in its cells (cells stretch to the column)
+      const parts = trs.length ? [...r.querySelectorAll(':scope > mjx-mtd > *')] : [r];
+      const right = Math.max(...parts.map(e => e.getBoundingClientRect().right).filter(x => x > 0), 0);
+      if (right > 0) rows.push([Math.round(right - box.left), Math.round(box.width)]);
     }
   }
   return {errors, tracebacks, merrors, rows, widgets: panel.querySelectorAll('.widget-slider, .widget-dropdown').length};
@@ -157,6 +159,9 @@ def _run_all(page: Any, lab: str, name: str) -> dict[str, Any]:
     page.wait_for_timeout(1500)  # MathJax typesetting
     result = page.evaluate(_CHECK_JS)
     page.screenshot(path=str(ARTIFACTS / f"{name}.png"), full_page=False)
+    page.evaluate(f"() => {_PANEL}.querySelector('.jp-OutputArea-output mjx-container')?.scrollIntoView()")
+    page.wait_for_timeout(500)
+    page.screenshot(path=str(ARTIFACTS / f"{name}_sheet.png"), full_page=False)
     return result
 
 
