@@ -537,7 +537,9 @@ class WhatIfPanel:
             upper = p.upper.resolve(qs) if p.upper is not None else None
             lo_inc = p.lower.inclusive if p.lower is not None else True
             hi_inc = p.upper.inclusive if p.upper is not None else True
-        return value_for_limit(self.sheet, inp.given, lower, upper, compiled=self.compiled(), lower_inclusive=lo_inc, upper_inclusive=hi_inc)
+        answer = value_for_limit(self.sheet, inp.given, lower, upper, compiled=self.compiled(), lower_inclusive=lo_inc, upper_inclusive=hi_inc)
+        answer.message = f"{inp.label}: {answer.message}"
+        return answer
 
     def to_job(self, member: str = "M1", title: str = "") -> str:
         """The current values as a job-file ``[[calcs]]`` block (TOML text; needs ``template=``)."""
