@@ -7,6 +7,9 @@
     calcpad issue OUT --by "J. Smith, P.E." [--revision B]
     calcpad templates [--templates DIR]
     calcpad new JOB.toml [--template NAME ...] [--templates DIR]
+    calcpad lab [FOLDER] [--dry-run]
+    calcpad template new NAME [--dir DIR] [--title TITLE]
+    calcpad template store NAME|NAME.py
     calcpad demo
     calcpad verify OUT [--revision R] [--rtol 1e-9]
     calcpad diff OLD NEW [--rtol 1e-6] [--html FILE]
@@ -93,12 +96,11 @@ def _run(args: argparse.Namespace) -> int:
         job = single_template_job(args.target, args.set or [], member=args.member or "-", templates=args.templates)
         out_dir = Path(args.out) if args.out else None
     else:
-        if args.set:
-            from calcpad.core.errors import CalcpadError
-
-            raise CalcpadError("--set applies to a template run (calcpad run TEMPLATE.py --set ...); put job values in the job file")
         job = load_job(args.target, templates=args.templates)
         out_dir = Path(args.out) if args.out else Path("build") / Path(args.target).stem
+        if args.set:  # a what-if on the job: only the changed calcs run, printed; nothing written without --out
+            job = job_what_if(job, args.set)
+            out_dir = Path(args.out) if args.out else None
         protect.append(Path(args.target))
     protect += [c.template.path for c in job.calcs]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
@@ -135,7 +137,7 @@ def _run(args: argparse.Namespace) -> int:
         if folder is None:
             for o in outcomes:
                 for s in o.sheets:
-                    _print_sheet_text(out, s["record"])
+                    _print_sheet_text(out, s)
     if folder is not None:
         err.print(f"submittal written: {folder / 'submittal.html'}", highlight=False, soft_wrap=True)
     summ = record["summary"]
@@ -160,10 +162,60 @@ def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, An
     out.print(f"{s['calcs']} calcs, {s['checks']} checks: {s['ok']} OK, {s['ng']} NG, {s['errors']} failed — {s['status']}", highlight=False)
 
 
-def _print_sheet_text(out: Any, rec: dict[str, Any]) -> None:
-    out.print(f"\n{rec['title']}", style="bold", highlight=False)
-    for name, r in rec["results"].items():
-        out.print(f"  {name} = {r['value']:.4g} {r['unit']}", highlight=False)
+def _print_sheet_text(out: Any, sheet: dict[str, Any]) -> None:
+    """The hand calc of one sheet (formula = substituted values = result, OK/NG)."""
+    out.print("", highlight=False)
+    out.print(sheet["text"], highlight=False, markup=False, soft_wrap=True)
+
+
+def job_what_if(job: Any, sets: list[str]) -> Any:
+    """``job`` with ``MARK.NAME="VALUE"`` changes applied, keeping only the calcs they change.
+
+    Each value is checked like a job value (kind, dimension, stated range with the calc's other
+    values). Raises JobError listing every problem.
+    """
+    from dataclasses import replace
+
+    from calcpad.core.errors import CalcpadError
+    from calcpad.core.units import parse_quantity
+    from calcpad.runner.job import JobError
+
+    problems: list[tuple[str, str]] = []
+    changed: dict[int, Any] = {}
+    for item in sets:
+        target, eq, value = item.partition("=")
+        mark, dot, name = target.strip().rpartition(".")
+        if not eq or not dot or not mark or not name:
+            problems.append(("--set", f"{item!r}; expected MARK.NAME=\"VALUE\" on a job run, e.g. L1.P=\"120 lbf\""))
+            continue
+        calcs = [c for c in job.calcs if c.member == mark]
+        if not calcs:
+            marks = sorted({c.member for c in job.calcs})
+            problems.append((f"--set {target}", f"no calc for member {mark!r} (members: {', '.join(marks)})"))
+            continue
+        hits = [c for c in calcs if name in c.template.parameters]
+        if len(hits) != 1:
+            why = "is not a parameter of" if not hits else "is a parameter of several calcs of"
+            problems.append((f"--set {target}", f"{name!r} {why} member {mark!r} ({', '.join(c.template.name for c in calcs)}){calcs[0].template.suggest(name)}"))
+            continue
+        calc = changed.get(hits[0].number, hits[0])
+        param = calc.template.parameters[name]
+        where = f"--set {target}"
+        try:
+            coerced = param.coerce(value.strip(), where)
+            qs = {}
+            for n, v in {**calc.inputs, name: coerced}.items():
+                if calc.template.parameters[n].kind != "text":
+                    qs[n] = parse_quantity(v, n)
+            param.check_range(coerced, qs, where)
+        except CalcpadError as exc:
+            problems.append((where, str(exc).removeprefix(f"{where}: ")))
+            continue
+        changed[calc.number] = replace(calc, inputs={**calc.inputs, name: coerced})
+    if problems:
+        raise JobError(job.source, problems)
+    calcs = [replace(c, number=i) for i, c in enumerate(sorted(changed.values(), key=lambda c: c.number), start=1)]
+    return replace(job, calcs=calcs, text=None)  # the job text no longer reproduces these inputs
 
 
 # ----------------------------------------------------------------------------- templates, new
@@ -323,6 +375,71 @@ def _diff(args: argparse.Namespace) -> int:
 _DIFF_MARK = "<!-- calcpad diff -->"
 
 
+# ----------------------------------------------------------------------------- lab, template new/store
+
+
+def _with_template_dir(folder: Path) -> None:
+    """Put ``folder`` first in the template search path (for this process and kernels it starts)."""
+    from calcpad.runner.template import ENV_VAR
+
+    rest = [p for p in os.environ.get(ENV_VAR, "").split(os.pathsep) if p]
+    os.environ[ENV_VAR] = os.pathsep.join([str(folder.resolve()), *rest])
+
+
+def _lab(folder: Path, dry_run: bool) -> int:
+    """Open JupyterLab on the template library with the project's kernel."""
+    import shutil
+    import subprocess
+
+    from calcpad.runner.store import KERNEL
+
+    if not folder.is_dir():
+        print(f"calcpad: {folder} is not a folder; expected the template library (default notebooks/)", file=sys.stderr)
+        return EXIT_BAD
+    cmd = [sys.executable, "-m", "jupyterlab", str(folder)]
+    if dry_run:
+        print(" ".join(cmd))
+        return EXIT_OK
+    from jupyter_client.kernelspec import KernelSpecManager
+
+    if KERNEL not in KernelSpecManager().find_kernel_specs():
+        print(f"calcpad: the {KERNEL!r} kernel is not installed; run 'make venv' or "
+              f"'{sys.executable} -m ipykernel install --sys-prefix --name {KERNEL}'", file=sys.stderr)
+        return EXIT_BAD
+    if shutil.which("jupyter") is None and not (Path(sys.executable).parent / "jupyter").exists():
+        print("calcpad: JupyterLab is not installed; install the notebook extra: pip install -e '.[notebook]'", file=sys.stderr)
+        return EXIT_BAD
+    _with_template_dir(folder)
+    return subprocess.call(cmd)
+
+
+def _template_new(name: str, folder: Path, title: str) -> int:
+    from calcpad.runner.scaffold import new_template
+
+    path = new_template(name, folder, title)
+    print(f"template written: {path}\nedit it, then store it: calcpad template store {path}")
+    return EXIT_OK
+
+
+def _template_store(target: str) -> int:
+    from calcpad.runner.store import refresh_notebook
+    from calcpad.runner.template import find_template, load_template
+
+    path = find_template(target) if not Path(target).exists() else Path(target)
+    if path.suffix != ".py":
+        print(f"calcpad: {path} is not a .py template source; store pairs NAME.py with NAME.ipynb", file=sys.stderr)
+        return EXIT_BAD
+    load_template(path)  # the parameters cell must read (clear message before a kernel starts)
+    _with_template_dir(path.parent)
+    try:
+        target_nb = refresh_notebook(path)
+    except Exception as exc:  # a failing cell: nbclient's error names the cell and the exception
+        print(f"calcpad: storing {path} failed, nothing written:\n{exc}", file=sys.stderr)
+        return EXIT_BAD
+    print(f"stored: {target_nb}")
+    return EXIT_OK
+
+
 # ----------------------------------------------------------------------------- main
 
 
@@ -341,7 +458,9 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--out", help="output folder; each revision goes to OUT/rev-<revision> (job default: build/JOBNAME; template default: print only)")
     run.add_argument("--notebooks", action="store_true", help="run in a Jupyter kernel and keep executed notebooks in OUT/rev-*/notebooks")
     run.add_argument("--json", action="store_true", help="print the job record as JSON on stdout")
-    run.add_argument("--set", action="append", metavar='NAME="VALUE UNIT"', help="template run: set a parameter (repeatable)")
+    run.add_argument("--set", action="append", metavar='NAME="VALUE UNIT"',
+                     help='set a parameter (repeatable): NAME="..." on a template run, MARK.NAME="..." on a job run '
+                          "(only the changed calcs run and print; nothing is written unless --out is given)")
     run.add_argument("--member", help="template run: member mark (default '-')")
     issue = sub.add_parser("issue", parents=[waiting], help="mark a revision in an output folder as issued and seal it read-only")
     issue.add_argument("out", help="the output folder of a run (--out)")
@@ -351,6 +470,17 @@ def _parser() -> argparse.ArgumentParser:
     new = sub.add_parser("new", parents=[library], help="write a starter job file (never overwrites)")
     new.add_argument("path", help="JOB.toml to create")
     new.add_argument("--template", action="append", default=[], help="template to include (repeatable; default leg_bending)")
+    lab = sub.add_parser("lab", help="open JupyterLab on the template library with the calcpad kernel")
+    lab.add_argument("folder", nargs="?", default=str(ROOT / "notebooks"), help="template folder (default: the repository's notebooks/)")
+    lab.add_argument("--dry-run", action="store_true", help="print the command instead of running it")
+    tpl = sub.add_parser("template", help="start a template of your own, or store one (execute and pair .py/.ipynb)")
+    tsub = tpl.add_subparsers(dest="template_command", required=True)
+    tnew = tsub.add_parser("new", help="write NAME.py: parameters with ranges, a sheet, a summary, a what-if cell (never overwrites)")
+    tnew.add_argument("name", help="template name (lower case, digits, _)")
+    tnew.add_argument("--dir", default="notebooks", help="folder to write it in (default notebooks/)")
+    tnew.add_argument("--title", default="", help="title of the calc")
+    tstore = tsub.add_parser("store", help="execute NAME.py and write the paired NAME.ipynb (nbval then covers it)")
+    tstore.add_argument("target", help="template name or NAME.py")
     demo = sub.add_parser("demo", help="render the first template to build/demo")
     demo.add_argument("--out", default="build/demo", help="output folder (default build/demo)")
     verify = sub.add_parser("verify", parents=[library], help="check a record is intact and re-run its calcs to reproduce it")
@@ -399,6 +529,12 @@ def _dispatch(args: argparse.Namespace) -> int:
         return _verify(args)
     if args.command == "diff":
         return _diff(args)
+    if args.command == "lab":
+        return _lab(Path(args.folder), args.dry_run)
+    if args.command == "template":
+        if args.template_command == "new":
+            return _template_new(args.name, Path(args.dir), args.title)
+        return _template_store(args.target)
     return EXIT_BAD  # pragma: no cover
 
 

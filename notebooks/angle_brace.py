@@ -36,6 +36,7 @@ gusset_grade = "A36"  # gusset plate steel, materials catalog name
 
 # %%
 from calcpad import Sheet
+from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_block_shear_check, add_compression_check, add_fillet_weld_check, add_tension_check
 from calcpad.eng.materials import get_material
 from calcpad.eng.sections import get_section
@@ -74,27 +75,27 @@ sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b)!r} in", "
 sh.step("A_gvg", "2*l_w*t_gus", "Gross shear area of the gusset along both welds", unit="in^2", ref="AISC 360-16 J4.3")
 sh.step("A_ntg", "b_leg*t_gus", "Tension area of the gusset across the end of the welds", unit="in^2", ref="AISC 360-16 J4.3")
 add_block_shear_check(sh, R="R_end", A_gv="A_gvg", A_nt="A_ntg", F_y=f"{gusset.Fy!r} ksi", F_u=f"{gusset.Fu!r} ksi", suffix="gusset")
-sh
+show(sh)
 
 # %%
-sh.summary_frame()
+show_summary(sh)
 
 # %% [markdown]
 # ## What if
 #
-# Change the brace forces, its length, the weld length or the gusset thickness in the panel to
-# see the checks follow (the sheet above is not redrawn). A value the sheet cannot take is
-# refused with its message and the last good values stay. Section, grade and connected leg are
-# template parameters: change them in the parameters cell or the job file.
+# Every parameter has a control with its stated range; the sheet and the summary above redraw in
+# place. Forces, length, weld length and gusset thickness change the sheet directly; the angle,
+# grades and connected leg re-run the cells above. A value outside its range, or one the sheet
+# cannot take, is refused with its message and the last good values stay.
 
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, names=["P_comp", "P_tens", "L_br", "l_w", "t_gus"])
+panel = what_if(sh, template="angle_brace", bind={"P_c": "P_comp", "P_t": "P_tens", "L": "L_br", "weld_length": "l_w", "gusset_t": "t_gus"}, values=globals())
 panel
 
 # %%
 panel.set("L_br", "8 ft")
-compression_ratio_at_8_ft = round(next(c.ratio for c in sh.summary() if c.title == "Axial compression"), 3)
+compression_ratio_at_8_ft = round(next(c.ratio for c in panel.sheet.summary() if c.title == "Axial compression"), 3)
 panel.reset()  # back to this template's parameters, so the stored sheet is the one above
 compression_ratio_at_8_ft

@@ -31,6 +31,7 @@ defl_limit = "240"  # deflection limit as span / N; 120 to 600
 
 # %%
 from calcpad import Sheet
+from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_flexure_check, add_shear_check
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import get_section
@@ -59,26 +60,26 @@ L_v = "L_v" if shape.kind == "round tube" else None
 if L_v:
     sh.step("L_v", "L/2", "Distance from maximum to zero shear", unit="ft")
 add_shear_check(sh, shape, V="V_max", L_v=L_v, material=steel)
-sh
+show(sh)
 
 # %%
-sh.summary_frame()
+show_summary(sh)
 
 # %% [markdown]
 # ## What if
 #
-# Change the span, the loads, the unbraced length or the deflection limit in the panel to see
-# the checks follow (the sheet above is not redrawn). The section and grade are template
-# parameters.
+# Every parameter has a control with its stated range; the sheet and the summary above redraw in
+# place. Span, loads and the deflection limit change the sheet directly; the section, grade,
+# unbraced length and C_b re-run the cells above.
 
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, names=["L", "w", "P_mid", "L_b", "N_defl"])
+panel = what_if(sh, template="cross_member", bind={"span": "L", "w": "w", "P": "P_mid", "defl_limit": "N_defl"}, values=globals())
 panel
 
 # %%
 panel.set("L", "16 ft")
-deflection_at_16_ft = round(next(c.ratio for c in sh.summary() if c.title == "Deflection"), 3)
+deflection_at_16_ft = round(next(c.ratio for c in panel.sheet.summary() if c.title == "Deflection"), 3)
 panel.reset()  # back to this template's parameters, so the stored sheet is the one above
 deflection_at_16_ft

@@ -18,6 +18,7 @@ FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
 
 # %%
 from calcpad import Sheet
+from calcpad.widgets import show, show_summary
 
 sh = Sheet("Leg - bending at base")
 sh.heading("Inputs")
@@ -34,25 +35,28 @@ sh.heading("Demand and check")
 sh.step("M", "P*L", "Base moment", ref="cantilever, statics")
 sh.step("sigma_b", "M*c/I", "Bending stress at base", unit="ksi")
 sh.check("Bending stress vs yield", demand="sigma_b", capacity="F_y", required_fs=FS_req, ref="yield-based, common practice")
-sh
+show(sh)
 
 # %%
-sh.summary_frame()
+show_summary(sh)
 
 # %% [markdown]
 # ## What-if
 #
-# Change a given in the panel below to see the check follow (the sheet above is not redrawn).
-# A value the sheet cannot take is refused with its message and the last good values stay.
+# Each parameter has a control with its stated range; the sheet and the summary above redraw in
+# place. A value outside its range, or one the sheet cannot take, is refused with its message and
+# the last good values stay. "Sensitivity" ranks the inputs by their effect on the ratio; "What
+# would it take?" gives the load or length at which the check reaches 1.0; "Export job block"
+# gives the values as a job-file calc.
 
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh)
+panel = what_if(sh, template="leg_bending", bind=["P", "L", "D_o", "t", "F_y"], values=globals())
 panel
 
 # %%
 panel.set("P", "120 lbf")
-ratio_at_120_lbf = round(sh.summary()[0].ratio, 3)
+ratio_at_120_lbf = round(panel.sheet.summary()[0].ratio, 3)
 panel.reset()  # back to this template's parameters, so the stored sheet is the one above
 ratio_at_120_lbf

@@ -38,6 +38,7 @@ rod_f = "3.75 in"  # plate centre to the anchor rod line; 1 in to 18 in
 
 # %%
 from calcpad import Sheet
+from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_base_plate_check, check_member
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import get_section
@@ -56,27 +57,30 @@ sh.assume(f"Loads combined for {method}; second-order effects neglected or inclu
 result = check_member(sh, shape, material=steel, L="L_post", K=float(K), P="P_top", M_x="M_base", V="V_base")
 add_base_plate_check(sh, shape, P="P_top", M="M_base", B=plate_B, N=plate_N, t_p=plate_t, f_c=f_c, f=rod_f, d_rod=rod_d,
                      material=plate_grade, suffix="plate")
-sh
+show(sh)
 
 # %%
-sh.summary_frame()
+show_summary(sh)
 
 # %% [markdown]
 # ## What if
 #
-# Change the loads or the post height in the panel to see every check follow, the base plate
-# included (the sheet above is not redrawn). A value the sheet cannot take is refused with its
-# message and the last good values stay. The section, grades and plate size are template
-# parameters. The base plate's small/large-moment case is chosen when the sheet is built.
+# Every parameter has a control with its stated range; the sheet and the summary above redraw in
+# place. Loads and height change the sheet directly; the section, grades, plate and K re-run the
+# cells above. A value outside its range, or one the sheet cannot take, is refused with its
+# message and the last good values stay. "Sensitivity" ranks the inputs by their effect on the
+# ratios; "What would it take?" finds the load or height at which the governing check reaches
+# 1.0, or the lightest passing post of the same family; "Export job block" gives the values as a
+# job-file calc.
 
 # %% tags=["nbval-ignore-output"]
 from calcpad.widgets import what_if
 
-panel = what_if(sh, names=["P_top", "H_top", "L_post"])
+panel = what_if(sh, template="post_combined", bind={"P": "P_top", "H": "H_top", "L": "L_post"}, values=globals())
 panel
 
 # %%
 panel.set("H_top", "0.6 kip")
-interaction_at_0_6_kip = round(next(c.ratio for c in sh.summary() if c.title == "Axial + flexure interaction"), 3)
+interaction_at_0_6_kip = round(next(c.ratio for c in panel.sheet.summary() if c.title == "Axial + flexure interaction"), 3)
 panel.reset()  # back to this template's parameters, so the stored sheet is the one above
 interaction_at_0_6_kip

@@ -76,6 +76,7 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str) -> lis
     from calcpad.core.sheet import Sheet
     from calcpad.render.html import sheet_html_fragment
     from calcpad.render.record import sheet_record
+    from calcpad.render.text import sheet_text
 
     seen: set[int] = set()
     out: list[dict[str, Any]] = []
@@ -97,7 +98,7 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str) -> lis
             result = sheet.evaluate()
             rec = sheet_record(result)
             rec["meta"] = {**rec["meta"], "template": template, "member": member}
-            out.append({"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)})
+            out.append({"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3), "text": sheet_text(result)})
     return out
 
 

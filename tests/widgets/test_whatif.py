@@ -144,10 +144,11 @@ def test_governing_check_is_highlighted() -> None:
     assert len(rows) == 1 and governing.title in rows[0] and "background" in rows[0]
 
 
-def test_show_sheet_adds_the_sheet_display() -> None:
+def test_show_sheet_adds_a_live_copy_of_the_sheet() -> None:
     panel = what_if(leg_sheet(), show="sheet")
-    kinds = [set(o["data"]) for o in panel._out.outputs]
-    assert kinds[1] == {"text/latex", "text/plain"}
+    kinds = [set(o.outputs[0]["data"]) for o in panel._sheet_outs]
+    assert len(kinds) == 1 + len(panel.sheet.steps)  # the title, then one output per step
+    assert all(k == {"text/latex", "text/plain"} for k in kinds)
 
 
 def test_unknown_name_is_a_clear_error() -> None:

@@ -1,0 +1,290 @@
+"""A sheet shown step by step, so a change re-prints and redraws only the rows that changed.
+
+    show(sh)          # in a template's sheet cell: one display per step, kept for updates
+    show_summary(sh)  # the check summary, kept for updates
+    refresh(sh)       # after sh.set(...): re-print the changed steps and redraw them in place
+
+A :class:`SheetView` caches each step's printed form (LaTeX for the notebook, text for consoles).
+After an evaluation, a step whose result object is the one printed last time is not printed again
+(the sheet keeps the result objects of steps it did not recompute, see ``Sheet.last_recomputed``);
+the others are printed and compared with the cache, and only those whose printed form differs
+are redrawn. In a notebook the sheet is shown as a few outputs ("slots", one per heading's
+section, at most :data:`MAX_SLOTS` because JupyterLab folds a cell's outputs past 50), each with
+an IPython ``display_id``; a slot is re-sent only when one of its steps printed differently, so
+the sheet above a what-if panel redraws in place and a check never shows two statuses. When a
+rebuild changes the steps (another section), they are grouped again into the same slots.
+
+Outside IPython (command line, in-process runs) :func:`show` and :func:`show_summary` do nothing.
+This module imports IPython only when it displays; it never imports ipywidgets.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import itertools
+from collections.abc import Iterator
+from dataclasses import dataclass, field
+from typing import Any
+
+from calcpad.core.results import CheckResult, HeadingResult, SheetResult
+from calcpad.core.sheet import Sheet
+
+__all__ = ["SheetView", "quiet", "refresh", "show", "show_summary", "step_bundle", "summary_bundle", "transfer", "view_for"]
+
+_EMPTY: dict[str, str] = {"text/plain": ""}
+#: Most outputs one sheet display uses (JupyterLab shows 50 per cell before folding).
+MAX_SLOTS = 40
+#: Characters per display block (MathJax refuses one expression past about 5 KB expanded).
+BLOCK_CHARS = 2500
+_ids = itertools.count(1)
+
+
+def _title_row(title: str) -> str:
+    from calcpad.render.latex import _text  # the printer's own escaping
+
+    return rf"\textbf{{{_text(title)}}}"
+
+
+def _latex_rows(rows: list[tuple[str, str, str]]) -> str:
+    """Rows ``(description, math, reference)`` as one display block, laid out by the LaTeX
+    printer's own row function (so the live sheet follows the printer's row layout)."""
+    from calcpad.render.latex import _row_latex
+
+    return "$$\n\\begin{array}{lll}\n" + " \\\\\n".join(_row_latex(*r) for r in rows) + "\n\\end{array}\n$$"
+
+
+def _printed(step: Any) -> tuple[list[tuple[str, str, str]], str]:
+    """LaTeX rows and plain text of one step result (the printers' own per-step functions)."""
+    from calcpad.render.latex import step_latex  # lazy: printers load sympy printing
+    from calcpad.render.text import step_text
+
+    if isinstance(step, HeadingResult) and step.level == 0:  # the sheet title
+        return [(_title_row(step.text), "", "")], step.text
+    return step_latex(step), "\n".join(step_text(step))
+
+
+def _bundle(rows: list[tuple[str, str, str]], plain: str) -> dict[str, str]:
+    """Rows as display blocks of at most :data:`BLOCK_CHARS` characters, and the plain text."""
+    if not rows:
+        return {"text/plain": plain}
+    blocks: list[list[tuple[str, str, str]]] = [[]]
+    size = 0
+    for row in rows:
+        n = sum(len(x) for x in row)
+        if blocks[-1] and size + n > BLOCK_CHARS:
+            blocks.append([])
+            size = 0
+        blocks[-1].append(row)
+        size += n
+    return {"text/latex": "\n".join(_latex_rows(b) for b in blocks), "text/plain": plain}
+
+
+def step_bundle(step: Any) -> dict[str, str]:
+    """The notebook display of one step result: ``text/latex`` (MathJax) and ``text/plain``."""
+    rows, plain = _printed(step)
+    return _bundle(rows, plain) if rows or plain else dict(_EMPTY)
+
+
+def summary_bundle(result: SheetResult) -> dict[str, str]:
+    """The check summary (HTML table and text) of an evaluated sheet."""
+    from calcpad.widgets.summary import summary_html, summary_text
+
+    return {"text/html": summary_html(result), "text/plain": summary_text(result)}
+
+
+@dataclass
+class SheetView:
+    """Printed steps of one sheet, re-printed only where a step changed.
+
+    Attributes:
+        sheet: The sheet shown (may be swapped for a rebuilt one with :meth:`rebind`).
+        printed: Number of step printings done so far (for tests and benchmarks).
+    """
+
+    sheet: Sheet
+    printed: int = 0
+    _steps: list[Any] = field(default_factory=list)
+    _bundles: list[dict[str, str]] = field(default_factory=list)
+    _printed: list[tuple[list[tuple[str, str, str]], str]] = field(default_factory=list)
+
+    def bundles(self) -> list[dict[str, str]]:
+        """One bundle per step (the sheet title first), printing what is not cached yet."""
+        self.update()
+        return list(self._bundles)
+
+    def rebind(self, sheet: Sheet) -> None:
+        """Show another sheet (a rebuild); the next :meth:`update` redraws only what differs."""
+        self.sheet = sheet
+
+    def update(self) -> list[int]:
+        """Evaluate the sheet and re-print changed steps; returns the positions whose display changed."""
+        result = self.sheet.evaluate()
+        items: list[Any] = [HeadingResult(result.title, 0), *result.steps]
+        changed: list[int] = []
+        for i, step in enumerate(items):
+            if i < len(self._steps):
+                old = self._steps[i]
+                if old is step or (not hasattr(step, "name") and not isinstance(step, CheckResult) and old == step):
+                    self._steps[i] = step
+                    continue
+            self.printed += 1
+            printed = _printed(step)
+            bundle = _bundle(*printed) if printed[0] or printed[1] else dict(_EMPTY)
+            if i < len(self._bundles):
+                self._steps[i] = step
+                if bundle != self._bundles[i]:
+                    self._bundles[i] = bundle
+                    self._printed[i] = printed
+                    changed.append(i)
+            else:
+                self._steps.append(step)
+                self._bundles.append(bundle)
+                self._printed.append(printed)
+                changed.append(i)
+        if len(self._steps) > len(items):
+            changed.extend(range(len(items), len(self._steps)))
+            del self._steps[len(items) :]
+            del self._bundles[len(items) :]
+            del self._printed[len(items) :]
+        return changed
+
+    def groups(self, slots: int) -> list[tuple[int, int]]:
+        """Step ranges ``[start, end)``, one per heading's section, merged to at most ``slots``
+        (padded with empty ranges to exactly ``slots``)."""
+        starts = [0] + [i for i, s in enumerate(self._steps) if i > 0 and isinstance(s, HeadingResult) and s.level == 1]
+        ranges = [(a, b) for a, b in zip(starts, [*starts[1:], len(self._steps)], strict=True)]
+        while len(ranges) > slots:  # merge the adjacent pair with the fewest steps
+            k = min(range(len(ranges) - 1), key=lambda j: ranges[j + 1][1] - ranges[j][0])
+            ranges[k : k + 2] = [(ranges[k][0], ranges[k + 1][1])]
+        end = ranges[-1][1] if ranges else 0
+        return ranges + [(end, end)] * (slots - len(ranges))
+
+    def group_bundle(self, start: int, end: int) -> dict[str, str]:
+        """One display for steps ``start`` to ``end`` (their rows in shared blocks)."""
+        rows = [r for rs, _ in self._printed[start:end] for r in rs]
+        plain = "\n".join(p for _, p in self._printed[start:end] if p)
+        return _bundle(rows, plain) if rows or plain else dict(_EMPTY)
+
+
+# ----------------------------------------------------------------------------- notebook slots
+
+
+@dataclass
+class _Live:
+    view: SheetView
+    ids: list[str]
+    summary_ids: list[str] = field(default_factory=list)
+    groups: list[tuple[int, int]] = field(default_factory=list)
+    sent: list[dict[str, str]] = field(default_factory=list)
+
+
+_LIVE: dict[int, _Live] = {}
+_QUIET = [0]
+
+
+@contextlib.contextmanager
+def quiet() -> Iterator[None]:
+    """Inside this block :func:`show` and :func:`show_summary` display nothing (a panel's rebuild)."""
+    _QUIET[0] += 1
+    try:
+        yield
+    finally:
+        _QUIET[0] -= 1
+
+
+def _shell() -> Any:
+    if _QUIET[0]:
+        return None
+    try:
+        from IPython import get_ipython
+    except ImportError:  # pragma: no cover - IPython comes with the notebook extra
+        return None
+    return get_ipython()
+
+
+def _live_for(sheet: Sheet) -> _Live | None:
+    live = _LIVE.get(id(sheet))
+    return live if live is not None and live.view.sheet is sheet else None
+
+
+def view_for(sheet: Sheet) -> SheetView | None:
+    """The view of ``sheet`` shown live in the notebook (None when it is not)."""
+    live = _live_for(sheet)
+    return live.view if live is not None else None
+
+
+def show(sheet: Sheet) -> SheetView | None:
+    """Display ``sheet`` in a notebook, one output per section, kept so :func:`refresh` can
+    redraw changed steps in place. Does nothing outside IPython. Returns the view (or None)."""
+    if _shell() is None:
+        return None
+    from IPython.display import display
+
+    view = SheetView(sheet)
+    view.update()
+    groups = view.groups(MAX_SLOTS)
+    groups = [g for g in groups if g[1] > g[0]]
+    live = _Live(view, [], groups=groups)
+    for start, end in groups:
+        ident = f"calcpad-{next(_ids)}"
+        bundle = view.group_bundle(start, end)
+        display(bundle, raw=True, display_id=ident)
+        live.ids.append(ident)
+        live.sent.append(bundle)
+    old = _LIVE.get(id(sheet))
+    if old is not None:
+        live.summary_ids = old.summary_ids
+    _LIVE[id(sheet)] = live
+    return view
+
+
+def show_summary(sheet: Sheet) -> None:
+    """Display the check summary of ``sheet``, kept so :func:`refresh` redraws it in place."""
+    if _shell() is None:
+        return
+    from IPython.display import display
+
+    ident = f"calcpad-summary-{next(_ids)}"
+    display(summary_bundle(sheet.evaluate()), raw=True, display_id=ident)
+    live = _LIVE.setdefault(id(sheet), _Live(SheetView(sheet), []))
+    live.summary_ids.append(ident)
+
+
+def transfer(old: Sheet, new: Sheet) -> None:
+    """A rebuilt sheet takes over the displays of ``old`` (the next refresh redraws what differs)."""
+    live = _LIVE.pop(id(old), None)
+    if live is not None:
+        live.view.rebind(new)
+        _LIVE[id(new)] = live
+
+
+def refresh(sheet: Sheet) -> list[int]:
+    """Redraw in place the displayed steps of ``sheet`` that changed, and its summaries.
+
+    Returns the step positions redrawn (empty when the sheet is not displayed live).
+    """
+    live = _live_for(sheet)
+    if live is None:
+        return []
+    changed = live.view.update()
+    if _shell() is None:
+        return changed
+    from IPython.display import update_display
+
+    if changed and live.ids:
+        view = live.view
+        if live.groups[-1][1] != len(view._steps):  # a rebuild changed the steps: group them again
+            live.groups = view.groups(len(live.ids))
+            todo = range(len(live.ids))
+        else:
+            todo = [k for k, (a, b) in enumerate(live.groups) if any(a <= i < b for i in changed)]
+        for k in todo:
+            bundle = view.group_bundle(*live.groups[k])
+            if bundle != live.sent[k]:
+                update_display(bundle, raw=True, display_id=live.ids[k])
+                live.sent[k] = bundle
+    if live.summary_ids:
+        bundle = summary_bundle(sheet.evaluate())
+        for ident in live.summary_ids:
+            update_display(bundle, raw=True, display_id=ident)
+    return changed

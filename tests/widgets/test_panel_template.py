@@ -1,0 +1,346 @@
+"""The what-if panel built from a template's parameters cell: ranges, rollback, redraw in place,
+sensitivity, "what would it take" and export.
+
+Hand arithmetic for the leg template (plain floats, never through calcpad; common practice):
+M = P·L, I = π/64·(D_o⁴ − D_i⁴), D_i = D_o − 2t, σ = M·(D_o/2)/I, ratio = FS_req·σ/F_y, so
+the ratio is proportional to P, to L and to 1/F_y (elasticities 1, 1, −1 exactly).
+"""
+
+from __future__ import annotations
+
+import html
+import math
+
+import pytest
+
+from calcpad.core.sheet import Sheet
+from calcpad.runner.execute import run_calc_inprocess
+from calcpad.runner.job import parse_job
+from calcpad.widgets import live, what_if
+from calcpad.widgets.session import TemplateSession
+
+POST_BIND = {"P": "P_top", "H": "H_top", "L": "L_post"}
+LEG_BIND = ["P", "L", "D_o", "t", "F_y"]
+
+
+def leg_ratio(P: float = 85.0, L: float = 42.0, D_o: float = 1.9, t: float = 0.145, F_y: float = 35_000.0, FS: float = 1.67) -> float:
+    """Hand ratio of the leg template in lbf, in, psi (common practice, see module docstring)."""
+    D_i = D_o - 2 * t
+    inertia = math.pi / 64 * (D_o**4 - D_i**4)
+    return FS * (P * L * D_o / 2 / inertia) / F_y
+
+
+def leg_panel(**kw):
+    sh = TemplateSession("leg_bending").build()[0]
+    return what_if(sh, template="leg_bending", bind=LEG_BIND, **kw)
+
+
+def post_panel(**kw):
+    sh = TemplateSession("post_combined").build()[0]
+    return what_if(sh, template="post_combined", bind=POST_BIND, **kw)
+
+
+def gov_ratio(panel) -> float:
+    return max(c.ratio / c.limit for c in panel.sheet.summary())
+
+
+# ----------------------------------------------------------------------------- ranges, rollback
+
+
+@pytest.mark.parametrize(
+    ("name", "value", "stated"),
+    [("P", "0 lbf", "0 < P <= 20 kip"), ("P", "-50 lbf", "0 < P <= 20 kip"), ("t", "1.2 in", "0 < t < D_o/2"), ("L", "40 ft", "6 in to 30 ft")],
+)
+def test_values_outside_the_stated_range_are_refused_inline(name: str, value: str, stated: str) -> None:
+    panel = leg_panel()
+    assert panel.set("P", "120 lbf") is True
+    good = panel.sheet.summary()[0].ratio
+    assert panel.set(name, value) is False
+    assert stated in panel.last_error and repr(value) in panel.last_error
+    assert "Not applied" in panel._message.value and html.escape(stated) in panel._message.value
+    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(P=120.0), rel=1e-9)
+    assert panel.sheet.summary()[0].ratio == good
+    assert "OK" in panel._out.outputs[0]["data"]["text/plain"]  # the last good result stays shown
+
+
+def test_the_panel_refuses_what_the_cli_refuses() -> None:
+    """Same parser and range as a job file: the job loader's message for the same value."""
+    from calcpad.core.errors import InputError
+    from calcpad.runner.job import single_template_job
+
+    panel = leg_panel()
+    assert panel.set("t", "1.2 in") is False
+    with pytest.raises(InputError, match=r"0 < t < D_o/2"):
+        single_template_job("leg_bending", ['t=1.2 in'])
+
+
+def test_a_step_that_cannot_be_evaluated_rolls_back() -> None:
+    panel = post_panel()
+    before = dict(panel.ratios)
+    assert panel.set("H", "0 kip") is False  # in range, but the base plate's tension side has no force
+    assert panel.last_error and "plate" in panel.last_error
+    assert panel.ratios == before
+    assert panel.controls["H"].value == pytest.approx(0.45)
+
+
+def test_labels_are_words_with_the_symbol_and_units_follow_the_parameter() -> None:
+    panel = leg_panel()
+    assert panel._inputs["P"].label == "Lateral load at the top of the leg (P)"
+    assert panel._inputs["D_o"].label.endswith("(D_o)")
+    slider = panel.controls["L"]
+    assert type(slider).__name__ == "FloatSlider" and slider.value == 42.0  # in, the default's unit
+    assert slider.max == pytest.approx(360.0)  # 30 ft in inches (the stated range)
+
+
+def test_section_and_grade_controls_are_catalog_choices_of_the_family() -> None:
+    from calcpad.eng.sections.catalog import designations
+
+    panel = post_panel()
+    post = panel.controls["post"]
+    assert type(post).__name__ == "Dropdown" and post.value == "HSS4x4x1/4"
+    assert set(post.options) == set(designations("hss_square"))
+    grades = list(panel.controls["grade"].options)
+    assert "A500 Gr C" == grades[0] and "ASTM A36" in grades
+    assert not any("Aluminum" in g or "Stainless" in g for g in grades)
+    assert panel.set("post", "HSS5x5x1/4") is True
+    assert "HSS5x5x1/4" in panel.sheet.title
+    assert panel.set("post", "HSS4x4x9") is False and "HSS5x5x1/4" in panel.sheet.title
+
+
+# ----------------------------------------------------------------------------- redraw in place
+
+
+def test_only_the_changed_rows_are_reprinted() -> None:
+    panel = leg_panel(show="sheet")
+    view = panel._view
+    printed = view.printed
+    outs_before = [o.outputs for o in panel._sheet_outs]
+    assert panel.set("P", "300 lbf") is True
+    steps = [getattr(s, "name", getattr(s, "key", None)) for s in panel.sheet.evaluate().steps]
+    changed = {i for i, o in enumerate(panel._sheet_outs) if o.outputs is not outs_before[i]}
+    # P feeds M = P*L, sigma_b = M*c/I and the check; nothing else (title is position 0)
+    assert {steps[i - 1] for i in changed} == {"P", "M", "sigma_b", "chk_bending_stress_vs_yield"}
+    assert view.printed - printed == 4
+    sheet_row = panel._sheet_outs[1 + steps.index("chk_bending_stress_vs_yield")].outputs[0]["data"]["text/plain"]
+    summary = panel._out.outputs[0]["data"]["text/plain"]
+    assert "NG" in sheet_row and "NG" in summary  # one check, one status (ratio 1.84 > 1 by hand)
+    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(P=300.0), rel=1e-9) and leg_ratio(P=300.0) > 1.0
+
+
+def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> None:
+    """With an IPython shell, the sheet shown by show() (one output per section) gets
+    update_display only for the sections whose steps changed, and the summary is redrawn."""
+    import IPython.display as ipd
+
+    shown: list[tuple[str, str]] = []
+    updated: list[tuple[str, str]] = []
+    sh = TemplateSession("leg_bending").build()[0]
+    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
+    monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: shown.append((display_id, b.get("text/plain", ""))))
+    monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append((display_id, b.get("text/plain", ""))))
+    live.show(sh)
+    live.show_summary(sh)
+    headings = [s for s in sh.steps if type(s).__name__ == "Heading"]
+    assert len(shown) == 1 + len(headings) + 1  # title, one per section, the summary
+    panel = what_if(sh, template="leg_bending", bind=LEG_BIND)
+    updated.clear()
+    assert panel.set("P", "300 lbf") is True
+    sections = [u for u in updated if "summary" not in u[0]]
+    # P is in "Inputs"; M, sigma_b and the check in "Demand and check"; "Section properties" is untouched
+    assert len(sections) == 2
+    assert any("P = 300 lbf" in text for _, text in sections)
+    assert not any("Moment of inertia" in text for _, text in sections)
+    summary = [u[1] for u in updated if "summary" in u[0]]
+    assert summary and "NG" in summary[-1]
+
+
+def test_sections_are_merged_to_fit_the_slots() -> None:
+    sh = TemplateSession("post_combined").build()[0]
+    view = live.SheetView(sh)
+    view.update()
+    for slots in (3, 40):
+        groups = view.groups(slots)
+        assert len(groups) == slots
+        covered = [i for a, b in groups for i in range(a, b)]
+        assert covered == list(range(len(sh.steps) + 1))  # every step once, in order (title first)
+
+
+# ----------------------------------------------------------------------------- sensitivity
+
+
+def test_sensitivity_matches_finite_differences_of_scalar_evaluation() -> None:
+    panel = post_panel()
+    sens = panel.sensitivity()
+    sh = panel.sheet
+    h = 1e-3
+    for name in ("P_top", "H_top", "L_post"):
+        x0 = sh[name]
+        for sign, store in ((1, "up"), (-1, "down")):
+            sh.set(**{name: x0 * (1 + sign * h)})
+            r = {c.key: c.ratio for c in sh.summary()}
+            if store == "up":
+                up = r
+            else:
+                down = r
+        sh.set(**{name: x0})
+        for key, row in sens.table.items():
+            if up[key] > 0 and down[key] > 0:
+                fd = (math.log(up[key]) - math.log(down[key])) / (math.log1p(h) - math.log1p(-h))
+                assert row[name] == pytest.approx(fd, rel=1e-4, abs=1e-6), (key, name)
+
+
+def test_sensitivity_of_the_leg_is_one_for_p_and_l_and_minus_one_for_fy() -> None:
+    panel = leg_panel()
+    row = panel.sensitivity().table["chk_bending_stress_vs_yield"]
+    assert row["P"] == pytest.approx(1.0, rel=1e-7)
+    assert row["L"] == pytest.approx(1.0, rel=1e-7)
+    assert row["F_y"] == pytest.approx(-1.0, rel=1e-7)
+    gov = panel.sensitivity().of_governing()
+    mags = [abs(v) for _, v in gov]
+    assert mags == sorted(mags, reverse=True) and {n for n, _ in gov} == {"P", "L", "D_o", "t", "F_y"}
+
+
+def test_sensitivity_figure_is_a_sorted_bar_chart() -> None:
+    from calcpad.widgets.explore import sensitivity_figure
+
+    panel = leg_panel()
+    fig = sensitivity_figure(panel.sensitivity())
+    bars = fig.axes[0].patches
+    widths = [abs(b.get_width()) for b in bars]
+    assert widths == sorted(widths) and len(bars) >= 4
+
+
+# ----------------------------------------------------------------------------- what would it take
+
+
+def bisect(f, a: float, b: float, tol: float = 1e-10) -> float:
+    fa = f(a)
+    for _ in range(200):
+        m = (a + b) / 2
+        fm = f(m)
+        if (fm > 0) == (fa > 0):
+            a, fa = m, fm
+        else:
+            b = m
+        if b - a < tol * max(1.0, abs(b)):
+            break
+    return (a + b) / 2
+
+
+def test_what_would_it_take_matches_a_scalar_bisection() -> None:
+    panel = leg_panel()
+    ans = panel.what_would_it_take("P")
+    assert ans.status == "value"
+    p_lim = bisect(lambda P: leg_ratio(P=P) - 1.0, 1e-6, 20_000.0)
+    assert ans.value.to("lbf").magnitude == pytest.approx(p_lim, rel=1e-8)
+    ans_l = panel.what_would_it_take("L")
+    assert ans_l.value.to("in").magnitude == pytest.approx(bisect(lambda L: leg_ratio(L=L) - 1.0, 6.0, 360.0), rel=1e-8)
+
+
+def test_what_would_it_take_on_the_post_uses_the_governing_check() -> None:
+    panel = post_panel()
+    ans = panel.what_would_it_take("H")
+    sh = panel.sheet
+
+    def gov(H_kip: float) -> float:
+        sh.set(H_top=f"{H_kip!r} kip")
+        return max(c.ratio / c.limit for c in sh.summary()) - 1.0
+
+    assert gov(0.45) < 0 < gov(1.0)  # bracket checked by scalar evaluation
+    h_lim = bisect(gov, 0.45, 1.0, tol=1e-9)
+    sh.set(H_top="0.45 kip")
+    assert ans.value.to("kip").magnitude == pytest.approx(h_lim, rel=1e-6)
+
+
+def test_whole_range_passes_or_nothing_passes() -> None:
+    sh = Sheet("Leg")
+    sh.given("P", "85 lbf", "Load", min="500 lbf", max="1000 lbf")
+    sh.given("L", "42 in", "Length")
+    sh.given("S", "0.3 in^3", "Section modulus")
+    sh.given("F_y", "35 ksi", "Yield", min="30 ksi", max="60 ksi")
+    sh.step("sigma", "P*L/S", "Stress", unit="ksi")
+    sh.check("Stress", demand="sigma", capacity="F_y")
+    panel = what_if(sh)
+    assert panel.what_would_it_take("F_y").status == "passes"  # 85·42/0.3 = 11.9 ksi < 30 ksi
+    assert "whole range" in panel.what_would_it_take("F_y").message
+    panel.set("F_y", "35 ksi")
+    assert panel.what_would_it_take("P").status == "fails"  # 500·42/0.3 = 70 ksi > 35 ksi
+    assert "nothing in range passes" in panel.what_would_it_take("P").message
+
+
+def test_lightest_section_passes_and_every_lighter_one_fails() -> None:
+    from calcpad.core.errors import CalcpadError
+
+    panel = post_panel()
+    ans = panel.what_would_it_take("post")
+    assert ans.status == "value" and ans.designation == ans.tried[-1]
+    session = panel.session
+    for d in ans.tried:
+        try:
+            sheet = session.build({**session.values, "post": d})[0]
+            ok = sheet.evaluate().ok
+        except CalcpadError:
+            ok = False
+        assert ok is (d == ans.designation), d
+    from calcpad.eng.sections.catalog import section_table
+
+    table = section_table("hss_square").set_index("designation")["weight"]
+    assert list(table[ans.tried]) == sorted(table[ans.tried])
+
+
+# ----------------------------------------------------------------------------- export
+
+
+JOB_HEAD = """\
+[job]
+number = "KB-0107"
+title = "Loading dock canopy"
+client = "Kestrel Bay Fabrication"
+site = "Northfield"
+engineer = "A. Engineer"
+checker = ""
+revision = "A"
+date = 2026-12-03
+codes = ["AISC 360-16"]
+units = "US"
+
+"""
+
+
+@pytest.mark.parametrize("which", ["leg", "post"])
+def test_exported_block_runs_through_the_job_loader_and_reproduces_the_ratios(which: str) -> None:
+    if which == "leg":
+        panel = leg_panel()
+        panel.set("P", "140 lbf")
+        panel.set("t", "0.2 in")
+    else:
+        panel = post_panel()
+        panel.set("post", "HSS5x5x3/16")
+        panel.set("H", "0.7 kip")
+        panel.set("plate_t", "1 in")
+    text = panel.to_job(member="C3")
+    job = parse_job(JOB_HEAD + text, "exported.toml")
+    outcome = run_calc_inprocess(job.calcs[0])
+    assert outcome.error is None
+    recs = [s["record"] for s in outcome.sheets]
+    rec = next(r for r in recs if r["title"] == panel.sheet.title)
+    got = {c["title"]: c["ratio"] for c in rec["checks"]}
+    assert got.keys() == panel.ratios.keys()
+    for title, ratio in panel.ratios.items():
+        assert got[title] == pytest.approx(ratio, rel=1e-12)
+
+
+def test_bind_refuses_a_given_that_the_parameter_does_not_set() -> None:
+    from calcpad.core.errors import SheetError
+
+    sh = TemplateSession("leg_bending").build()[0]
+    with pytest.raises(SheetError, match=r"bind 'P' -> 'L'.*differ"):
+        what_if(sh, template="leg_bending", bind={"P": "L"})
+
+
+def test_an_unbound_parameter_re_runs_the_template() -> None:
+    panel = leg_panel()
+    runs = panel.session.runs
+    assert panel.set("FS_req", 2.0) is True  # FS_req goes into the check, not into a given
+    assert panel.session.runs == runs + 1
+    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
