@@ -2,7 +2,7 @@
 
 ::
 
-    calcpad run JOB.toml [--out DIR] [--notebooks] [--json]
+    calcpad run JOB.toml [--out DIR] [--print full|summary|calc:MARK] [--no-pdf] [--notebooks] [--json]
     calcpad run TEMPLATE.py|.ipynb|NAME --set name="value unit" ... [--member M1] [--out DIR] [--json]
     calcpad templates
     calcpad new JOB.toml [--template NAME ...]
@@ -15,12 +15,14 @@ to run (the other calcs still run; the folder is written and marks the failure).
 from __future__ import annotations
 
 import argparse
+import contextlib
 import json
 import os
 import runpy
 import sys
 import tempfile
 import time
+from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
@@ -70,7 +72,7 @@ def _run(args: argparse.Namespace) -> int:
     from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     from calcpad.runner.execute import run_job
-    from calcpad.runner.job import load_job, single_template_job
+    from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.record import job_record, write_outputs
 
     err = Console(stderr=True)
@@ -83,6 +85,8 @@ def _run(args: argparse.Namespace) -> int:
             raise CalcpadError("--set applies to a template run (calcpad run TEMPLATE.py --set ...); put job values in the job file")
         job = load_job(args.target)
         out_dir = Path(args.out) if args.out else Path("build") / Path(args.target).stem
+    if args.print is not None:
+        check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
     start = time.perf_counter()
     failures: list[str] = []
@@ -108,8 +112,10 @@ def _run(args: argparse.Namespace) -> int:
         outcomes = run_job(job, mode=mode, progress=tick)
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
+    pdf = None
     if out_dir is not None:
-        write_outputs(out_dir, job, outcomes, record, notebooks=args.notebooks)
+        with err.status("printing submittal.pdf", spinner="line") if not args.no_pdf and err.is_terminal else _nothing():
+            _, pdf = write_outputs(out_dir, job, outcomes, record, notebooks=args.notebooks, print_mode=args.print, pdf=not args.no_pdf)
     if args.json:
         print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
     else:
@@ -120,10 +126,17 @@ def _run(args: argparse.Namespace) -> int:
                     _print_sheet_text(out, s["record"])
     if out_dir is not None:
         err.print(f"submittal written: {out_dir / 'submittal.html'}", highlight=False, soft_wrap=True)
+        if pdf is not None:
+            err.print(f"{'PDF' if pdf.written else 'no PDF'}: {pdf.message}", highlight=False, soft_wrap=True, markup=False)
     summ = record["summary"]
     if summ["errors"]:
         return EXIT_BAD
     return EXIT_NG if summ["ng"] else EXIT_OK
+
+
+@contextlib.contextmanager
+def _nothing() -> Iterator[None]:
+    yield
 
 
 def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, Any]) -> None:
@@ -241,6 +254,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--out", help="output folder (job default: build/JOBNAME; template default: print only)")
     run.add_argument("--notebooks", action="store_true", help="run in a Jupyter kernel and keep executed notebooks in OUT/notebooks")
     run.add_argument("--json", action="store_true", help="print the job record as JSON on stdout")
+    run.add_argument("--print", metavar="full|summary|calc:MARK", help="what the submittal prints (default: the job's `print`, else full)")
+    run.add_argument("--no-pdf", action="store_true", help="write submittal.html only (no Chromium run)")
     run.add_argument("--set", action="append", metavar='NAME="VALUE UNIT"', help="template run: set a parameter (repeatable)")
     run.add_argument("--member", help="template run: member mark (default '-')")
     sub.add_parser("templates", help="list templates and their parameters")

@@ -15,7 +15,7 @@ Record format ``"calcpad-job-record/1"``::
 Everything except ``run`` depends only on the job and the installed versions, so in-process and
 kernel runs give the same record apart from ``run``.
 
-The output folder (``submittal.html``, ``record.json``, optionally ``notebooks/*.ipynb``) is
+The output folder (``submittal.html``, ``submittal.pdf``, ``record.json``, optionally ``notebooks/*.ipynb``) is
 built in a temporary sibling folder and renamed into place: a reader never sees it half-written.
 """
 
@@ -137,16 +137,33 @@ def _notebook_name(o: CalcOutcome) -> str:
     return f"{o.calc.number:02d}_{o.calc.template.name}_{mark}.ipynb"
 
 
-def write_outputs(out_dir: Path, job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], notebooks: bool = False) -> Path:
-    """Write ``submittal.html``, ``record.json`` and (kernel runs) ``notebooks/*.ipynb`` atomically."""
-    from calcpad.runner.submittal import submittal_html
+def write_outputs(
+    out_dir: Path,
+    job: Job,
+    outcomes: list[CalcOutcome],
+    record: dict[str, Any],
+    notebooks: bool = False,
+    print_mode: str | None = None,
+    pdf: bool = True,
+) -> tuple[Path, Any]:
+    """Write ``submittal.html``, ``record.json``, ``submittal.pdf`` (unless ``pdf`` is False) and
+    (kernel runs) ``notebooks/*.ipynb`` atomically.
 
-    html = submittal_html(job, outcomes, record)
+    Returns the folder and the :class:`calcpad.report.pdf.PdfResult` (None without ``pdf``); a
+    missing Chromium leaves the PDF out and says so in that result, never an error.
+    """
+    from calcpad.report.layout import submittal_html
+    from calcpad.report.pdf import write_pdf
+
+    html = submittal_html(job, outcomes, record, print_mode)
     text = json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False) + "\n"
+    printed: list[Any] = [None]
 
     def fill(tmp: Path) -> None:
         (tmp / "submittal.html").write_text(html, encoding="utf-8")
         (tmp / "record.json").write_text(text, encoding="utf-8")
+        if pdf:
+            printed[0] = write_pdf(tmp / "submittal.html", tmp / "submittal.pdf")
         if notebooks:
             import nbformat  # lazy: kernel path only
 
@@ -156,4 +173,4 @@ def write_outputs(out_dir: Path, job: Job, outcomes: list[CalcOutcome], record: 
                 if o.notebook is not None:
                     nbformat.write(o.notebook, str(nb_dir / _notebook_name(o)))
 
-    return write_atomic_dir(out_dir, fill)
+    return write_atomic_dir(out_dir, fill), printed[0]
