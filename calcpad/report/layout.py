@@ -123,15 +123,15 @@ def _cover(c: _Context) -> str:
     facts.append(("Printed", mode))
     rows = "".join(f"<tr><th>{_e(k)}</th><td>{_e(v)}</td></tr>" for k, v in facts)
     cautions = "".join(f"<p>{_e(t)}</p>" for t in CAUTIONS)
+    people = (("Prepared by", info.engineer), ("Checked by", info.checker), ("Approved by", ""))
     sign = (
         '<div class="signoff"><table>'
-        "<tr><th>Prepared by</th><th>Signature</th><th>Date</th></tr>"
-        f'<tr><td class="name">{_e(info.engineer)}</td><td></td><td></td></tr>'
-        "<tr><th>Checked by</th><th>Signature</th><th>Date</th></tr>"
-        f'<tr><td class="name">{_e(info.checker)}</td><td></td><td></td></tr>'
-        "<tr><th>Approved for construction by</th><th>Signature</th><th>Date</th></tr>"
-        '<tr><td class="name"></td><td></td><td></td></tr>'
-        '</table><div class="seal">Seal and signature of the engineer of record</div></div>'
+        + "".join(
+            f'<tr><td class="who"><small>{_e(role)}</small><br>{_e(name) or "&nbsp;"}</td>'
+            '<td class="line"><small>Signature</small></td><td class="line date"><small>Date</small></td></tr>'
+            for role, name in people
+        )
+        + '</table><div class="seal">Seal and signature<br>of the engineer of record</div></div>'
     )
     v = record.get("versions", {})
     libs = ", ".join(f"{k} {v[k]}" for k in ("python", "pint", "sympy", "numpy") if k in v)
@@ -288,10 +288,9 @@ def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any]
         f"record {digest or '(no digest)'} · calcpad {version} · run {_run_date(record)[:10]}",
         "For review by a qualified, licensed engineer. Local codes and the authority having jurisdiction govern.",
     )
-    css = page_css(info.paper, (info.number, info.title), (f"Rev {info.revision}", info.date), footer)
+    css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision} · {info.date}", footer)
     css += band_css("cover", "Cover and sign-off", "")
-    css += band_css("contents", "Contents", "")
-    css += band_css("front", "Design criteria and summary", "")
+    css += band_css("front", "Contents, design criteria and summary", "")
     css += "".join(band_css(f"g{i}", *_band(g)) for i, g in enumerate(printed, start=1))
     body = cover + contents + front + calcs
     title = f"{info.number} {info.title}"

@@ -21,7 +21,7 @@ h1, h2, h3, h4, h5 { break-after: avoid-page; break-inside: avoid; }
 tr, .tb-row, .toc-entry { break-inside: avoid; }
 thead { display: table-header-group; }
 .cover { page: cover; }
-.contents { page: contents; }
+.contents { page: front; }
 .front { page: front; }
 .cover h1 { font-size: 1.6em; border-bottom: 3px double #111; margin: 0 0 .2em; }
 .cover .lead { font-size: 1.05em; margin: 0 0 .8em; color: #333; }
@@ -32,12 +32,14 @@ table.facts td { padding: .18em 0; border-bottom: .5pt solid #bbb; }
 .status-line.bad { border-width: 3pt; }
 .cautions { border-left: 4pt solid #111; padding: .3em .8em; margin: .8em 0; }
 .cautions p { margin: .2em 0; }
-.signoff { display: grid; grid-template-columns: minmax(0, 1fr) 2.4in; gap: 0 1.2em; margin: .8em 0; break-inside: avoid; }
-.signoff table { border-collapse: collapse; width: 100%; }
-.signoff th { text-align: left; font-weight: normal; color: #444; padding: .2em 0; }
-.signoff td { padding: 1.6em .4em .1em 0; border-bottom: .75pt solid #111; vertical-align: bottom; }
-.signoff td.name { border-bottom: none; padding-right: 1em; }
-.seal { border: 1pt dashed #111; height: 2.4in; display: flex; align-items: flex-end; justify-content: center; font-size: .8em; color: #444; padding-bottom: .4em; box-sizing: border-box; }
+.signoff { display: grid; grid-template-columns: minmax(0, 1fr) 2.1in; gap: 0 1.2em; margin: .8em 0; break-inside: avoid; }
+.signoff table { border-collapse: separate; border-spacing: .9em 0; width: 100%; margin-left: -.9em; }
+.signoff td { vertical-align: top; height: .62in; padding: .1em 0; }
+.signoff td.who { width: 38%; }
+.signoff td.line { border-bottom: .75pt solid #111; }
+.signoff td.date { width: 22%; }
+.signoff small { color: #555; font-size: .78em; }
+.seal { border: 1pt dashed #111; height: 2.1in; display: flex; align-items: flex-end; justify-content: center; text-align: center; font-size: .8em; color: #444; padding: .4em; box-sizing: border-box; }
 table.list { border-collapse: collapse; width: 100%; margin: .4em 0 1em; font-size: .92em; }
 table.list th, table.list td { border: .5pt solid #888; padding: .15em .45em; text-align: left; vertical-align: top; }
 table.list th { background: #eee; font-weight: bold; }
@@ -47,7 +49,8 @@ table.list tr.ng td { border-top: 1.5pt solid #111; border-bottom: 1.5pt solid #
 .mark-error { border: 1.5pt dashed #111; padding: 0 .3em; font-weight: bold; }
 .software { font-size: .85em; color: #333; margin-top: .8em; }
 .software code { font-size: .95em; }
-.contents h2 { margin-top: 0; }
+.contents h2, .front > h2:first-child { margin-top: 0; }
+.contents { margin-bottom: 1.5em; }
 .toc-entry { display: flex; align-items: baseline; margin: .22em 0; color: #111; text-decoration: none; }
 .toc-entry.sub { margin-left: 1.6em; font-size: .92em; }
 .toc-title { flex: 0 1 auto; }
@@ -80,23 +83,23 @@ def band_css(name: str, section: str, detail: str) -> str:
     return f"@page {name} {{ @top-center {{ content: {content}; }} }}\n"
 
 
-def page_css(paper: str, left: tuple[str, str], right: tuple[str, str], footer: tuple[str, str]) -> str:
+def page_css(paper: str, left: tuple[str, str], right: str, footer: tuple[str, str]) -> str:
     """The ``@page`` rules shared by every page, then the static layout CSS.
 
-    ``left``: job number, project title; ``right``: revision, date; ``footer``: left and right
-    footer text. The page counter is added to the right cell.
+    ``left``: job number, project title; ``right``: revision and date on one line (the page
+    counter goes under it); ``footer``: left and right footer text.
     """
     size = PAPER_SIZES[paper]
-    band = "border-bottom: 1.2pt solid #111; vertical-align: bottom; padding-bottom: 5pt;"
-    foot = "border-top: .5pt solid #777; vertical-align: top; padding-top: 4pt;"
+    cell = "white-space: pre-wrap; vertical-align: middle; margin: .3in 0 .14in 0; padding: 0 9pt 0 5pt; border: .75pt solid #111;"
+    foot = "vertical-align: top; padding-top: 3pt; margin-bottom: .25in;"
     return f"""
 @page {{
   size: {size};
-  margin: 0.95in 0.6in 0.62in 0.6in;
-  @top-left {{ content: {css_string(left[0])} "\\A " {css_string(left[1])}; white-space: pre-wrap; width: 36%; text-align: left; {_BOX} {band} }}
-  @top-center {{ content: ""; white-space: pre-wrap; width: 40%; text-align: left; {_BOX} {band} }}
-  @top-right {{ content: {css_string(right[0])} "\\A " {css_string(right[1])} "\\A page " counter(page) " of " counter(pages);
-               white-space: pre-wrap; width: 24%; text-align: right; {_BOX} {band} }}
+  margin: 0.95in 0.6in 0.6in 0.6in;
+  @top-left {{ content: {css_string(left[0])} "\\A " {css_string(left[1])}; width: calc(30% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
+  @top-center {{ content: ""; width: calc(40% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
+  @top-right {{ content: {css_string(right)} "\\A page " counter(page) " of " counter(pages);
+               width: calc(30% - 14pt); text-align: right; {_BOX} {cell} border-width: .75pt .75pt 1.5pt .75pt; }}
   @bottom-left {{ content: {css_string(footer[0])}; width: 50%; text-align: left; {_BOX} font-size: 6.5pt; {foot} }}
   @bottom-right {{ content: {css_string(footer[1])}; width: 50%; text-align: right; {_BOX} font-size: 6.5pt; {foot} }}
 }}

@@ -63,13 +63,18 @@ def page_texts(pdf_path: str | Path) -> list[str]:
 def find_pages(texts: list[str], targets: list[tuple[str, str]]) -> dict[str, int]:
     """1-based page of each target heading, searched in order after the contents pages.
 
-    The contents end on the page carrying :data:`TOC_END`; each heading is looked for from the
-    page of the one before it onwards (headings come in document order). Targets not found are
+    The contents end at :data:`TOC_END` (what follows it on that page counts); each heading is
+    looked for from the page of the one before it onwards (headings come in document order). Targets not found are
     left out of the result.
     """
     norm = [normalise(t) for t in texts]
     end = normalise(TOC_END)
-    start = next((i + 1 for i, t in enumerate(norm) if end in t), 0)
+    start = 0
+    for i, t in enumerate(norm):
+        if end in t:  # the contents end here: search only what follows them
+            norm[i] = t.split(end, 1)[1]
+            start = i
+            break
     found: dict[str, int] = {}
     for ref, text in targets:
         key = normalise(text)
