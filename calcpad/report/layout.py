@@ -207,7 +207,7 @@ def _summary(c: _Context) -> str:
             rows.append(
                 f'<tr{cls}><td class="num">{o.calc.number}</td><td>{_e(o.calc.member)}</td><td>{_e(g.title)}</td>'
                 f'<td>{_e(check)}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
-                f'<td>{_status_mark(o.status)}</td><td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
+                f'<td class="st">{_status_mark(o.status)}</td><td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
             )
     head = "<tr><th>Calc</th><th>Member</th><th>Calc title</th><th>Governing check</th><th>Ratio</th><th>Status</th><th>Page</th></tr>"
     return _h2(c, "summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
@@ -220,7 +220,7 @@ def _all_checks(c: _Context) -> str:
             cls = ' class="ng"' if ch["status"] != "OK" else ""
             rows.append(
                 f"<tr{cls}><td>{_e(', '.join(g.marks))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
-                f"<td>{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"
+                f"<td class=\"st\">{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"
             )
     head = "<tr><th>Members</th><th>Check</th><th>Ratio</th><th>Status</th><th>Reference</th></tr>"
     return _h2(c, "checks", "Every check") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
@@ -288,7 +288,7 @@ def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any]
         f"record {digest or '(no digest)'} · calcpad {version} · run {_run_date(record)[:10]}",
         "For review by a qualified, licensed engineer. Local codes and the authority having jurisdiction govern.",
     )
-    css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision} · {info.date}", footer)
+    css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision or '—'} · {info.date or 'undated'}", footer)
     css += band_css("cover", "Cover and sign-off", "")
     css += band_css("front", "Contents, design criteria and summary", "")
     css += "".join(band_css(f"g{i}", *_band(g)) for i, g in enumerate(printed, start=1))

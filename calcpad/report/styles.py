@@ -15,7 +15,7 @@ PAPER_SIZES = {"letter": "letter", "a4": "A4"}
 _BOX = "font-family: 'DejaVu Sans', sans-serif; font-size: 7.5pt; line-height: 1.3; color: #111;"
 
 _STATIC = """
-body { max-width: 60em; }
+body { max-width: 60em; font-size: 10pt; }
 @media print { body { max-width: none; margin: 0; } }
 h1, h2, h3, h4, h5 { break-after: avoid-page; break-inside: avoid; }
 tr, .tb-row, .toc-entry { break-inside: avoid; }
@@ -43,7 +43,8 @@ table.facts td { padding: .18em 0; border-bottom: .5pt solid #bbb; }
 table.list { border-collapse: collapse; width: 100%; margin: .4em 0 1em; font-size: .92em; }
 table.list th, table.list td { border: .5pt solid #888; padding: .15em .45em; text-align: left; vertical-align: top; }
 table.list th { background: #eee; font-weight: bold; }
-table.list td.num { text-align: right; white-space: nowrap; }
+table.list td.num, table.list td.st { text-align: right; white-space: nowrap; }
+table.list td.st { text-align: left; }
 table.list tr.ng td { border-top: 1.5pt solid #111; border-bottom: 1.5pt solid #111; font-weight: bold; }
 .mark-ng { border: 1.5pt solid #111; padding: 0 .3em; font-weight: bold; }
 .mark-error { border: 1.5pt dashed #111; padding: 0 .3em; font-weight: bold; }
@@ -62,6 +63,12 @@ section.calc > h2 { font-size: 1.2em; border-bottom: 2px solid #111; margin-top:
 .calc-meta { font-size: .88em; color: #333; margin: 0 0 .6em; }
 .typical { border: 1pt solid #111; padding: .25em .6em; margin: .3em 0 .7em; font-size: .92em; break-inside: avoid; }
 .calc-error { border: 2pt solid #111; padding: .5em; font-family: monospace; white-space: pre-wrap; }
+/* a long unbroken word (a module path in a reference) must not widen the page: Chromium would
+   shrink every page to fit it */
+section.sheet .desc, section.sheet .ref { overflow-wrap: anywhere; min-width: 0; }
+section.sheet table.grid:has(th:nth-child(7)) { font-size: .86em; }
+section.sheet table.grid:has(th:nth-child(10)) { font-size: .78em; }
+section.sheet table.grid:has(th:nth-child(7)) th, section.sheet table.grid:has(th:nth-child(7)) td { padding: .12em .3em; }
 section.sheet > h3 { font-size: 1.05em; background: #eee; padding: .15em .4em; border-left: 3pt solid #111; }
 """
 
@@ -90,12 +97,12 @@ def page_css(paper: str, left: tuple[str, str], right: str, footer: tuple[str, s
     counter goes under it); ``footer``: left and right footer text.
     """
     size = PAPER_SIZES[paper]
-    cell = "white-space: pre-wrap; vertical-align: middle; margin: .3in 0 .14in 0; padding: 0 9pt 0 5pt; border: .75pt solid #111;"
-    foot = "vertical-align: top; padding-top: 3pt; margin-bottom: .25in;"
+    cell = "white-space: pre-wrap; vertical-align: middle; margin: .25in 0 .1in 0; padding: 0 9pt 0 5pt; border: .75pt solid #111;"
+    foot = "vertical-align: top; padding-top: 3pt; margin-bottom: .2in;"
     return f"""
 @page {{
   size: {size};
-  margin: 0.95in 0.6in 0.6in 0.6in;
+  margin: 0.85in 0.55in 0.5in 0.55in;
   @top-left {{ content: {css_string(left[0])} "\\A " {css_string(left[1])}; width: calc(30% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
   @top-center {{ content: ""; width: calc(40% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
   @top-right {{ content: {css_string(right)} "\\A page " counter(page) " of " counter(pages);

@@ -4,7 +4,8 @@ Chromium has no ``target-counter()``, so the contents are numbered in two passes
 writes each entry's page as an empty ``<span class="toc-page" data-ref=ID data-find=TEXT>``; after
 a first print, :func:`find_pages` reads the PDF's text (pypdfium2) and finds the page where each
 heading's text first appears after the contents; :func:`fill_pages` writes the numbers in.
-Text is compared without white space, case-folded and NFKC-normalised (ligatures, line breaks).
+Text is compared without white space, case-folded and NFKC-normalised (ligatures, line breaks,
+hyphens at a line end).
 """
 
 from __future__ import annotations
@@ -21,7 +22,11 @@ _SPAN = re.compile(r'<span class="toc-page" data-ref="([^"]+)" data-find="([^"]*
 
 
 def normalise(text: str) -> str:
-    """Text for matching: NFKC, case-folded, no white space."""
+    """Text for matching: NFKC, case-folded, no white space.
+
+    PDFium reports a hyphen at a line end as U+FFFE: it is put back as "-".
+    """
+    text = text.replace("\ufffe", "-").replace("\u00ad", "")
     return "".join(unicodedata.normalize("NFKC", text).casefold().split())
 
 

@@ -24,7 +24,8 @@ CHROMIUM = "/usr/bin/chromium"
 needs_chromium = pytest.mark.skipif(not os.path.exists(CHROMIUM), reason=f"{CHROMIUM} is absent (Debian package `chromium`; .ci/run installs it)")
 ARTIFACTS = ROOT / "build" / "test-artifacts"
 # The interim single-page submittal (main c376468) printed by the same headless Chromium with the
-# same flags: 51 Letter pages for the example job (measured 2026-12-03, before this layout).
+# same flags: 51 Letter pages for the example job (measured 2026-12-03, before this layout; also 51
+# with its overflow fixed and the body at 10 pt as here).
 PAGES_BEFORE = 51
 
 
@@ -102,6 +103,28 @@ def test_three_pages_rendered_to_png(printed: dict[str, Any]) -> None:
         subprocess.run(["pdftoppm", "-r", "60", "-png", "-singlefile", "-f", str(page), "-l", str(page), str(printed["out"] / "submittal.pdf"), str(stem)], check=True)
         png = stem.with_suffix(".png")
         assert png.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n" and png.stat().st_size > 5000
+
+
+def _label_width(pdf: Path, label: str = "Engineer of record") -> float:
+    """Printed width (pt) of a cover label: the same CSS gives the same width unless the page was shrunk."""
+    import pypdfium2 as pdfium
+
+    doc = pdfium.PdfDocument(str(pdf))
+    text = doc[0].get_textpage()
+    start, count = text.search(label).get_next()
+    width = text.get_charbox(start + count - 1)[2] - text.get_charbox(start)[0]
+    doc.close()
+    return width
+
+
+@needs_chromium
+def test_pages_are_not_shrunk_to_fit(printed: dict[str, Any], tmp_path: Path, tiny_env: Path) -> None:
+    # Chromium scales every page down when one element is wider than the page (it did: a long
+    # module path in a reference column shrank the whole example to 95.6 %).
+    job = tmp_path / "small.toml"
+    job.write_text(JOB_HEAD + tiny_calc("M1"))
+    assert main(["run", str(job), "--out", str(tmp_path / "out")]) == 0
+    assert _label_width(printed["out"] / "submittal.pdf") == pytest.approx(_label_width(tmp_path / "out" / "submittal.pdf"), rel=0.002)
 
 
 @needs_chromium

@@ -36,8 +36,9 @@ def test_missing_heading_left_out() -> None:
     assert find_pages([f"{TOC_END}", "nothing"], [("x", "Absent heading")]) == {}
 
 
-def test_normalise_ligature_case_and_space() -> None:
+def test_normalise_ligature_case_space_and_line_end_hyphen() -> None:
     assert normalise("Eﬃcient  Fillet\nWeld") == normalise("efficient filletweld")
+    assert normalise("member CS\ufffe\r\n2") == normalise("member CS-2")  # PDFium: hyphen at a line end
 
 
 def test_css_string_cannot_escape_its_rule() -> None:
