@@ -18,7 +18,7 @@ $(STAMP): pyproject.toml
 demo: $(STAMP)
 	$(PY) -m calcpad.cli run examples/harbor_ridge_condenser_stand.toml --out build/demo; \
 	  rc=$$?; if [ $$rc -gt 1 ]; then exit $$rc; fi; \
-	  echo "submittal: $(CURDIR)/build/demo/submittal.html (record: build/demo/record.json)"
+	  echo "submittal: $(CURDIR)/build/demo/ (submittal.pdf when Chromium is installed, submittal.html, record.json)"
 
 test: $(STAMP)
 	$(VENV)/bin/ruff check calcpad tests benchmarks
