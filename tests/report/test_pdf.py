@@ -39,13 +39,16 @@ def printed(tmp_path_factory: pytest.TempPathFactory) -> dict[str, Any]:
     import pypdfium2 as pdfium
 
     doc = pdfium.PdfDocument(str(pdf))
-    outline = [(b.get_title(), b.get_dest().get_index()) for b in doc.get_toc() if b.get_dest() is not None]
+    marks = [b for b in doc.get_toc() if b.get_dest() is not None]
+    outline = [(b.get_title(), b.get_dest().get_index()) for b in marks]
+    heading_tops = [(b.get_title(), b.get_dest().get_index() + 1, b.get_dest().get_view()[1][1]) for b in marks]
     sizes = [doc[i].get_size() for i in range(len(doc))]
     doc.close()
     return {
         "out": out,
         "texts": page_texts(pdf),
         "outline": outline,
+        "heading_tops": heading_tops,
         "sizes": sizes,
         "html": (out / "submittal.html").read_text(encoding="utf-8"),
         "record": json.loads((out / "record.json").read_text()),
@@ -64,6 +67,17 @@ def test_every_page_carries_job_revision_and_page_n_of_n(printed: dict[str, Any]
         digest = printed["record"].get("record_digest", "")[:12]
         assert (f"record {digest}" if digest else "record (no digest)") in text, i
     assert all((round(w), round(h)) == (612, 792) for w, h in printed["sizes"])  # Letter, 8.5 x 11 in at 72 pt/in
+    first_calc = next(i for i, t in enumerate(texts) if "Calc 1 · member CS-2" in t)
+    for i, text in enumerate(texts[first_calc:], start=first_calc + 1):
+        assert re.search(r"Calcs? [\d, ]+ · (member \S+|typical for [\w, -]+)", text), i  # calc and marks in the band
+
+
+@needs_chromium
+def test_no_heading_stranded_at_a_page_bottom(printed: dict[str, Any]) -> None:
+    # Chromium's outline gives each heading's top (pt from the page bottom). The body ends at the
+    # 0.5 in bottom margin (36 pt); a heading with its first row needs about 40 pt above that.
+    low = [(title, page, round(top)) for title, page, top in printed["heading_tops"] if top < 36 + 40]
+    assert not low, low
 
 
 @needs_chromium
@@ -85,7 +99,7 @@ def test_contents_page_numbers_match_the_printed_headings(printed: dict[str, Any
 @needs_chromium
 def test_page_count_falls_and_calc_titles_on_their_pages(printed: dict[str, Any]) -> None:
     pages = len(printed["texts"])
-    assert pages < PAGES_BEFORE - 10, pages  # 15 pages repeated identical sheets before grouping
+    assert pages < PAGES_BEFORE, f"{pages} pages now, {PAGES_BEFORE} before"
     joined = "\n".join(printed["texts"])
     assert "typical for L1, L3, L4" in joined and "typical for SP1, SP2, SP3" in joined
     for mark in ("CS-2", "L1", "L2", "L3", "L4", "SP1", "SP2", "SP3", "C1", "C2", "B1", "KB1", "KB2"):
