@@ -180,3 +180,11 @@ def test_bad_print_option_exits_2_and_writes_nothing(tmp_path: Path, tiny_env: P
     assert main(["run", str(job), "--out", str(out), "--print", "calc:Q7"]) == 2
     assert "--print: 'calc:Q7': no member 'Q7'" in capsys.readouterr().err
     assert not out.exists()
+
+
+def test_failing_chromium_leaves_no_pdf_and_says_why(tmp_path: Path, tiny_env: Path, monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
+    monkeypatch.setenv("CALCPAD_CHROMIUM", "/bin/false")  # starts, prints nothing, exits 1
+    out = tmp_path / "out"
+    assert main(["run", "tiny", "--out", str(out)]) == 0
+    assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]  # no temporary file left either
+    assert "submittal.pdf not written: Chromium exited with code 1 and wrote no PDF" in capsys.readouterr().err
