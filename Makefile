@@ -19,7 +19,7 @@ demo: $(STAMP)
 	$(PY) -m calcpad.cli run examples/harbor_ridge_condenser_stand.toml --out build/demo; \
 	  rc=$$?; if [ $$rc -gt 1 ]; then exit $$rc; fi; \
 	  rec=$$($(PY) -c 'from calcpad.runner.recordfile import find_record; print(find_record("build/demo").resolve())'); \
-	  echo "submittal: $$(dirname $$rec)/submittal.html (record: $$rec)"
+	  echo "submittal: $$(dirname $$rec)/submittal.pdf (when Chromium is installed) and submittal.html; record: $$rec"
 
 test: $(STAMP)
 	$(VENV)/bin/ruff check calcpad tests benchmarks

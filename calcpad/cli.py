@@ -2,7 +2,8 @@
 
 ::
 
-    calcpad run JOB.toml [--out DIR] [--notebooks] [--json] [--templates DIR] [--wait S]
+    calcpad run JOB.toml [--out DIR] [--print full|summary|calc:MARK] [--no-pdf] [--notebooks] [--json]
+                         [--templates DIR] [--wait S]
     calcpad run NAME|LIBRARY/NAME.py --set name="value unit" ... [--member M1] [--out DIR] [--json]
     calcpad issue OUT --by "J. Smith, P.E." [--revision B]
     calcpad templates [--templates DIR]
@@ -23,6 +24,7 @@ stderr, the traceback saved to a log file it names); 130 interrupted (nothing ha
 from __future__ import annotations
 
 import argparse
+import contextlib
 import json
 import math
 import os
@@ -85,7 +87,7 @@ def _run(args: argparse.Namespace) -> int:
     from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     from calcpad.runner.execute import run_job
-    from calcpad.runner.job import load_job, single_template_job
+    from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.outfolder import check_target, write_outputs
     from calcpad.runner.record import job_record
 
@@ -104,6 +106,8 @@ def _run(args: argparse.Namespace) -> int:
         protect.append(Path(args.target))
     protect += [c.template.path for c in job.calcs]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
+    if args.print is not None:
+        check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
     start = time.perf_counter()
     failures: list[str] = []
@@ -129,7 +133,17 @@ def _run(args: argparse.Namespace) -> int:
         outcomes = run_job(job, mode=mode, progress=tick)
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
-    folder = write_outputs(target, job, outcomes, record, notebooks=args.notebooks, wait=args.wait) if target is not None else None
+    pdf = None
+    folder = None
+    if target is not None:
+        from calcpad.report import write_submittal
+
+        def submittal(d: Path) -> None:
+            nonlocal pdf
+            pdf = write_submittal(d, job, outcomes, record, print_mode=args.print, pdf=not args.no_pdf)
+
+        with err.status("printing submittal.pdf", spinner="line") if not args.no_pdf and err.is_terminal else contextlib.nullcontext():
+            folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait)
     if args.json:
         print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
     else:
@@ -140,6 +154,8 @@ def _run(args: argparse.Namespace) -> int:
                     _print_sheet_text(out, s)
     if folder is not None:
         err.print(f"submittal written: {folder / 'submittal.html'}", highlight=False, soft_wrap=True)
+        if pdf is not None:
+            err.print(f"{'PDF' if pdf.written else 'no PDF'}: {pdf.message}", highlight=False, soft_wrap=True, markup=False)
     summ = record["summary"]
     if summ["errors"]:
         return EXIT_BAD
@@ -461,6 +477,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--set", action="append", metavar='NAME="VALUE UNIT"',
                      help='set a parameter (repeatable): NAME="..." on a template run, MARK.NAME="..." on a job run '
                           "(only the changed calcs run and print; nothing is written unless --out is given)")
+    run.add_argument("--print", metavar="full|summary|calc:MARK", help="what the submittal prints (default: the job's `print`, else full)")
+    run.add_argument("--no-pdf", action="store_true", help="write submittal.html only (no Chromium run)")
     run.add_argument("--member", help="template run: member mark (default '-')")
     issue = sub.add_parser("issue", parents=[waiting], help="mark a revision in an output folder as issued and seal it read-only")
     issue.add_argument("out", help="the output folder of a run (--out)")

@@ -27,7 +27,7 @@ def tiny_env(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Path:
 def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.MonkeyPatch, capsys: pytest.CaptureFixture[str]) -> None:
     monkeypatch.chdir(ROOT)
     out = tmp_path / "demo"
-    assert main(["run", "examples/harbor_ridge_condenser_stand.toml", "--out", str(out)]) == 0
+    assert main(["run", "examples/harbor_ridge_condenser_stand.toml", "--out", str(out), "--no-pdf"]) == 0  # PDF: tests/report
     assert sorted(p.name for p in out.iterdir()) == [".calcpad-lock", ".calcpad-manifest.json", "rev-A"]
     out = out / "rev-A"  # the example job is revision A
     assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]
@@ -38,7 +38,7 @@ def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.Mo
     for text in ("HRM-2417", "Northgate Cold Storage Co.", "R. Lindqvist, P.E.", "AISC 360-16", "CAUTION", "Contents", "Summary of checks"):
         assert text in html
     assert "<script" not in html
-    assert html.count('<section class="calc"') == len(record["calcs"])
+    assert html.count('<section class="calc"') == 7  # one per [[calcs]] table: members of a table share inputs (typical)
     assert f"submittal written: {out / 'submittal.html'}" in capsys.readouterr().err
 
 
@@ -60,7 +60,7 @@ def test_malformed_toml_exit_2(tmp_path: Path, capsys: pytest.CaptureFixture[str
 
 
 def test_ng_exits_1(tmp_path: Path, tiny_env: Path) -> None:
-    assert main(["run", "tiny", "--set", "P=300 lbf", "--out", str(tmp_path / "o")]) == 1
+    assert main(["run", "tiny", "--set", "P=300 lbf", "--out", str(tmp_path / "o"), "--no-pdf"]) == 1
     assert json.loads((tmp_path / "o" / "rev-draft" / "record.json").read_text())["summary"]["ng"] == 1
 
 
@@ -80,7 +80,7 @@ def test_failing_cell_reported_other_calcs_run(tmp_path: Path, tiny_env: Path, c
     job = tmp_path / "job.toml"
     job.write_text(JOB_HEAD + tiny_calc("A1", mode='"fail"') + tiny_calc("A2"))
     out = tmp_path / "out"
-    assert main(["run", str(job), "--out", str(out)]) == 2
+    assert main(["run", str(job), "--out", str(out), "--no-pdf"]) == 2
     captured = capsys.readouterr()
     assert "template 'tiny', cell 4: ValueError: requested failure" in captured.err
     out = out / "rev-0"
@@ -91,7 +91,7 @@ def test_failing_cell_reported_other_calcs_run(tmp_path: Path, tiny_env: Path, c
 
 def test_notebooks_flag_keeps_executed_notebooks(tmp_path: Path, tiny_env: Path) -> None:
     out = tmp_path / "out"
-    assert main(["run", "tiny", "--member", "B7", "--out", str(out), "--notebooks"]) == 0
+    assert main(["run", "tiny", "--member", "B7", "--out", str(out), "--notebooks", "--no-pdf"]) == 0
     out = out / "rev-draft"
     (nb,) = (out / "notebooks").iterdir()
     assert nb.name == "01_tiny_B7.ipynb"

@@ -10,6 +10,14 @@
     date = 2025-03-14            # a TOML date or a string
     codes = ["AISC 360-16", "ASCE 7-16"]
     units = "US"                 # "US" or "SI": display units of sheets that do not fix their own
+    paper = "letter"             # optional: "letter" (default) or "a4", the submittal's page size
+    print = "full"               # optional: "full", "summary" or "calc:MARK" (what the submittal prints)
+
+    [[job.revisions]]            # optional revision log, oldest first; must include `revision`
+    rev = "A"
+    date = 2025-03-14
+    description = "Issued for review"
+    by = "D. Okafor"
 
     [[calcs]]
     template = "leg_bending"     # a name from `calcpad templates` (never a path: templates are code)
@@ -47,12 +55,27 @@ from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
 from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
 
-__all__ = ["Calc", "Job", "JobError", "JobInfo", "input_record", "load_job", "parse_job", "single_template_job"]
+__all__ = [
+    "PAPERS",
+    "Calc",
+    "Job",
+    "JobError",
+    "JobInfo",
+    "check_print_mark",
+    "input_record",
+    "load_job",
+    "parse_job",
+    "print_mode",
+    "single_template_job",
+]
 
-JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units")
+JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "paper", "print", "revisions")
+PAPERS = ("letter", "a4")
+REVISION_KEYS = ("rev", "date", "description", "by")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
 CALC_KEYS = ("template", "member", "members", "title", "inputs")
 CONTEXT_PARAMETERS = ("member_mark",)
+_OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions")
 _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
 
@@ -82,10 +105,13 @@ class JobInfo:
     date: str = ""
     codes: list[str] = field(default_factory=list)
     units: str = "US"
+    paper: str = "letter"  # "letter" or "a4"
+    print: str = "full"  # "full", "summary" or "calc:MARK"
+    revisions: list[dict[str, str]] = field(default_factory=list)  # {"rev", "date", "description", "by"}
 
     def as_dict(self) -> dict[str, Any]:
         """Plain dictionary (for the record)."""
-        return {k: (list(v) if isinstance(v, list) else v) for k, v in self.__dict__.items()}
+        return {k: ([dict(x) if isinstance(x, dict) else x for x in v] if isinstance(v, list) else v) for k, v in self.__dict__.items()}
 
 
 @dataclass
@@ -166,7 +192,7 @@ def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
     for key in raw:
         if key not in JOB_KEYS:
             problems.append((f"job.{key}", f"unknown key{_suggest(key, JOB_KEYS)} (allowed: {', '.join(JOB_KEYS)})"))
-    vals = {k: _str_field(raw, k, "job", problems, k in REQUIRED_JOB_KEYS) for k in JOB_KEYS if k not in ("codes", "units")}
+    vals = {k: _str_field(raw, k, "job", problems, k in REQUIRED_JOB_KEYS) for k in JOB_KEYS if k not in _OTHER_JOB_KEYS}
     codes = raw.get("codes", [])
     if isinstance(codes, str):
         codes = [codes]
@@ -177,7 +203,63 @@ def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
     if units not in ("US", "SI"):
         problems.append(("job.units", f"{units!r}; expected 'US' or 'SI'"))
         units = "US"
-    return JobInfo(**vals, codes=list(codes), units=units)
+    paper = raw.get("paper", "letter")
+    if paper not in PAPERS:
+        problems.append(("job.paper", f"{paper!r}; expected 'letter' or 'a4'"))
+        paper = "letter"
+    mode = raw.get("print", "full")
+    if not isinstance(mode, str) or print_mode(mode) is None:
+        problems.append(("job.print", f"{mode!r}; expected 'full', 'summary' or 'calc:MARK' (e.g. 'calc:L1')"))
+        mode = "full"
+    revisions = _revisions(raw.get("revisions", []), vals["revision"], problems)
+    return JobInfo(**vals, codes=list(codes), units=units, paper=paper, print=mode, revisions=revisions)
+
+
+def print_mode(text: str) -> tuple[str, str] | None:
+    """``("full", "")``, ``("summary", "")`` or ``("calc", MARK)`` for a print setting; None if malformed."""
+    text = text.strip()
+    if text in ("full", "summary"):
+        return text, ""
+    kind, colon, mark = text.partition(":")
+    if kind == "calc" and colon and _MARK.match(mark.strip()):
+        return "calc", mark.strip()
+    return None
+
+
+def check_print_mark(job: Job, text: str, where: str) -> None:
+    """Raise JobError when ``calc:MARK`` names no member of the job."""
+    mode = print_mode(text)
+    if mode is None:
+        raise JobError(job.source, [(where, f"{text!r}; expected 'full', 'summary' or 'calc:MARK' (e.g. 'calc:L1')")])
+    marks = list(dict.fromkeys(c.member for c in job.calcs))
+    if mode[0] == "calc" and mode[1] not in marks:
+        raise JobError(job.source, [(where, f"{text!r}: no member {mode[1]!r} in the job{_suggest(mode[1], marks)} (marks: {', '.join(marks)})")])
+
+
+def _revisions(raw: Any, current: str, problems: list[tuple[str, str]]) -> list[dict[str, str]]:
+    """Validate ``[[job.revisions]]``: each with rev, date, description and (optional) by."""
+    if raw == []:
+        return []
+    if not isinstance(raw, list) or not all(isinstance(r, dict) for r in raw):
+        problems.append(("job.revisions", f"{raw!r}; expected [[job.revisions]] tables with rev, date, description, by"))
+        return []
+    out = []
+    for i, r in enumerate(raw, start=1):
+        loc = f"job.revisions[{i}]"
+        for key in r:
+            if key not in REVISION_KEYS:
+                problems.append((f"{loc}.{key}", f"unknown key{_suggest(key, REVISION_KEYS)} (allowed: {', '.join(REVISION_KEYS)})"))
+        rev = _str_field(r, "rev", loc, problems, True) if not isinstance(r.get("rev"), (int, float)) else str(r["rev"])
+        entry = {"rev": rev, "date": _str_field(r, "date", loc, problems, True),
+                 "description": _str_field(r, "description", loc, problems, True), "by": _str_field(r, "by", loc, problems, False)}
+        out.append(entry)
+    revs = [e["rev"] for e in out]
+    dupes = sorted({x for x in revs if x and revs.count(x) > 1})
+    if dupes:
+        problems.append(("job.revisions", f"revision {dupes[0]!r} is listed more than once"))
+    if current and all(revs) and current not in revs:
+        problems.append(("job.revisions", f"the current revision {current!r} (job.revision) is not in the log (revs {', '.join(revs)}); add a row for it"))
+    return out
 
 
 def _marks(raw: dict[str, Any], loc: str, problems: list[tuple[str, str]]) -> list[tuple[str, str]]:
@@ -294,6 +376,10 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
             seen[key] = loc
             typed = {n: v for n, v in (c.get("inputs") or {}).items() if n in inputs}
             calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed))
+    mode = print_mode(info.print)
+    if calcs and mode is not None and mode[0] == "calc" and mode[1] not in {c.member for c in calcs}:
+        marks = list(dict.fromkeys(c.member for c in calcs))
+        problems.append(("job.print", f"{info.print!r}: no member {mode[1]!r} in the job{_suggest(mode[1], marks)} (marks: {', '.join(marks)})"))
     if problems:
         raise JobError(source, problems)
     return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates))

@@ -56,7 +56,6 @@ from typing import Any
 
 from calcpad.core.errors import CalcpadError, InputError
 from calcpad.runner.execute import CalcOutcome
-from calcpad.runner.job import Job
 
 __all__ = [
     "DEFAULT_REVISION",
@@ -559,27 +558,29 @@ def _notebook_name(o: CalcOutcome) -> str:
 
 
 def write_outputs(
-    target: OutputTarget, job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], notebooks: bool = False, wait: float = 30.0
+    target: OutputTarget,
+    record: dict[str, Any],
+    submittal: Callable[[Path], Any],
+    outcomes: Iterable[CalcOutcome] = (),
+    wait: float = 30.0,
 ) -> Path:
-    """Write ``submittal.html``, ``record.json`` and (kernel runs) ``notebooks/*.ipynb`` as one revision.
+    """Write one revision: ``record.json``, what ``submittal(folder)`` writes (the submittal's
+    HTML and PDF, from the report face), and the executed notebooks of ``outcomes`` (kernel runs).
 
     Returns the revision folder (``OUT/rev-<revision>``).
     """
-    from calcpad.runner.submittal import submittal_html
-
-    html = submittal_html(job, outcomes, record)
     text = json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False) + "\n"
 
     def fill(folder: Path) -> None:
-        (folder / "submittal.html").write_text(html, encoding="utf-8")
         (folder / "record.json").write_text(text, encoding="utf-8")
+        submittal(folder)
+        notebooks = [o for o in outcomes if o.notebook is not None]
         if notebooks:
             import nbformat  # lazy: kernel path only
 
             nb_dir = folder / "notebooks"
             nb_dir.mkdir()
-            for o in outcomes:
-                if o.notebook is not None:
-                    nbformat.write(o.notebook, str(nb_dir / _notebook_name(o)))
+            for o in notebooks:
+                nbformat.write(o.notebook, str(nb_dir / _notebook_name(o)))
 
     return target.write(fill, wait=wait)

@@ -1,0 +1,90 @@
+"""Typical members: calcs that would print the same sheets word for word are printed once.
+
+Two calcs form one group when they use the same template with the same inputs and the same
+title (the member mark aside), both ran, and their sheets give the same numbers (results and
+checks): the last condition guards against a template that uses the mark for more than a label.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass
+from typing import Any
+
+from calcpad.runner.execute import CalcOutcome
+
+__all__ = ["CalcGroup", "group_calcs", "numbers_text"]
+
+
+@dataclass
+class CalcGroup:
+    """One printed calc: the outcome that is printed and every calc it stands for."""
+
+    outcomes: list[CalcOutcome]
+    records: list[dict[str, Any]]  # the job record's entry of each calc, same order
+
+    @property
+    def first(self) -> CalcOutcome:
+        """The calc whose sheets are printed."""
+        return self.outcomes[0]
+
+    @property
+    def marks(self) -> list[str]:
+        """Member marks covered, in run order."""
+        return [o.calc.member for o in self.outcomes]
+
+    @property
+    def numbers(self) -> list[int]:
+        """Calc numbers (1-based, as in the record) covered."""
+        return [o.calc.number for o in self.outcomes]
+
+    @property
+    def typical(self) -> bool:
+        """True when the printed sheets stand for more than one member."""
+        return len(self.outcomes) > 1
+
+    @property
+    def title(self) -> str:
+        """The job's calc title, else the template's."""
+        return self.first.calc.title or self.first.calc.template.title
+
+    @property
+    def anchor(self) -> str:
+        """HTML id of the group's section."""
+        return f"calc-{self.first.calc.number}"
+
+
+def _fingerprint(o: CalcOutcome) -> str | None:
+    """The numbers a calc printed (None for a calc that failed: never grouped)."""
+    if o.error is not None:
+        return None
+    sheets = [
+        {"results": s["record"].get("results"), "checks": [{k: c.get(k) for k in ("demand", "capacity", "ratio", "status")} for c in s["record"]["checks"]]}
+        for s in o.sheets
+    ]
+    key = {"template": o.calc.template.name, "title": o.calc.title, "inputs": o.calc.inputs, "sheets": sheets}
+    return json.dumps(key, sort_keys=True, default=str)
+
+
+def group_calcs(outcomes: list[CalcOutcome], records: list[dict[str, Any]]) -> list[CalcGroup]:
+    """Group identical calcs, in the order each group's first calc ran."""
+    groups: list[CalcGroup] = []
+    by_key: dict[str, CalcGroup] = {}
+    for o, rec in zip(outcomes, records, strict=True):
+        key = _fingerprint(o)
+        if key is not None and key in by_key:
+            by_key[key].outcomes.append(o)
+            by_key[key].records.append(rec)
+            continue
+        group = CalcGroup([o], [rec])
+        groups.append(group)
+        if key is not None:
+            by_key[key] = group
+    return groups
+
+
+def numbers_text(numbers: list[int]) -> str:
+    """``"Calc 4"`` or ``"Calcs 2, 3, 4"``."""
+    if len(numbers) == 1:
+        return f"Calc {numbers[0]}"
+    return "Calcs " + ", ".join(str(n) for n in numbers)

@@ -1,0 +1,297 @@
+"""The submittal as one self-contained HTML document laid out for print (see :mod:`.styles`).
+
+Order: cover (job, status, cautions, sign-off and seal space, revision log, software and run),
+contents (page numbers filled in by :func:`calcpad.report.pdf.write_pdf`), design criteria,
+summary of checks (every member), checks by printed calc, then the calcs — identical calcs
+printed once as "typical for ..." (:mod:`.grouping`). Print modes: ``full``; ``summary`` (the
+governing sheet of each calc only); ``calc:MARK`` (that member's calc only).
+"""
+
+from __future__ import annotations
+
+import html
+from dataclasses import dataclass
+from typing import Any
+
+from calcpad.render.html import CAUTION, CSS
+from calcpad.report.grouping import CalcGroup, group_calcs, numbers_text
+from calcpad.report.styles import band_css, page_css
+from calcpad.report.toc import TOC_END
+from calcpad.runner.execute import CalcOutcome
+from calcpad.runner.job import Job, print_mode
+
+__all__ = ["CAUTIONS", "submittal_html"]
+
+CAUTIONS = (
+    CAUTION,
+    "Check the edition of each standard the jurisdiction has adopted against the codes and editions listed here.",
+    "Catalog and material values are carried with their sources; verify them against mill certificates and current published tables.",
+)
+
+
+def _e(text: Any) -> str:
+    return html.escape("" if text is None else str(text))
+
+
+@dataclass
+class _Entry:
+    """One line of the contents."""
+
+    ref: str
+    text: str  # as printed in the heading (searched for in the PDF)
+    sub: bool = False
+
+
+@dataclass
+class _Context:
+    job: Job
+    record: dict[str, Any]
+    groups: list[CalcGroup]
+    printed: list[CalcGroup]
+    mode: tuple[str, str]
+    toc: list[_Entry]
+
+
+def _run_date(record: dict[str, Any]) -> str:
+    created = str(record.get("run", {}).get("created", ""))
+    return created.replace("T", " ").replace("+00:00", " UTC")
+
+
+def _digest_short(record: dict[str, Any]) -> str:
+    return str(record.get("record_digest", ""))[:12]
+
+
+def _heading_text(g: CalcGroup) -> str:
+    who = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
+    return f"{numbers_text(g.numbers)} · {g.title} — {who}"
+
+
+def _governing(rec: dict[str, Any]) -> dict[str, Any] | None:
+    checks = rec.get("checks") or []
+    return max(checks, key=lambda c: c["ratio"] if c["ratio"] is not None else float("inf")) if checks else None
+
+
+def _status_mark(status: str) -> str:
+    if status == "NG":
+        return '<span class="mark-ng">NG</span>'
+    if status == "ERROR":
+        return '<span class="mark-error">FAILED</span>'
+    return _e(status)
+
+
+def _ratio(value: Any) -> str:
+    return "—" if value is None else f"{value:.3f}"
+
+
+# ----------------------------------------------------------------------------- cover
+
+
+def _status_line(record: dict[str, Any], groups: list[CalcGroup]) -> str:
+    s = record["summary"]
+    members = sum(len(g.outcomes) for g in groups)
+    text = f"{s['calcs']} calcs for {members} members, {s['checks']} checks: {s['ok']} OK, {s['ng']} NG"
+    if s["errors"]:
+        return f'<div class="status-line bad">INCOMPLETE: {s["errors"]} calc(s) failed to run (marked FAILED in the summary). {_e(text)}.</div>'
+    if s["ng"]:
+        return f'<div class="status-line bad">{s["ng"]} check(s) NG (boxed in the summary). {_e(text)}.</div>'
+    return f'<div class="status-line">{_e(text)}.</div>'
+
+
+def _revision_log(c: _Context) -> str:
+    info = c.job.info
+    rows = c.job.info.revisions or [{"rev": info.revision, "date": info.date, "description": "(no revision log in the job file)", "by": ""}]
+    body = "".join(
+        f"<tr><td>{_e(r['rev'])}</td><td>{_e(r['date'])}</td><td>{_e(r['description'])}</td><td>{_e(r['by'])}</td></tr>" for r in rows
+    )
+    return f'<h2>Revision log</h2><table class="list"><thead><tr><th>Rev</th><th>Date</th><th>Description</th><th>By</th></tr></thead><tbody>{body}</tbody></table>'
+
+
+def _cover(c: _Context) -> str:
+    info, record = c.job.info, c.record
+    facts = [
+        ("Job number", info.number),
+        ("Client", info.client),
+        ("Site", info.site),
+        ("Engineer of record", info.engineer),
+        ("Checked by", info.checker or "(not yet checked)"),
+        ("Revision", info.revision),
+        ("Date issued", info.date),
+        ("Codes and editions", "; ".join(info.codes) or "(none given in the job file)"),
+        ("Units", {"US": "US customary", "SI": "SI"}.get(info.units, info.units)),
+    ]
+    mode = {"full": "full (every sheet)", "summary": "summary (governing sheet of each calc)"}.get(c.mode[0], f"one calc (member {c.mode[1]})")
+    facts.append(("Printed", mode))
+    rows = "".join(f"<tr><th>{_e(k)}</th><td>{_e(v)}</td></tr>" for k, v in facts)
+    cautions = "".join(f"<p>{_e(t)}</p>" for t in CAUTIONS)
+    people = (("Prepared by", info.engineer), ("Checked by", info.checker), ("Approved by", ""))
+    sign = (
+        '<div class="signoff"><table>'
+        + "".join(
+            f'<tr><td class="who"><small>{_e(role)}</small><br>{_e(name) or "&nbsp;"}</td>'
+            '<td class="line"><small>Signature</small></td><td class="line date"><small>Date</small></td></tr>'
+            for role, name in people
+        )
+        + '</table><div class="seal">Seal and signature<br>of the engineer of record</div></div>'
+    )
+    v = record.get("versions", {})
+    libs = ", ".join(f"{k} {v[k]}" for k in ("python", "pint", "sympy", "numpy") if k in v)
+    digest = record.get("record_digest", "")
+    software = (
+        f'<p class="software">Produced by calcpad {_e(v.get("calcpad", "?"))} ({_e(libs)}), run {_e(_run_date(record))}'
+        f" from job file <code>{_e(c.job.source)}</code>."
+        + (f" Record digest <code>{_e(digest)}</code> (record.json)." if digest else "")
+        + "</p>"
+    )
+    return (
+        f'<section class="cover"><h1>{_e(info.title)}</h1><p class="lead">Structural calculations · {_e(info.number)}</p>'
+        f'<table class="facts">{rows}</table>{_status_line(record, c.groups)}'
+        f'<div class="cautions"><p><b>CAUTION</b></p>{cautions}</div>{sign}{_revision_log(c)}{software}</section>'
+    )
+
+
+# ----------------------------------------------------------------------------- contents, criteria, summary
+
+
+def _contents(c: _Context) -> str:
+    lines = []
+    for entry in c.toc:
+        cls = "toc-entry sub" if entry.sub else "toc-entry"
+        lines.append(
+            f'<a class="{cls}" href="#{entry.ref}"><span class="toc-title">{_e(entry.text)}</span><span class="toc-fill"></span>'
+            f'<span class="toc-page" data-ref="{entry.ref}" data-find="{_e(entry.text)}"></span></a>'
+        )
+    return f'<section class="contents"><h2>Contents</h2>{"".join(lines)}<p class="toc-end">{_e(TOC_END)}</p></section>'
+
+
+def _h2(c: _Context, ref: str, text: str) -> str:
+    c.toc.append(_Entry(ref, text))
+    return f'<h2 id="{ref}">{_e(text)}</h2>'
+
+
+def _criteria(c: _Context) -> str:
+    info = c.job.info
+    methods = sorted({s["record"].get("method", "") for g in c.groups for s in g.first.sheets if s["record"].get("method")})
+    templates: dict[str, tuple[str, list[str]]] = {}
+    for g in c.groups:
+        t = g.first.calc.template
+        templates.setdefault(t.name, (t.title, []))[1].extend(g.marks)
+    rows = "".join(f"<tr><td><code>{_e(n)}</code></td><td>{_e(t)}</td><td>{_e(', '.join(m))}</td></tr>" for n, (t, m) in templates.items())
+    typical = [g for g in c.groups if g.typical]
+    typ = (
+        "<p>Members with the same template, title and inputs are printed once as typical: "
+        + "; ".join(f"{_e(', '.join(g.marks))} ({_e(g.title)})" for g in typical)
+        + ". The summary lists every member.</p>"
+        if typical
+        else ""
+    )
+    return (
+        _h2(c, "criteria", "Design criteria")
+        + f'<table class="facts"><tr><th>Codes and editions</th><td>{_e("; ".join(info.codes) or "(none given)")}</td></tr>'
+        + f"<tr><th>Design method</th><td>{_e(', '.join(methods) or '(as stated on each sheet)')}</td></tr>"
+        + f"<tr><th>Display units</th><td>{_e(info.units)}</td></tr></table>"
+        + f'<table class="list"><thead><tr><th>Template</th><th>What it checks</th><th>Members</th></tr></thead><tbody>{rows}</tbody></table>'
+        + typ
+    )
+
+
+def _summary(c: _Context) -> str:
+    rows = []
+    for g in c.printed:
+        for o, rec in zip(g.outcomes, g.records, strict=True):
+            gov = _governing(rec)
+            cls = ' class="ng"' if o.status != "OK" else ""
+            if o.error is not None:
+                check = f"calc failed to run (cell {o.error.get('cell')})"
+            else:
+                check = gov["name"] if gov else "(no checks)"
+            rows.append(
+                f'<tr{cls}><td class="num">{o.calc.number}</td><td>{_e(o.calc.member)}</td><td>{_e(g.title)}</td>'
+                f'<td>{_e(check)}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
+                f'<td class="st">{_status_mark(o.status)}</td><td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
+            )
+    head = "<tr><th>Calc</th><th>Member</th><th>Calc title</th><th>Governing check</th><th>Ratio</th><th>Status</th><th>Page</th></tr>"
+    return _h2(c, "summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
+
+
+def _all_checks(c: _Context) -> str:
+    rows = []
+    for g in c.printed:
+        for ch in g.records[0]["checks"]:
+            cls = ' class="ng"' if ch["status"] != "OK" else ""
+            rows.append(
+                f"<tr{cls}><td>{_e(', '.join(g.marks))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
+                f"<td class=\"st\">{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"
+            )
+    head = "<tr><th>Members</th><th>Check</th><th>Ratio</th><th>Status</th><th>Reference</th></tr>"
+    return _h2(c, "checks", "Every check") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
+
+
+# ----------------------------------------------------------------------------- calcs
+
+
+def _sheets_to_print(g: CalcGroup, mode: str) -> tuple[list[dict[str, Any]], str]:
+    sheets = g.first.sheets
+    if mode != "summary" or len(sheets) <= 1:
+        return sheets, ""
+    gov = _governing(g.records[0])
+    chosen = next((s for s in sheets if gov and s["record"]["title"] == gov["sheet"]), sheets[0])
+    note = f"Summary print: the governing sheet only ({chosen['record']['title']}; 1 of {len(sheets)} sheets). The full submittal prints every sheet."
+    return [chosen], note
+
+
+def _calc_section(c: _Context, g: CalcGroup, index: int) -> str:
+    o = g.first
+    heading = _heading_text(g)
+    c.toc.append(_Entry(g.anchor, heading))
+    parts = [f'<section class="calc" id="{g.anchor}" style="page: g{index}"><h2>{_e(heading)}</h2>']
+    parts.append(f'<p class="calc-meta">Template <code>{_e(o.calc.template.name)}</code> ({_e(o.calc.template.title)}) · status {_status_mark(o.status)}</p>')
+    if g.typical:
+        parts.append(
+            f'<div class="typical">Typical: members {_e(", ".join(g.marks))} ({_e(numbers_text(g.numbers).lower())}) have the same template and '
+            f"the same inputs and give the same results; the sheets below, worked for {_e(g.marks[0])}, stand for each of them.</div>"
+        )
+    if o.error is not None:
+        parts.append(f'<div class="calc-error">Template {_e(o.calc.template.name)}, cell {_e(o.error.get("cell"))}: {_e(o.error["message"])}</div>')
+    sheets, note = _sheets_to_print(g, c.mode[0])
+    if note:
+        parts.append(f'<p class="calc-meta">{_e(note)}</p>')
+    for k, s in enumerate(sheets, start=1):
+        if len(sheets) > 1:
+            c.toc.append(_Entry(f"{g.anchor}-s{k}", s["record"]["title"], sub=True))
+        parts.append(s["html"])
+    parts.append("</section>")
+    return "".join(parts)
+
+
+def _band(g: CalcGroup) -> tuple[str, str]:
+    marks = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
+    return g.title, f"{numbers_text(g.numbers)} · {marks}"
+
+
+# ----------------------------------------------------------------------------- document
+
+
+def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], mode: str | None = None) -> str:
+    """The submittal page for ``outcomes`` (print ``mode``: the job's setting when None)."""
+    parsed = print_mode(mode or job.info.print) or ("full", "")
+    groups = group_calcs(outcomes, record["calcs"])
+    printed = [g for g in groups if parsed[0] != "calc" or parsed[1] in g.marks]
+    c = _Context(job, record, groups, printed, parsed, [])
+    info = job.info
+    cover = _cover(c)
+    front = '<section class="front">' + _criteria(c) + _summary(c) + _all_checks(c) + "</section>"
+    calcs = "".join(_calc_section(c, g, i) for i, g in enumerate(printed, start=1))
+    contents = _contents(c)
+    digest = _digest_short(record)
+    version = record.get("versions", {}).get("calcpad", "?")
+    footer = (
+        f"record {digest or '(no digest)'} · calcpad {version} · run {_run_date(record)[:10]}",
+        "For review by a qualified, licensed engineer. Local codes and the authority having jurisdiction govern.",
+    )
+    css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision or '—'} · {info.date or 'undated'}", footer)
+    css += band_css("cover", "Cover and sign-off", "")
+    css += band_css("front", "Contents, design criteria and summary", "")
+    css += "".join(band_css(f"g{i}", *_band(g)) for i, g in enumerate(printed, start=1))
+    body = cover + contents + front + calcs
+    title = f"{info.number} {info.title}"
+    return f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}</style></head>\n<body>\n{body}\n</body></html>\n'
