@@ -18,6 +18,7 @@ import pytest
 
 from calcpad.cli import main
 from calcpad.report.toc import normalise, page_texts
+from calcpad.runner.recordfile import find_record
 from tests.runner.conftest import EXAMPLE, JOB_HEAD, ROOT, tiny_calc
 
 CHROMIUM = "/usr/bin/chromium"
@@ -35,6 +36,7 @@ def printed(tmp_path_factory: pytest.TempPathFactory) -> dict[str, Any]:
         pytest.skip(f"{CHROMIUM} is absent")
     out = tmp_path_factory.mktemp("example") / "out"
     assert main(["run", str(EXAMPLE), "--out", str(out)]) == 0
+    out = find_record(out).parent  # the revision folder
     pdf = out / "submittal.pdf"
     import pypdfium2 as pdfium
 
@@ -138,7 +140,7 @@ def test_pages_are_not_shrunk_to_fit(printed: dict[str, Any], tmp_path: Path, ti
     job = tmp_path / "small.toml"
     job.write_text(JOB_HEAD + tiny_calc("M1"))
     assert main(["run", str(job), "--out", str(tmp_path / "out")]) == 0
-    assert _label_width(printed["out"] / "submittal.pdf") == pytest.approx(_label_width(tmp_path / "out" / "submittal.pdf"), rel=0.002)
+    assert _label_width(printed["out"] / "submittal.pdf") == pytest.approx(_label_width(find_record(tmp_path / "out").parent / "submittal.pdf"), rel=0.002)
 
 
 @needs_chromium
@@ -147,6 +149,7 @@ def test_a4_job_prints_a4(tmp_path: Path, tiny_env: Path) -> None:
     job.write_text(JOB_HEAD.replace('units = "US"', 'units = "US"\npaper = "a4"') + tiny_calc("M1") + tiny_calc("M2"))
     out = tmp_path / "out"
     assert main(["run", str(job), "--out", str(out)]) == 0
+    out = find_record(out).parent
     import pypdfium2 as pdfium
 
     doc = pdfium.PdfDocument(str(out / "submittal.pdf"))
@@ -161,7 +164,7 @@ def test_missing_chromium_still_writes_html(tmp_path: Path, tiny_env: Path, monk
     monkeypatch.setenv("CALCPAD_CHROMIUM", str(tmp_path / "no-such-chromium"))
     out = tmp_path / "out"
     assert main(["run", "tiny", "--out", str(out)]) == 0
-    assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]
+    assert sorted(p.name for p in (out / "rev-draft").iterdir()) == ["record.json", "submittal.html"]
     err = capsys.readouterr().err
     assert "submittal.pdf not written: Chromium not found" in err and "apt-get install chromium" in err
 
@@ -169,7 +172,7 @@ def test_missing_chromium_still_writes_html(tmp_path: Path, tiny_env: Path, monk
 def test_no_pdf_option(tmp_path: Path, tiny_env: Path, capsys: pytest.CaptureFixture[str]) -> None:
     out = tmp_path / "out"
     assert main(["run", "tiny", "--out", str(out), "--no-pdf"]) == 0
-    assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]
+    assert sorted(p.name for p in (out / "rev-draft").iterdir()) == ["record.json", "submittal.html"]
     assert "PDF" not in capsys.readouterr().err
 
 
@@ -186,5 +189,5 @@ def test_failing_chromium_leaves_no_pdf_and_says_why(tmp_path: Path, tiny_env: P
     monkeypatch.setenv("CALCPAD_CHROMIUM", "/bin/false")  # starts, prints nothing, exits 1
     out = tmp_path / "out"
     assert main(["run", "tiny", "--out", str(out)]) == 0
-    assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]  # no temporary file left either
+    assert sorted(p.name for p in (out / "rev-draft").iterdir()) == ["record.json", "submittal.html"]  # no temporary file left either
     assert "submittal.pdf not written: Chromium exited with code 1 and wrote no PDF" in capsys.readouterr().err
