@@ -8,9 +8,9 @@ record it (JSON). Heavy modules (pandas, widgets, plotting, notebook tooling) lo
 from __future__ import annotations
 
 from calcpad.core.errors import CalcpadError
-from calcpad.core.sheet import Sheet
+from calcpad.core.sheet import Sheet, calc_heading
 from calcpad.core.units import Q_, parse_quantity, ureg
 
-__all__ = ["Q_", "CalcpadError", "Sheet", "__version__", "parse_quantity", "ureg"]
+__all__ = ["Q_", "CalcpadError", "Sheet", "__version__", "calc_heading", "parse_quantity", "ureg"]
 
 __version__ = "0.1.0"

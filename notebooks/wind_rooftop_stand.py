@@ -10,9 +10,6 @@
 # AISC 360-16 (compression, flexure, shear and their interaction, ASD) in the combination that
 # governs it, and checks the stand for sway.
 #
-# Example data: Harbor Ridge Mechanical (fictional fabricator), unit CU-2 on the roof of an
-# invented two-storey building.
-#
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern. The first leg check is a yield-based screening check (combined axial and
 # bending stress against F_y with a factor of safety); the AISC 360-16 member check follows it.*
@@ -38,9 +35,12 @@ S_DS = 0.5  # design spectral response acceleration, short periods (site, ASCE 7
 a_p = 2.5  # component amplification factor (ASCE 7-16 Table 13.6-1); 1.0 to 2.5
 R_p = 6.0  # component response modification factor (ASCE 7-16 Table 13.6-1); 1.0 to 12
 I_p = 1.0  # component importance factor (ASCE 7-16 Sec. 13.1.3); 1.0 to 1.5
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Q_, Sheet
+from calcpad import Q_, Sheet, calc_heading
+from calcpad.eng.materials import ROUND_TUBE_GRADES, grade_label
 from IPython.display import Image, display
 
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
@@ -52,7 +52,9 @@ from calcpad.eng.loads.seismic import add_component_seismic
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
 from calcpad.eng.sections import RoundTube
 
-sh = Sheet("CU-2 stand - wind and leg base moments", method="ASD")
+sh = Sheet(calc_heading("Rooftop stand: wind, seismic and leg checks", calc_title, member_mark), method="ASD", meta={"member": member_mark})
+sh.assume("The unit is a rigid block on the top rail; wind and seismic forces act at its centre.")
+sh.assume("Two frame lines share the loads equally; legs are fixed at their base plates.")
 sh.heading("Inputs")
 sh.given("W_u", W_unit, "Unit operating weight")
 sh.given("L_u", unit_L, "Unit length (along the wind)")
@@ -87,7 +89,7 @@ sh.step("D_i", "D_o - 2*t", "Inside diameter")
 sh.step("A_g", "pi/4*(D_o**2 - D_i**2)", "Area", unit="in^2", ref="common practice")
 sh.step("I_l", "pi/64*(D_o**4 - D_i**4)", "Moment of inertia", unit="in^4", ref="common practice")
 sh.step("S_l", "I_l/(D_o/2)", "Elastic section modulus", unit="in^3")
-sh.given("F_y", F_y, "Yield stress", source="ASTM A53 Gr B")
+sh.given("F_y", F_y, "Yield stress", source=grade_label(F_y, ROUND_TUBE_GRADES))
 sh.given("E_s", E_s, "Modulus of elasticity", source="AISC 360-16 B3 (common practice)")
 
 # %% [markdown]

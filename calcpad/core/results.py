@@ -90,6 +90,7 @@ class BranchResult:
     description: str = ""
     ref: str = ""
     tested: int = 0
+    words: bool = False
     kind: str = "branch"
 
     @property

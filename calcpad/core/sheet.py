@@ -48,7 +48,7 @@ from calcpad.core.results import (
 from calcpad.core.steps import Branch, Case, Check, Figure, FormulaStep, Given, Heading, Select, Step, Table, Text
 from calcpad.core.units import Q_, DisplayPrefs, format_number, parse_quantity, parse_unit, unit_symbol
 
-__all__ = ["DISPLAY_HOOK", "Sheet"]
+__all__ = ["DISPLAY_HOOK", "Sheet", "calc_heading"]
 
 #: Where notebook display comes from. The engine does not import printers; this dotted path is
 #: loaded the first time a sheet is shown in Jupyter (dependency inversion, not a sideways import).
@@ -70,6 +70,35 @@ def _to_formula(text_or_expr: str | sp.Basic, condition: bool = False) -> Formul
 def _slug(text: str) -> str:
     slug = re.sub(r"[^A-Za-z0-9]+", "_", text).strip("_").lower()
     return slug or "check"
+
+
+_TYPED_NUMBER = re.compile(r"^\s*[-+]?(\d[\d,]*)\.(\d*0)(?![\d/])")
+
+
+def typed_sig(value: object) -> int | None:
+    """Significant figures of a typed value whose decimals end in zero (``"1.900 in"`` → 4), so
+    it prints as typed; None when printing "as entered" already shows it (``"0.145 in"``)."""
+    if not isinstance(value, str):
+        return None
+    m = _TYPED_NUMBER.match(value)
+    if not m:
+        return None
+    digits = (m.group(1).replace(",", "") + m.group(2)).lstrip("0")
+    return len(digits) or None
+
+
+def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> str:
+    """A sheet title from the job: ``"L1 - Stand legs: bending at base, existing section"``.
+
+    ``title`` is the job's calc title (``what``, the template's own words, when empty), ``mark``
+    the member mark and ``part`` names one of several sheets of a calc. Templates call this
+    with their ``calc_title`` and ``member_mark`` parameters, which the runner fills, so no
+    template carries a mark or a project's words.
+    """
+    head = (title or what).strip()
+    if part:
+        head = f"{head}, {part}"
+    return f"{mark.strip()} - {head}" if mark and mark.strip() else head
 
 
 def _column_scale(rows: list[list[Any]], j: int) -> float:
@@ -190,6 +219,8 @@ class Sheet:
                 control[key] = b
         if choices:
             control["choices"] = list(choices)
+        if sig is None:
+            sig = typed_sig(value)
         self._add(Given(name, q, description, source, sig, control))
 
     def step(
@@ -214,11 +245,14 @@ class Sheet:
         unit: str | None = None,
         ref: str = "",
         sig: int | None = None,
+        words: bool = False,
     ) -> None:
         """Add a step whose formula is picked by the first condition that holds.
 
         ``cases`` is a list of ``(condition, formula, label)``; a ``None`` condition is
-        "otherwise" and must come last. The label names the governing equation.
+        "otherwise" and must come last. The label names the governing equation. ``words=True``
+        marks the value as an internal marker (a class number): the sheet prints the chosen
+        label ("compact") instead of the value.
         """
         if not cases:
             raise SheetError(f"branch {name!r}: needs at least one case")
@@ -233,7 +267,7 @@ class Sheet:
                     str(label),
                 )
             )
-        self._add(Branch(name, built, description, self._unit(name, unit), ref, sig))
+        self._add(Branch(name, built, description, self._unit(name, unit), ref, sig, words))
 
     def select(
         self,
@@ -482,7 +516,7 @@ class Sheet:
                 chosen = i
                 break
         formula = self._formula_result(step.name, step, step.cases[chosen].formula)
-        return BranchResult(step.name, cases, chosen, cond_env, sides, held, formula, step.description, step.ref, tested)
+        return BranchResult(step.name, cases, chosen, cond_env, sides, held, formula, step.description, step.ref, tested, step.words)
 
     def _evaluate_select(self, step: Select) -> SelectResult:
         cands = []
@@ -506,7 +540,8 @@ class Sheet:
                 f"check {step.title!r}: demand {step.demand!r} ({demand.units:~}) and capacity {step.capacity!r} "
                 f"({capacity.units:~}) are different kinds of quantity"
             )
-        cap = float(capacity.to(demand.units).magnitude)
+        demand = demand.to(capacity.units)  # one unit per kind inside a ratio: the capacity's
+        cap = float(capacity.magnitude)
         dem = abs(float(demand.magnitude))
         if not cap > 0:
             raise SheetError(f"check {step.title!r}: capacity {step.capacity!r} = {capacity:~} must be greater than zero")

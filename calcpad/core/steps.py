@@ -69,7 +69,8 @@ class Case:
 
 @dataclass
 class Branch:
-    """Pick the first case whose condition holds."""
+    """Pick the first case whose condition holds. With ``words`` the value is an internal
+    marker (e.g. a class number): printers show the chosen case's label, not the value."""
 
     name: str
     cases: list[Case]
@@ -77,6 +78,7 @@ class Branch:
     unit: str | None = None
     ref: str = ""
     sig: int | None = None
+    words: bool = False
 
     @property
     def defines(self) -> str:

@@ -116,7 +116,8 @@ def sheet_text(result: SheetResult) -> str:
 
 def sheet_markdown(result: SheetResult) -> str:
     """The sheet as Markdown: headings and notes as text, each step as display math."""
-    from calcpad.render.latex import step_latex
+    from calcpad.render.latex import row_math_latex
+    from calcpad.render.rows import math_rows
 
     out = [f"# {result.title}", ""]
     for step in result.steps:
@@ -131,10 +132,11 @@ def sheet_markdown(result: SheetResult) -> str:
         elif isinstance(step, FigureResult):
             out += [f"*Figure: {step.title}*", ""]
         else:
-            for desc, math, ref in step_latex(step):
-                label = desc.replace(r"\textbf{", "**").replace("}", "**") if desc.startswith(r"\textbf") else desc
-                head = " — ".join(x for x in (label, f"[{ref}]" if ref else "") if x)
+            rows = math_rows(step) or []
+            for row in rows:
+                label = f"**{row.label}**" if row.strong and row.label else row.label
+                head = " — ".join(x for x in (label, f"[{row.ref}]" if row.ref else "") if x)
                 if head:
-                    out.append(head.replace("\\", ""))
-                out += [f"$$ {math} $$", ""]
+                    out.append(head)
+                out += [f"$$ {row_math_latex(row)} $$", ""]
     return "\n".join(out)

@@ -20,8 +20,10 @@
     ...
 
 Every parameter of the template must be given (the job file is the complete record of what was
-assumed; `calcpad new` writes them all). A template parameter named ``member_mark`` is filled with
-the member mark by the runner. The job file is data only: nothing in it is executed. Validation
+assumed; `calcpad new` writes them all). Template parameters named ``member_mark`` and
+``calc_title`` are filled by the runner with the member mark and the calc's ``title``. ``[job]``
+may carry ``basis``: a text or a list of texts stating the design basis (load sources, the
+owner's criteria), printed in the submittal's design criteria. The job file is data only: nothing in it is executed. Validation
 collects every problem, each with its location (``calcs[3].inputs.L``; calcs count from 1 in
 file order) and raises one :class:`JobError`.
 """
@@ -46,10 +48,11 @@ from calcpad.runner.template import Template, TemplateError, find_template, load
 
 __all__ = ["Calc", "Job", "JobError", "JobInfo", "input_record", "load_job", "parse_job", "single_template_job"]
 
-JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units")
+JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "basis")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
 CALC_KEYS = ("template", "member", "members", "title", "inputs")
-CONTEXT_PARAMETERS = ("member_mark",)
+#: Template parameters the runner fills from the job: the member mark and the calc's title.
+CONTEXT_PARAMETERS = ("member_mark", "calc_title")
 _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
 
@@ -79,6 +82,7 @@ class JobInfo:
     date: str = ""
     codes: list[str] = field(default_factory=list)
     units: str = "US"
+    basis: list[str] = field(default_factory=list)  # design basis notes: load sources, owner's criteria
 
     def as_dict(self) -> dict[str, Any]:
         """Plain dictionary (for the record)."""
@@ -153,7 +157,7 @@ def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
     for key in raw:
         if key not in JOB_KEYS:
             problems.append((f"job.{key}", f"unknown key{_suggest(key, JOB_KEYS)} (allowed: {', '.join(JOB_KEYS)})"))
-    vals = {k: _str_field(raw, k, "job", problems, k in REQUIRED_JOB_KEYS) for k in JOB_KEYS if k not in ("codes", "units")}
+    vals = {k: _str_field(raw, k, "job", problems, k in REQUIRED_JOB_KEYS) for k in JOB_KEYS if k not in ("codes", "units", "basis")}
     codes = raw.get("codes", [])
     if isinstance(codes, str):
         codes = [codes]
@@ -164,7 +168,14 @@ def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
     if units not in ("US", "SI"):
         problems.append(("job.units", f"{units!r}; expected 'US' or 'SI'"))
         units = "US"
-    return JobInfo(**vals, codes=list(codes), units=units)
+    basis = raw.get("basis", [])
+    if isinstance(basis, str):
+        basis = [basis]
+    if not isinstance(basis, list) or not all(isinstance(b, str) and b.strip() for b in basis):
+        problems.append(("job.basis", f"{basis!r}; expected a text or a list of non-empty texts, e.g. "
+                                      "[\"Wind speed from the building official's letter of 2025-02-03\"]"))
+        basis = []
+    return JobInfo(**vals, codes=list(codes), units=units, basis=[b.strip() for b in basis])
 
 
 def _marks(raw: dict[str, Any], loc: str, problems: list[tuple[str, str]]) -> list[tuple[str, str]]:

@@ -222,11 +222,13 @@ class Calc:
         *,
         unit: str | None = None,
         ref: str = "",
+        words: bool = False,
     ) -> str:
-        """Add a branch step (conditions and formulas in base names)."""
+        """Add a branch step (conditions and formulas in base names); ``words`` as in
+        :meth:`Sheet.branch`."""
         name = self.name(base)
         built = [(self.f(c) if c is not None else None, self.f(formula), label) for c, formula, label in cases]
-        self.sh.branch(name, built, description, unit=unit, ref=ref)
+        self.sh.branch(name, built, description, unit=unit, ref=ref, words=words)
         self.names[base] = name
         return name
 
