@@ -141,6 +141,8 @@ after
 # %%
 import pandas as pd
 
+from calcpad.core.sheet import status_mark
+
 checks = [("before", chk) for chk in before.summary()] + [("after", chk) for chk in after.summary()]
 pd.DataFrame(
     {
@@ -149,6 +151,6 @@ pd.DataFrame(
         "demand": [f"{chk.demand.to(chk.capacity.units).magnitude:.2f} {chk.capacity.units:~P}" for _, chk in checks],
         "capacity": [f"{chk.capacity.magnitude:.2f} {chk.capacity.units:~P}" for _, chk in checks],
         "ratio": [round(chk.ratio, 3) for _, chk in checks],
-        "status": [chk.status for _, chk in checks],
+        "status": [status_mark(chk.status) for _, chk in checks],
     }
 )

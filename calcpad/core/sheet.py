@@ -48,7 +48,7 @@ from calcpad.core.results import (
 from calcpad.core.steps import Branch, Case, Check, Figure, FormulaStep, Given, Heading, Select, Step, Table, Text
 from calcpad.core.units import Q_, DisplayPrefs, format_number, parse_quantity, parse_unit, unit_symbol
 
-__all__ = ["DISPLAY_HOOK", "Sheet", "calc_heading"]
+__all__ = ["DISPLAY_HOOK", "Sheet", "calc_heading", "status_mark"]
 
 #: Where notebook display comes from. The engine does not import printers; this dotted path is
 #: loaded the first time a sheet is shown in Jupyter (dependency inversion, not a sideways import).
@@ -85,6 +85,11 @@ def typed_sig(value: object) -> int | None:
         return None
     digits = (m.group(1).replace(",", "") + m.group(2)).lstrip("0")
     return len(digits) or None
+
+
+def status_mark(status: str) -> str:
+    """A check status for tables: ``OK``, or ``[NG]`` framed so it is unmistakable without colour."""
+    return f"[{status}]" if status == NG else status
 
 
 def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> str:
@@ -220,7 +225,9 @@ class Sheet:
         if choices:
             control["choices"] = list(choices)
         if sig is None:
-            sig = typed_sig(value)
+            # typed text prints as typed (trailing zeros kept); a value the template computed
+            # prints to the sheet's figures without padding zeros
+            sig = typed_sig(value) if isinstance(value, str) else -self.prefs.sig
         self._add(Given(name, q, description, source, sig, control))
 
     def step(
@@ -607,18 +614,25 @@ class Sheet:
         return self.evaluate().checks
 
     def summary_frame(self) -> Any:
-        """Checks as a pandas DataFrame (name, demand, capacity, ratio, status)."""
+        """Checks as a pandas DataFrame (name, demand, capacity, ratio, status).
+
+        ratio = demand / capacity in every row: the demand's magnitude, in the capacity's unit;
+        a factor-of-safety check lists the allowable value (capacity / required FS). An NG
+        status is printed ``[NG]``, framed, so it stands out without colour.
+        """
         import pandas as pd  # lazy: pandas is slow to import
 
         rows = []
         for c in self.summary():
+            unit = unit_symbol(c.capacity.units)
+            capacity = float(c.capacity.magnitude) / (c.required_fs or 1.0)
             rows.append(
                 {
                     "check": c.title,
-                    "demand": f"{format_number(c.demand.magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
-                    "capacity": f"{format_number(c.capacity.to(c.demand.units).magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
+                    "demand": f"{format_number(abs(float(c.demand.magnitude)), c.sig)} {unit}".strip(),
+                    "capacity": f"{format_number(capacity, c.sig)} {unit}".strip(),
                     "ratio": round(c.ratio, 3),
-                    "status": c.status,
+                    "status": status_mark(c.status),
                     "reference": c.ref,
                 }
             )

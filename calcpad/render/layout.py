@@ -58,6 +58,7 @@ OPS: dict[str, tuple[str, str, str]] = {
     ">=": (r"\ge", "<mo>&#x2265;</mo>", "≥"),
     "=>": (r"\;\Rightarrow\;", "<mo>&#x21D2;</mo>", "⇒"),
     " ": (r"\quad", '<mspace width="1em"/>', " "),
+    "_": (r"\ ", '<mspace width="0.3em"/>', " "),  # between the words of a text
 }
 
 
@@ -240,7 +241,7 @@ def _trailing_commas(lines: list[list[Piece]]) -> list[tuple[list[Piece], bool]]
 
 
 def _op(p: Piece, k: int, first: bool) -> str:
-    return "" if first and p.op == "," else OPS[p.op][k]
+    return "" if first and p.op in (",", "_") else OPS[p.op][k]
 
 
 def latex_lines(lines: list[list[Piece]]) -> list[str]:

@@ -58,6 +58,11 @@ def _words(text: str, op: str = " ") -> Piece:
     return Piece(op, tex_text(text), mathml_text(text), float(len(text)))
 
 
+def _phrase(text: str, op: str = " ") -> list[Piece]:
+    """A text as one piece per word, so a long phrase breaks between words."""
+    return [_words(w, op if i == 0 else "_") for i, w in enumerate(text.split())]
+
+
 def _symbolic(expr: sp.Basic, op: str, budget: float) -> list[Piece]:
     def printer(e: sp.Basic) -> tuple[str, str]:
         return symbolic_latex(e), symbolic_mathml(e)
@@ -118,12 +123,12 @@ def _branch_rows(b: BranchResult, budget: float) -> list[MathRow]:
         lhs, rhs = b.condition_sides
         op = cond.rel_op if b.condition_held else _FLIP[cond.rel_op]
         parts = _side(cond.lhs, lhs, "", budget) + _side(cond.rhs, rhs, op, budget)
-        parts.append([_words(label, "=>")] if b.words else [_words("use " + label, "=>")])
+        parts.append(_phrase(label if b.words else "use " + label, "=>"))
         rows.append(MathRow(b.description, b.ref, _lines(parts, budget)))
         if not b.words:
             rows.append(MathRow("", label, _lines(formula_parts(b.formula, budget), budget)))
     elif b.words:
-        rows.append(MathRow(b.description, b.ref, [[_words(label, "")]]))
+        rows.append(MathRow(b.description, b.ref, _lines([_phrase(label, "")], budget)))
     else:
         rows.append(MathRow(b.description, label or b.ref, _lines(formula_parts(b.formula, budget), budget)))
     return rows
@@ -147,7 +152,7 @@ def _select_row(s: SelectResult, budget: float) -> MathRow:
         words = f"{gov.label} and {', '.join(c.label for c in ties)} give the same value"
     else:
         words = f"{gov.label} governs"
-    parts = [[_name(s.name)], names, values, [_quantity(s.value, s.sig)], [_words(words, " ")]]
+    parts = [[_name(s.name)], names, values, [_quantity(s.value, s.sig)], _phrase(words, " ")]
     return MathRow(s.description, s.ref, _lines(parts, budget))
 
 

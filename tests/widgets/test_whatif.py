@@ -147,7 +147,7 @@ def test_governing_check_is_highlighted() -> None:
 def test_show_sheet_adds_the_sheet_display() -> None:
     panel = what_if(leg_sheet(), show="sheet")
     kinds = [set(o["data"]) for o in panel._out.outputs]
-    assert kinds[1] == {"text/latex", "text/plain"}
+    assert kinds[1] == {"text/html", "text/latex", "text/plain"}
 
 
 def test_unknown_name_is_a_clear_error() -> None:
