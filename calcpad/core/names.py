@@ -80,7 +80,7 @@ def _word_latex(word: str, italic_multi: bool = True) -> str:
 
 #: Names that print as a ratio of two symbols: base and first subscript -> (numerator, denominator).
 #: ``KL_r`` is the slenderness KL/r, not KL with a subscript r; ``KL_r_x`` prints (KL/r)_x.
-RATIO_NAMES = {("KL", "r"): ("KL", "r"), ("Lc", "r"): ("L_c", "r")}
+RATIO_NAMES = {("KL", "r"): ("KL", "r"), ("Lc", "r"): ("L_c", "r"), ("L", "ra"): ("L", "r_a")}
 
 
 def _ratio(name: str) -> tuple[str, str, list[str]] | None:

@@ -239,9 +239,12 @@ class Sheet:
         unit: str | None = None,
         ref: str = "",
         sig: int | None = None,
+        quiet: bool = False,
     ) -> None:
-        """Add ``name = formula`` (a formula string or a sympy expression)."""
-        self._add(FormulaStep(name, self._formula(name, formula), description, self._unit(name, unit), ref, sig))
+        """Add ``name = formula`` (a formula string or a sympy expression). ``quiet=True`` marks
+        an internal intermediate that the printers leave out while its value is zero (e.g. the
+        ineffective area of a flange that is fully effective)."""
+        self._add(FormulaStep(name, self._formula(name, formula), description, self._unit(name, unit), ref, sig, quiet))
 
     def branch(
         self,
@@ -483,7 +486,7 @@ class Sheet:
         value = evaluate_expr(formula.expr, env, name)
         shown = self._show(name, value, step.unit)
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
-        return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs)
+        return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 
     def _evaluate_step(self, step: Step) -> Any:
         if isinstance(step, Given):

@@ -40,7 +40,8 @@ class Given:
 
 @dataclass
 class FormulaStep:
-    """``name = formula``, shown in ``unit`` (or the sheet's preference for its kind)."""
+    """``name = formula``, shown in ``unit`` (or the sheet's preference for its kind). A
+    ``quiet`` step is an internal intermediate: printers leave it out while its value is zero."""
 
     name: str
     formula: Formula
@@ -48,6 +49,7 @@ class FormulaStep:
     unit: str | None = None
     ref: str = ""
     sig: int | None = None
+    quiet: bool = False
 
     @property
     def defines(self) -> str:

@@ -6,6 +6,7 @@ Format (``"format": "calcpad-record/1"``)::
      "meta": {...},
      "inputs":  {name: {"value": float, "unit": "in", "description": ...}},
      "results": {name: {"value": float, "unit": "kip*ft"}},
+     "assumptions": [text, ...],   # declared with Sheet.assume, for a design basis section
      "checks":  [{"key", "title", "demand": {value, unit}, "capacity": {value, unit},
                   "demand_signed", "nominal_capacity",
                   "ratio", "status", "fs", "required_fs", "ref"}]}
@@ -78,4 +79,5 @@ def sheet_record(result: SheetResult) -> dict[str, Any]:
         "inputs": inputs,
         "results": results,
         "checks": checks,
+        "assumptions": result.assumptions,
     }

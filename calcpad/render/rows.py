@@ -210,6 +210,8 @@ def math_rows(step: object, budget: float = BUDGET) -> list[MathRow] | None:
     if isinstance(step, GivenResult):
         return [MathRow(step.description, step.source, _lines([[_name(step.name)], [_quantity(step.value, step.sig)]], budget))]
     if isinstance(step, FormulaResult):
+        if step.hidden:
+            return []
         return [MathRow(step.description, step.ref, _lines(formula_parts(step, budget), budget))]
     if isinstance(step, BranchResult):
         return _branch_rows(step, budget)

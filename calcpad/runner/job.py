@@ -116,8 +116,14 @@ class Job:
     source: str = ""
 
 
-def input_record(value: str | float) -> dict[str, Any]:
-    """``{"value": 84.0, "unit": "in"}`` for a quantity, ``{"value": "A36", "unit": None}`` for text."""
+def input_record(value: str | float, kind: str | None = None) -> dict[str, Any]:
+    """``{"value": 84.0, "unit": "in"}`` for a quantity, ``{"value": "A36", "unit": None}`` for text.
+
+    ``kind`` is the template parameter's kind: a text parameter (exposure ``"C"``, a method)
+    stays text even when the letters also spell a unit (C would read as coulomb).
+    """
+    if kind == "text" and isinstance(value, str):
+        return {"value": value, "unit": None}
     if isinstance(value, (int, float)):
         return {"value": float(value), "unit": ""}
     try:

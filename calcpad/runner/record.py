@@ -77,7 +77,7 @@ def _calc_record(o: CalcOutcome) -> dict[str, Any]:
         "template_title": c.template.title,
         "member": c.member,
         "title": c.title,
-        "inputs": {n: input_record(v) for n, v in c.inputs.items()},
+        "inputs": {n: input_record(v, c.template.parameters[n].kind if n in c.template.parameters else None) for n, v in c.inputs.items()},
         "input_digest": c.input_digest,
         "status": o.status,
         "error": o.error,

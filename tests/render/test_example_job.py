@@ -136,3 +136,66 @@ def test_governs_only_when_strictly_smaller(example_run) -> None:
                 continue
             nums = re.findall(r"<mn>([^<]*)</mn>", values[1])
             assert len(set(nums)) == len(nums) or nums.count(min(nums, key=lambda x: float(x.replace(",", "")))) == 1, row[:300]
+
+
+def test_assumptions_reach_the_result_model_and_the_print(example_run) -> None:
+    _, outcomes, _ = example_run
+    for calc, rec, html in _sheets(outcomes):
+        assert rec["assumptions"], (calc.template.name, rec["title"])
+        for text in rec["assumptions"]:
+            assert text.replace("&", "&amp;").replace("'", "&#x27;") in html
+    repair = [r for c, r, _ in _sheets(outcomes) if c.template.name == "reinforce_bent_leg"]
+    assert any("straightened" in a for r in repair for a in r["assumptions"])
+    stand = next(r for c, r, _ in _sheets(outcomes) if c.template.name == "wind_rooftop_stand")
+    assert any("rigid block" in a for a in stand["assumptions"])
+
+
+def test_job_basis_is_validated_and_kept(example_run) -> None:
+    import tomllib
+
+    from calcpad.runner.job import JobError, parse_job
+    from calcpad.runner.record import job_record
+    from tests.render.conftest import EXAMPLE
+
+    job, outcomes, _ = example_run
+    raw = tomllib.loads(EXAMPLE.read_text(encoding="utf-8"))["job"]["basis"]
+    assert job.info.basis == raw and len(raw) == 4
+    assert job_record(job, outcomes, "inprocess", 0.0)["job"]["basis"] == raw
+    text = EXAMPLE.read_text(encoding="utf-8")
+    bad = text.replace("basis = [", "basis = [3, ", 1)
+    try:
+        parse_job(bad, "bad.toml", EXAMPLE.parent)
+    except JobError as exc:
+        assert "job.basis" in str(exc) and "expected a text or a list of non-empty texts" in str(exc)
+    else:
+        raise AssertionError("a number in basis was accepted")
+
+
+def test_text_inputs_stay_text_in_the_record(example_run) -> None:
+    from calcpad.runner.record import job_record
+
+    job, outcomes, _ = example_run
+    rec = job_record(job, outcomes, "inprocess", 0.0)
+    stand = next(c for c in rec["calcs"] if c["template"] == "wind_rooftop_stand")
+    assert stand["inputs"]["exposure"] == {"value": "C", "unit": None}  # not 1.0 coulomb
+
+
+def test_negative_demand_is_checked_by_magnitude_with_the_sign_explained(example_run) -> None:
+    _, outcomes, _ = example_run
+    found = 0
+    for _, rec, html in _sheets(outcomes):
+        for ch in rec["checks"]:
+            if ch["demand_signed"]["value"] < 0:
+                found += 1
+                assert ch["demand"]["value"] == -ch["demand_signed"]["value"]
+                assert "acts in the negative direction; its magnitude is checked" in html
+    assert found >= 1
+
+
+def test_zero_internal_steps_are_left_out_of_the_print(example_run) -> None:
+    _, outcomes, _ = example_run
+    posts = [(r, h) for c, r, h in _sheets(outcomes) if c.template.name == "post_combined"]
+    for rec, html in posts:
+        zero = [n for n, v in rec["results"].items() if n.startswith("A_x") and v["value"] == 0.0]
+        assert zero  # the HSS flanges are fully effective: A_x = 0 is recorded
+        assert "Ineffective flange area" not in html

@@ -197,11 +197,12 @@ class Calc:
         self.given(base, v, description, source, dim=unit, sig=None if isinstance(v, str) else 4, shared=True)
 
     # ----------------------------------------------------------- steps
-    def step(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "", sig: int | None = None) -> str:
-        """Add ``base = formula``; returns the sheet name."""
+    def step(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "", sig: int | None = None,
+             quiet: bool = False) -> str:
+        """Add ``base = formula``; returns the sheet name (``quiet`` as in :meth:`Sheet.step`)."""
         name = self.name(base)
         text = self.f(formula)
-        self.sh.step(name, text, description, unit=unit, ref=ref, sig=sig)
+        self.sh.step(name, text, description, unit=unit, ref=ref, sig=sig, quiet=quiet)
         self.names[base] = name
         return name
 
