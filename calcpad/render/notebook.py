@@ -22,7 +22,7 @@ from calcpad.render.text import sheet_text
 __all__ = ["mimebundle", "sheet_notebook_html"]
 
 #: Share of the output width given to the label column.
-LABEL_WIDTH = "30%"
+LABEL_WIDTH = "28%"
 _TEXT = 'class="tex2jax_ignore mathjax_ignore"'
 
 

@@ -66,7 +66,7 @@ def test_three_part_line_in_latex():
     # too long for one line: the substituted form continues on an indented line after "="
     assert (
         r"I = \frac{\pi}{64} \cdot \left(D_{o}^{4} - D_{i}^{4}\right) \\ \qquad = \frac{\pi}{64} \times "
-        r"\left(\left(1.900\ \mathrm{in}\right)^{4} - \left(1.610\ \mathrm{in}\right)^{4}\right) = 0.3099\ \mathrm{in}^{4}"
+        r"\left(\left(1.900\ \mathrm{in}\right)^{4} - \left(1.610\ \mathrm{in}\right)^{4}\right) \\ \qquad = 0.3099\ \mathrm{in}^{4}"
     ) in latex
     assert r"\sigma_{b} = \frac{M \cdot c}{I}" in latex
     assert r"\mathit{FS} = \frac{F_{y}}{\sigma_{b}}" in latex

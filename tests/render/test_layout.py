@@ -131,3 +131,20 @@ def test_notebook_rows_are_table_rows_with_latex_math() -> None:
     assert nb.startswith('<table width="100%"') and "<math" not in nb
     row = nb.split("Composite moment of inertia")[1].split("</tr>")[0]
     assert row.count("<div>\\(\\displaystyle ") >= 3  # one line per <div>
+
+
+def test_a_wide_fraction_is_written_on_one_level_and_breaks_on_each_side() -> None:
+    sh = Sheet("unsym")
+    for name, value in (("M", "15 kip*in"), ("I_y", "4.381 in^4"), ("y_p", "-1.892 in"), ("I_xy", "-0.06683 in^4"),
+                        ("x_p", "-1.543 in"), ("I_x", "4.381 in^4")):
+        sh.given(name, value)
+    sh.step("sigma_b", "abs(M*(I_y*y_p - I_xy*x_p)/(I_x*I_y - I_xy**2))", "Bending stress", unit="ksi")
+    (row,) = math_rows(sh.evaluate().steps[-1], budget=52)
+    # |M (I_y y_p - I_xy x_p) / (I_x I_y - I_xy^2)| = 15 × |4.381 × (-1.892) - 0.06683 × 1.543| / (19.193 - 0.004466)
+    # = 15 × 8.392 / 19.19 = 6.560 ksi (by hand)
+    assert latex_lines(row.lines)[1:] == [
+        r"\qquad = |(15\ \mathrm{kip} \cdot \mathrm{in} \times (4.381\ \mathrm{in}^{4} \times \left(-1.892\ \mathrm{in}\right)",
+        r"\qquad - \left(-0.06683\ \mathrm{in}^{4}\right) \times \left(-1.543\ \mathrm{in}\right)))",
+        r"\qquad / \left(4.381\ \mathrm{in}^{4} \times 4.381\ \mathrm{in}^{4} - \left(-0.06683\ \mathrm{in}^{4}\right)^{2}\right)|",
+        r"\qquad = 6.560\ \mathrm{ksi}",
+    ]
