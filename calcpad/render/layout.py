@@ -82,14 +82,20 @@ def _text_width(text: str) -> float:
     return float(len(text))
 
 
+def name_width(name: str) -> float:
+    """Estimated width of a printed name: italic letters run wider than digits and the
+    subscript is smaller (MathJax measured in JupyterLab: about 1.2 and 0.85 units a letter)."""
+    base, _, sub = name_text(name).partition("_")
+    return 1.2 * len(base) + 0.85 * len(sub)
+
+
 def estimate_width(expr: sp.Basic, values: Mapping[str, pint.Quantity] | None = None, sigs: Mapping[str, int] | None = None, sig: int = 4) -> float:
     """Estimated printed width of ``expr``: symbolic when ``values`` is None, else substituted."""
     sigs = sigs or {}
 
     def leaf(sym: sp.Symbol) -> float:
         if values is None:
-            base, _, sub = name_text(sym.name).partition("_")
-            return len(base) + 0.7 * len(sub)
+            return name_width(sym.name)
         q = values[sym.name]
         number = format_number(float(q.magnitude), sigs.get(sym.name, sig))
         unit = unit_symbol(q.units, "text")
@@ -192,6 +198,9 @@ def split_expr(expr: sp.Basic, op: str, printer: Printer, width: Callable[[sp.Ba
             out = _side_pieces(top, op, printer, width, budget, mul_op)
             out += _side_pieces(bottom, "/", printer, width, budget, mul_op)
             return out
+    if isinstance(expr, sp.Pow) and expr.exp == sp.Rational(1, 2):
+        inner = split_expr(expr.base, op, printer, width, budget, mul_op)
+        return _wrap(inner, (r"\surd(", "<mo>&#x221A;</mo><mo>(</mo>", 2.0), (")", "<mo>)</mo>", 1.0))
     if isinstance(expr, sp.Abs):
         inner = split_expr(expr.args[0], op, printer, width, budget, mul_op)
         return _wrap(inner, ("|", "<mo>|</mo>", 1.0), ("|", "<mo>|</mo>", 1.0))

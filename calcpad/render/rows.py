@@ -24,7 +24,7 @@ from calcpad.render.expressions import (
     symbolic_latex,
     symbolic_mathml,
 )
-from calcpad.render.layout import BUDGET, Piece, break_lines, estimate_width, mathml_text, split_expr, tex_text
+from calcpad.render.layout import BUDGET, Piece, break_lines, estimate_width, mathml_text, name_width, split_expr, tex_text
 
 __all__ = ["MathRow", "math_rows", "same_at_print"]
 
@@ -42,8 +42,7 @@ class MathRow:
 
 
 def _name(name: str, op: str = "") -> Piece:
-    base, _, sub = name_text(name).partition("_")
-    return Piece(op, name_latex(name), name_mathml(name), len(base) + 0.7 * len(sub))
+    return Piece(op, name_latex(name), name_mathml(name), name_width(name))
 
 
 def _quantity(q: pint.Quantity, sig: int, op: str = "=") -> Piece:
