@@ -57,7 +57,7 @@ add_tension_check(sh, shape, T="P_tens", U="U_sl", material=steel)
 
 sh.heading("End connection", 2)
 sh.step("R_end", "max(P_comp, P_tens)", "Force through the end welds", unit="kip")
-sh.given("t_leg", f"{shape.t!r} in", "Angle leg thickness", source=brace)
+sh.given("t_leg", f"{shape.t:g} in", "Angle leg thickness", source=brace)
 sh.given("t_gus", gusset_t, "Gusset plate thickness")
 sh.step("t_thin", "min(t_leg, t_gus)", "Thinner part joined", unit="in")
 add_fillet_weld_check(sh, R="R_end", w=weld_size, L="l_w", t_p="t_thin", t_e="t_leg", F_EXX=F_EXX, n=2,
@@ -65,7 +65,7 @@ add_fillet_weld_check(sh, R="R_end", w=weld_size, L="l_w", t_p="t_thin", t_e="t_
 
 sh.heading("Gusset plate: block shear along the welds", 2)
 gusset = get_material(gusset_grade)
-sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b)!r} in", "Width of the welded leg (weld line to weld line)",
+sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b):g} in", "Width of the welded leg (weld line to weld line)",
          source=brace)
 sh.step("A_gvg", "2*l_w*t_gus", "Gross shear area of the gusset along both welds", unit="in^2", ref="AISC 360-16 J4.3")
 sh.step("A_ntg", "b_leg*t_gus", "Tension area of the gusset across the end of the welds", unit="in^2", ref="AISC 360-16 J4.3")

@@ -22,8 +22,9 @@ from calcpad.render.text import sheet_text
 __all__ = ["mimebundle", "sheet_notebook_html"]
 
 #: Share of the output width given to the label column.
-LABEL_WIDTH = "28%"
+LABEL_WIDTH = "25%"
 _TEXT = 'class="tex2jax_ignore mathjax_ignore"'
+_LEFT = "text-align: left; vertical-align: top"
 
 
 def _e(text: str) -> str:
@@ -41,13 +42,13 @@ def _row(row: MathRow) -> str:
     label = f"<b>{_e(row.label)}</b>" if row.strong and row.label else _e(row.label)
     ref = f"<br><small>[{_e(row.ref)}]</small>" if row.ref else ""
     return (
-        f'<tr><td width="{LABEL_WIDTH}" align="left" valign="top" {_TEXT}>{label}{ref}</td>'
-        f'<td align="left" valign="top">{_math_cell(row)}</td></tr>'
+        f'<tr><td align="left" valign="top" style="{_LEFT}" {_TEXT}>{label}{ref}</td>'
+        f'<td align="left" valign="top" style="{_LEFT}">{_math_cell(row)}</td></tr>'
     )
 
 
 def _wide(content: str, text: bool = True) -> str:
-    return f'<tr><td colspan="2" align="left" valign="top"{" " + _TEXT if text else ""}>{content}</td></tr>'
+    return f'<tr><td colspan="2" align="left" valign="top" style="{_LEFT}"{" " + _TEXT if text else ""}>{content}</td></tr>'
 
 
 def _step(step: object) -> str:
@@ -72,7 +73,8 @@ def sheet_notebook_html(result: SheetResult) -> str:
     """The sheet as one HTML table (label | math), math as LaTeX for MathJax."""
     rows = [_wide(f"<b>{_e(result.title)}</b>")]
     rows += [_step(s) for s in result.steps]
-    return '<table width="100%" class="calcpad-sheet">\n' + "\n".join(r for r in rows if r) + "\n</table>"
+    cols = f'<colgroup><col width="{LABEL_WIDTH}"><col></colgroup>'
+    return f'<table width="100%" class="calcpad-sheet">{cols}\n' + "\n".join(r for r in rows if r) + "\n</table>"
 
 
 def mimebundle(result: SheetResult) -> dict[str, Any]:
