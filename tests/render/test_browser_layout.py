@@ -1,9 +1,10 @@
 """Browser measurement: at Letter width, no math line of the submittal is wider than its column.
 
 Headless Chromium (Debian package at /usr/bin/chromium, driven by Playwright without downloading
-a browser) lays out the example job's submittal.html with print media at 816 CSS px (8.5 in at
-96 px/in; the page margins are the submittal's own). Every ``<math>`` of a step must end inside
-its ``.line`` column, and no ``.line`` may scroll sideways.
+a browser) lays out the example job's submittal.html with print media at the printable width of
+a Letter page: 8.5 in less 0.75 in margins each side = 7 in = 672 CSS px (96 px/in), narrower
+than Chromium's default print margins leave (about 740 px). Every ``<math>`` of a step must end
+inside its ``.line`` column, and no ``.line`` may scroll sideways.
 """
 
 from __future__ import annotations
@@ -14,6 +15,7 @@ import pytest
 
 CHROMIUM = Path("/usr/bin/chromium")
 LETTER_CSS_PX = 816  # 8.5 in × 96 px/in
+LETTER_PRINTABLE_PX = LETTER_CSS_PX - 2 * 72  # 0.75 in margins
 
 pytestmark = pytest.mark.skipif(not CHROMIUM.exists(), reason="needs the system Chromium at /usr/bin/chromium")
 
@@ -57,6 +59,20 @@ def measure(html: Path, width: int) -> dict:
 
 def test_no_math_line_wider_than_its_column_at_letter_width(example_run) -> None:
     _, _, out = example_run
-    report = measure(out / "submittal.html", LETTER_CSS_PX)
-    assert report["rows"] > 300 and report["lines"] >= report["rows"]  # the submittal was laid out
-    assert report["over"] == [], f"{len(report['over'])} of {report['lines']} math lines overflow: {report['over'][:5]}"
+    for width in (LETTER_CSS_PX, LETTER_PRINTABLE_PX):
+        report = measure(out / "submittal.html", width)
+        assert report["rows"] > 300 and report["lines"] >= report["rows"]  # the submittal was laid out
+        assert report["over"] == [], f"{width} px: {len(report['over'])} of {report['lines']} math lines overflow: {report['over'][:5]}"
+
+
+
+def test_the_measurement_sees_an_overflowing_line(tmp_path: Path) -> None:
+    # the same page CSS with one unbroken 120-term line: the measurement must report it
+    from calcpad.render.html import html_document
+
+    long_math = "<mo>+</mo>".join(f"<mn>{i}.125</mn>" for i in range(120))
+    body = f'<div class="step"><div class="desc">long</div><div class="line"><div class="mline"><math>{long_math}</math></div></div></div>'
+    page = tmp_path / "long.html"
+    page.write_text(html_document(body, "long"), encoding="utf-8")
+    report = measure(page, LETTER_PRINTABLE_PX)
+    assert report["rows"] == 1 and len(report["over"]) >= 1
