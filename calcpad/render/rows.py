@@ -26,7 +26,7 @@ from calcpad.render.expressions import (
 )
 from calcpad.render.layout import BUDGET, Piece, break_lines, estimate_width, mathml_text, name_width, split_expr, tex_text
 
-__all__ = ["MathRow", "math_rows", "same_at_print"]
+__all__ = ["MathRow", "check_label", "math_rows", "same_at_print", "select_words"]
 
 
 @dataclass
@@ -133,6 +133,14 @@ def _branch_rows(b: BranchResult, budget: float) -> list[MathRow]:
     return rows
 
 
+def select_words(governing: str, ties: list[str]) -> str:
+    """"X governs", or "X and Y give the same value" when others print the same (no false governs)."""
+    if not ties:
+        return f"{governing} governs"
+    labels = [governing, *ties]
+    return f"{', '.join(labels[:-1])} and {labels[-1]} give the same value"
+
+
 def _select_row(s: SelectResult, budget: float) -> MathRow:
     gov = s.candidates[s.governing]
     ties = [c for c in s.candidates if c is not gov and same_at_print(gov.value, c.value, s.sig)]
@@ -147,10 +155,7 @@ def _select_row(s: SelectResult, budget: float) -> MathRow:
 
     names = listing([_name(c.name, "," if i else "=") for i, c in enumerate(s.candidates)])
     values = listing([_quantity(c.value, s.sig, "," if i else "=") for i, c in enumerate(s.candidates)])
-    if ties:
-        words = f"{gov.label} and {', '.join(c.label for c in ties)} give the same value"
-    else:
-        words = f"{gov.label} governs"
+    words = select_words(gov.label, [c.label for c in ties])
     parts = [[_name(s.name)], names, values, [_quantity(s.value, s.sig)], _phrase(words, " ")]
     return MathRow(s.description, s.ref, _lines(parts, budget))
 

@@ -17,7 +17,7 @@ from calcpad.core.results import (
 )
 from calcpad.core.units import format_number
 from calcpad.render.expressions import quantity_text, substituted_text, symbolic_text
-from calcpad.render.rows import check_label, same_at_print
+from calcpad.render.rows import check_label, same_at_print, select_words
 
 __all__ = ["sheet_markdown", "sheet_text", "step_text"]
 
@@ -75,7 +75,7 @@ def step_text(step: object) -> list[str]:
         vals = ", ".join(quantity_text(c.value, step.sig) for c in step.candidates)
         gov = step.candidates[step.governing]
         ties = [c.label for c in step.candidates if c is not gov and same_at_print(gov.value, c.value, step.sig)]
-        words = f"{gov.label} and {', '.join(ties)} give the same value" if ties else f"{gov.label} governs"
+        words = select_words(gov.label, ties)
         line = f"{name_text(step.name)} = {step.mode}({names}) = {step.mode}({vals}) = {quantity_text(step.value, step.sig)} — {words}"
         return [_with(line, step.description, step.ref)]
     if isinstance(step, CheckResult):
