@@ -12,16 +12,16 @@ from typing import TYPE_CHECKING, Any
 
 if TYPE_CHECKING:
     from calcpad.core.errors import CalcpadError
-    from calcpad.core.sheet import Sheet
+    from calcpad.core.sheet import Sheet, calc_heading
     from calcpad.core.units import Q_, parse_quantity, ureg
 
-__all__ = ["Q_", "CalcpadError", "Sheet", "__version__", "parse_quantity", "ureg"]
+__all__ = ["Q_", "CalcpadError", "Sheet", "__version__", "calc_heading", "parse_quantity", "ureg"]
 
 __version__ = "0.1.0"
 
 # Loaded on first use (PEP 562), so `import calcpad.cli` starts fast and the command line can
 # report a Ctrl-C during start-up as "interrupted" instead of a traceback.
-_LAZY = {"CalcpadError": "calcpad.core.errors", "Sheet": "calcpad.core.sheet", "Q_": "calcpad.core.units", "parse_quantity": "calcpad.core.units", "ureg": "calcpad.core.units"}
+_LAZY = {"CalcpadError": "calcpad.core.errors", "Sheet": "calcpad.core.sheet", "calc_heading": "calcpad.core.sheet", "Q_": "calcpad.core.units", "parse_quantity": "calcpad.core.units", "ureg": "calcpad.core.units"}
 
 
 def __getattr__(name: str) -> Any:

@@ -273,6 +273,7 @@ def _toml_str(v: Any) -> str:
 
 def starter_job(templates: list[str], extra: list[str] | None = None) -> str:
     """Text of a starter job file with every parameter of each template at its default."""
+    from calcpad.runner.job import CONTEXT_PARAMETERS
     from calcpad.runner.template import find_template, load_template
 
     lines = [
@@ -295,7 +296,7 @@ def starter_job(templates: list[str], extra: list[str] | None = None) -> str:
         tpl = load_template(find_template(name, extra or []))
         lines += ["", "[[calcs]]", f"template = {_toml_str(tpl.name)}", 'member = "M1"', "[calcs.inputs]"]
         for p in tpl.parameters.values():
-            if p.name == "member_mark":
+            if p.name in CONTEXT_PARAMETERS:
                 continue
             comment = "; ".join(x for x in (p.description, p.range_text) if x)
             lines.append(f"{p.name} = {_toml_str(p.default)}" + (f"  # {comment}" if comment else ""))

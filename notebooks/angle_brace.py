@@ -1,21 +1,12 @@
 # %% [markdown]
 # # Single-angle brace welded by one leg: compression, tension and end welds (AISC 360-16)
 #
-# *Example job (invented): Kestrel Bay Fabrication, pipe rack at the Northfield Cold Storage
-# compressor yard. Knee brace KB1 runs from a rack post to the beam above it, one leg of the
-# angle welded to a gusset plate at each end.*
-#
 # A single angle loaded at its ends through one leg is eccentrically loaded; AISC 360-16 E5 lets
 # it be checked as an axial member with an effective slenderness that accounts for the
 # eccentricity. The template checks the brace in compression (E5, E3, E7 for slender legs), in
 # tension (D2 with the shear lag factor of Table D3.1 case 2 for longitudinal welds) and the two
 # longitudinal fillet welds at each end, with the gusset plate along them (J2, J4.2) and its block
 # shear (J4.3).
-#
-# Assumptions: the brace is welded at both ends through the same leg, with no load between its
-# ends (the E5 conditions); the two end welds share the force equally; loads are combined for
-# the chosen method; the gusset's other limit states (Whitmore section, buckling) and the members it
-# joins are checked elsewhere.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -33,9 +24,11 @@ weld_length = "3 in"  # length of each of the two longitudinal welds at an end; 
 F_EXX = "70 ksi"  # filler metal classification strength; 60 ksi to 80 ksi
 gusset_t = "3/8 in"  # gusset plate thickness; 1/4 in to 1 in
 gusset_grade = "A36"  # gusset plate steel, materials catalog name
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Sheet
+from calcpad import Sheet, calc_heading
 from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_block_shear_check, add_compression_check, add_fillet_weld_check, add_tension_check
 from calcpad.eng.materials import get_material
@@ -46,7 +39,10 @@ steel = get_material(grade)
 # eccentricity of the connection: from the face of the welded leg to the centroid of the angle
 x_bar = shape.props.xc if (connected_leg == "long") == (shape.d >= shape.b) else shape.props.yc
 
-sh = Sheet(f"Knee brace KB1 - {brace}", method=method)
+sh = Sheet(calc_heading(f"Single-angle brace {brace}", calc_title, member_mark), method=method, meta={"member": member_mark})
+sh.assume("The brace is welded at both ends through the same leg, with no load between its ends (AISC 360-16 E5 conditions).")
+sh.assume("The two end welds share the force equally.")
+sh.assume("The gusset's other limit states (Whitmore section, buckling) and the members it joins are checked elsewhere.")
 sh.heading("Brace forces and geometry")
 sh.given("P_comp", P_c, "Brace compression")
 sh.given("P_tens", P_t, "Brace tension (load reversed)")
@@ -62,7 +58,7 @@ add_tension_check(sh, shape, T="P_tens", U="U_sl", material=steel)
 
 sh.heading("End connection", 2)
 sh.step("R_end", "max(P_comp, P_tens)", "Force through the end welds", unit="kip")
-sh.given("t_leg", f"{shape.t!r} in", "Angle leg thickness", source=brace)
+sh.given("t_leg", f"{shape.t:g} in", "Angle leg thickness", source=brace)
 sh.given("t_gus", gusset_t, "Gusset plate thickness")
 sh.step("t_thin", "min(t_leg, t_gus)", "Thinner part joined", unit="in")
 add_fillet_weld_check(sh, R="R_end", w=weld_size, L="l_w", t_p="t_thin", t_e="t_leg", F_EXX=F_EXX, n=2,
@@ -70,7 +66,7 @@ add_fillet_weld_check(sh, R="R_end", w=weld_size, L="l_w", t_p="t_thin", t_e="t_
 
 sh.heading("Gusset plate: block shear along the welds", 2)
 gusset = get_material(gusset_grade)
-sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b)!r} in", "Width of the welded leg (weld line to weld line)",
+sh.given("b_leg", f"{(shape.d if connected_leg == 'long' else shape.b):g} in", "Width of the welded leg (weld line to weld line)",
          source=brace)
 sh.step("A_gvg", "2*l_w*t_gus", "Gross shear area of the gusset along both welds", unit="in^2", ref="AISC 360-16 J4.3")
 sh.step("A_ntg", "b_leg*t_gus", "Tension area of the gusset across the end of the welds", unit="in^2", ref="AISC 360-16 J4.3")

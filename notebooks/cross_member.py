@@ -1,19 +1,11 @@
 # %% [markdown]
 # # Simply supported cross member: flexure, shear and deflection (AISC 360-16)
 #
-# *Example job (invented): Kestrel Bay Fabrication, mezzanine equipment platform for Northfield
-# Cold Storage. Cross member B4 spans between two main beams and carries grating load plus a
-# compressor skid foot at midspan.*
-#
 # A simply supported member with a uniform load and a point load at midspan. The template works
 # the maximum moment, shear and deflection with the beam formulas as steps, then checks flexure
 # (F2 with lateral-torsional buckling for W-shapes and channels, F9 for tees and F10 for equal-leg
 # angles with the conservative side assumed and stated, F7/F8 for HSS), shear (G2/G3/G4/G5) and the live
 # deflection against a span limit such as L/240.
-#
-# Assumptions: pinned ends (simple shear connections); loads combined for the chosen method for
-# strength; the deflection uses the service loads entered (enter service loads for the deflection
-# check); the compression flange is braced at the ends and at intervals of `L_b`.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -28,9 +20,11 @@ P = "1.6 kip"  # point load at midspan; 0 to 30 kip
 L_b = "6 ft"  # unbraced length of the compression flange; > 0, at most the span
 C_b = "1.30"  # lateral-torsional buckling modification factor; 1.0 (conservative) to 3.0
 defl_limit = "240"  # deflection limit as span / N; 120 to 600
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Sheet
+from calcpad import Sheet, calc_heading
 from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_flexure_check, add_shear_check
 from calcpad.eng.materials import get_material, hss_material
@@ -39,12 +33,15 @@ from calcpad.eng.sections import get_section
 shape = get_section(member)
 steel = hss_material(grade, shape) if "A500" in grade.upper() else get_material(grade)
 
-sh = Sheet(f"Cross member B4 - {member}, simple span", method=method)
+sh = Sheet(calc_heading(f"Simple-span member {member}", calc_title, member_mark), method=method, meta={"member": member_mark})
+sh.assume("Pinned ends (simple shear connections); loads combined for the design method for strength.")
+sh.assume("The deflection uses the loads entered: enter service loads for the deflection check.")
+sh.assume("The compression flange is braced at the ends and at intervals of L_b.")
 sh.heading("Loads and span")
 sh.given("L", span, "Span")
 sh.given("w", w, "Uniform load")
 sh.given("P_mid", P, "Point load at midspan")
-sh.given("E", f"{steel.E} ksi", "Modulus of elasticity", source=steel.name)
+sh.given("E", f"{steel.E:g} ksi", "Modulus of elasticity", source=steel.name)
 sh.given("I_x", f"{shape.props.Ix!r} in^4", "Moment of inertia about x", source=member, sig=4)
 sh.heading("Beam formulas (simple span)")
 sh.step("M_max", "w*L**2/8 + P_mid*L/4", "Maximum moment, at midspan", unit="kip*ft", ref="simple beam, uniform + central point load")

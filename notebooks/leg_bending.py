@@ -15,18 +15,23 @@ D_o = "1.900 in"  # tube outside diameter; > 0
 t = "0.145 in"  # tube wall thickness; 0 < t < D_o/2
 F_y = "35 ksi"  # specified minimum yield stress of the tube (ASTM A53 Gr B: 35 ksi)
 FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Sheet
+from calcpad import Sheet, calc_heading
+from calcpad.eng.materials import ROUND_TUBE_GRADES, grade_label
 from calcpad.widgets import show, show_summary
 
-sh = Sheet("Leg - bending at base")
+sh = Sheet(calc_heading("Leg bending at base", calc_title, member_mark), meta={"member": member_mark})
+sh.assume("The leg is a cantilever fixed at its base and loaded sideways at its top.")
+sh.assume("First-yield check of the bending stress at the base with a factor of safety; axial load, buckling and the base connection are checked elsewhere.")
 sh.heading("Inputs")
 sh.given("P", P, "Lateral load at top of leg")
 sh.given("L", L, "Leg length, base to load")
 sh.given("D_o", D_o, "Outside diameter")
 sh.given("t", t, "Wall thickness")
-sh.given("F_y", F_y, "Yield stress", source="ASTM A53 Gr B")
+sh.given("F_y", F_y, "Yield stress", source=grade_label(F_y, ROUND_TUBE_GRADES))
 sh.heading("Section properties")
 sh.step("D_i", "D_o - 2*t", "Inside diameter")
 sh.step("I", "pi/64*(D_o**4 - D_i**4)", "Moment of inertia", unit="in^4")

@@ -1,21 +1,12 @@
 # %% [markdown]
 # # Post under axial and lateral load: compression, flexure and interaction (AISC 360-16)
 #
-# *Example job (invented): Kestrel Bay Fabrication, loading-dock canopy for Northfield Cold
-# Storage. Post C3 is a steel tube fixed at its base plate and free at its top, where the canopy
-# beam bears on it and wind pushes sideways.*
-#
 # The post is a cantilever carrying an axial load and a lateral load at its top. This template
 # checks it per AISC 360-16 for every applicable limit state: compression (E3, E7 for slender
 # walls), flexure at the base (F7 for rectangular HSS, F8 for round HSS, F2 for W-shapes), shear
 # (G4/G5/G2) and the combined-force interaction H1-1a/H1-1b, names the governing ratio, and
 # checks the base plate for concrete bearing, plate bending and anchor rod tension (AISC 360-16
 # J8, AISC Design Guide 1).
-#
-# Assumptions: loads are already combined for the chosen method (ASD service combination or LRFD
-# factored combination); second-order effects are small or already in the moment (a fixed-free
-# post with the recommended K = 2.1, Commentary Table C-A-7.1); the base plate and anchors are
-# checked elsewhere for anchorage in the concrete (ACI 318 Chapter 17), welds and shear transfer.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -35,9 +26,11 @@ plate_grade = "A36"  # base plate steel, materials catalog name
 f_c = "3000 psi"  # concrete compressive strength f'c; 2500 psi to 8000 psi
 rod_d = "3/4 in"  # anchor rod diameter (ASTM F1554 Gr 36, two rods on the tension side); 1/2 in to 2 in
 rod_f = "3.75 in"  # plate centre to the anchor rod line; 1 in to 18 in
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Sheet
+from calcpad import Sheet, calc_heading
 from calcpad.widgets import show, show_summary
 from calcpad.eng.checks import add_base_plate_check, check_member
 from calcpad.eng.materials import get_material, hss_material
@@ -46,7 +39,10 @@ from calcpad.eng.sections import get_section
 shape = get_section(post)
 steel = hss_material(grade, shape) if "A500" in grade.upper() else get_material(grade)
 
-sh = Sheet(f"Post C3 - {post}, axial + lateral", method=method)
+sh = Sheet(calc_heading(f"Post {post}: axial and lateral load", calc_title, member_mark), method=method, meta={"member": member_mark})
+sh.assume("The post is a cantilever fixed at its base plate and free at its top, where the axial and lateral loads act.")
+sh.assume("Second-order effects are small or already in the moment (fixed-free post, K from Commentary Table C-A-7.1).")
+sh.assume("Anchorage in the concrete (ACI 318 Chapter 17), welds and shear transfer at the base are checked elsewhere.")
 sh.heading("Loads and geometry")
 sh.given("P_top", P, "Axial compression at top of post")
 sh.given("H_top", H, "Lateral load at top of post")

@@ -1,18 +1,11 @@
 # %% [markdown]
 # # Reinforcing a bent leg: member welded alongside
 #
-# *Example job (invented): Harbor Ridge Mechanical, rooftop condenser stand CS-2 at a cold-storage
-# warehouse. Leg L2 was found bent after a crane set the condenser against it.*
-#
 # The leg is a cantilever fixed at its base and loaded sideways at its top. It is reinforced by
 # welding a member alongside it: an angle wrapped round one corner (for an angle) or a sister tube
 # on the loaded face (for a tube, pipe or bar). The template shows the existing section, the added
 # member, the composite properties by the parallel-axis theorem, and the bending stress ratio
 # before and after, with the shear flow the intermittent welds must carry.
-#
-# Assumptions: the bent leg is straightened (or its bow is small) before the member is added;
-# the check is first-yield bending (M = F_y S) with Ω_b = 1.67, conservative for compact sections;
-# axial load, leg buckling and the base connection are checked elsewhere.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern.*
@@ -28,18 +21,26 @@ weld_size = "3/16 in"  # fillet weld leg size; 1/8 in to 5/16 in
 weld_length = "2 in"  # length of each intermittent weld segment; 1-1/2 in up to weld_pitch
 weld_pitch = "12 in"  # centre-to-centre spacing of the weld segments; weld_length to 24 in
 F_EXX = "70 ksi"  # filler metal classification strength; 60 ksi to 80 ksi
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
 import io
 
 from IPython.display import Image
 
-from calcpad import Q_, Sheet
+from calcpad import Q_, Sheet, calc_heading
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import Angle, get_section
 from calcpad.eng.sections.builtup import BuiltUp, compare_sections
 from calcpad.eng.sections.plot import draw_sections
 from calcpad.eng.sections.steps import add_builtup_steps, add_section_steps, add_shape_props
+
+ASSUMPTIONS = [
+    "The leg is a cantilever fixed at its base and loaded sideways at its top.",
+    "The bent leg is straightened (or its bow is small) before the member is added.",
+    "First-yield bending (M = F_y S) with Omega_b = 1.67, conservative for compact sections; axial load, leg buckling and the base connection are checked elsewhere.",
+]
 
 leg_shape = get_section(leg)
 add_shape_ = get_section(added)
@@ -64,7 +65,9 @@ Image(png.getvalue())
 # ## Existing leg
 
 # %%
-before = Sheet("Leg L2 - existing section, bending at base")
+before = Sheet(calc_heading("Reinforcement of a bent leg", calc_title, member_mark, "existing section"), meta={"member": member_mark})
+for text in ASSUMPTIONS:
+    before.assume(text)
 before.heading("Section properties")
 s = add_section_steps(before, leg_shape, source=f"{leg} (design wall)")
 S_name = s["S_x"]
@@ -84,7 +87,9 @@ before
 # ## Reinforced leg
 
 # %%
-after = Sheet("Leg L2 - reinforced section, bending at base")
+after = Sheet(calc_heading("Reinforcement of a bent leg", calc_title, member_mark, "reinforced section"), meta={"member": member_mark})
+for text in ASSUMPTIONS:
+    after.assume(text)
 after.figure("Existing and reinforced sections", fig)
 after.heading("Added member")
 a = add_shape_props(after, add_shape_, suffix="a", names=["A", "I_x", "I_y"])
@@ -136,6 +141,8 @@ after
 # %%
 import pandas as pd
 
+from calcpad.core.sheet import status_mark
+
 checks = [("before", chk) for chk in before.summary()] + [("after", chk) for chk in after.summary()]
 pd.DataFrame(
     {
@@ -144,6 +151,6 @@ pd.DataFrame(
         "demand": [f"{chk.demand.to(chk.capacity.units).magnitude:.2f} {chk.capacity.units:~P}" for _, chk in checks],
         "capacity": [f"{chk.capacity.magnitude:.2f} {chk.capacity.units:~P}" for _, chk in checks],
         "ratio": [round(chk.ratio, 3) for _, chk in checks],
-        "status": [chk.status for _, chk in checks],
+        "status": [status_mark(chk.status) for _, chk in checks],
     }
 )

@@ -10,9 +10,6 @@
 # AISC 360-16 (compression, flexure, shear and their interaction, ASD) in the combination that
 # governs it, and checks the stand for sway.
 #
-# Example data: Harbor Ridge Mechanical (fictional fabricator), unit CU-2 on the roof of an
-# invented two-storey building.
-#
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern. The first leg check is a yield-based screening check (combined axial and
 # bending stress against F_y with a factor of safety); the AISC 360-16 member check follows it.*
@@ -38,9 +35,12 @@ S_DS = 0.5  # design spectral response acceleration, short periods (site, ASCE 7
 a_p = 2.5  # component amplification factor (ASCE 7-16 Table 13.6-1); 1.0 to 2.5
 R_p = 6.0  # component response modification factor (ASCE 7-16 Table 13.6-1); 1.0 to 12
 I_p = 1.0  # component importance factor (ASCE 7-16 Sec. 13.1.3); 1.0 to 1.5
+member_mark = ""  # member mark (the runner fills it from the job)
+calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
-from calcpad import Q_, Sheet
+from calcpad import Q_, Sheet, calc_heading
+from calcpad.eng.materials import ROUND_TUBE_GRADES, grade_label
 from IPython.display import Image, display
 
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
@@ -52,7 +52,9 @@ from calcpad.eng.loads.seismic import add_component_seismic
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
 from calcpad.eng.sections import RoundTube
 
-sh = Sheet("CU-2 stand - wind and leg base moments", method="ASD")
+sh = Sheet(calc_heading("Rooftop stand: wind, seismic and leg checks", calc_title, member_mark), method="ASD", meta={"member": member_mark})
+sh.assume("The unit is a rigid block on the top rail; wind and seismic forces act at its centre.")
+sh.assume("Two frame lines share the loads equally; legs are fixed at their base plates.")
 sh.heading("Inputs")
 sh.given("W_u", W_unit, "Unit operating weight")
 sh.given("L_u", unit_L, "Unit length (along the wind)")
@@ -87,11 +89,11 @@ sh.step("D_i", "D_o - 2*t", "Inside diameter")
 sh.step("A_g", "pi/4*(D_o**2 - D_i**2)", "Area", unit="in^2", ref="common practice")
 sh.step("I_l", "pi/64*(D_o**4 - D_i**4)", "Moment of inertia", unit="in^4", ref="common practice")
 sh.step("S_l", "I_l/(D_o/2)", "Elastic section modulus", unit="in^3")
-sh.given("F_y", F_y, "Yield stress", source="ASTM A53 Gr B")
+sh.given("F_y", F_y, "Yield stress", source=grade_label(F_y, ROUND_TUBE_GRADES))
 sh.given("E_s", E_s, "Modulus of elasticity", source="AISC 360-16 B3 (common practice)")
 
 # %% [markdown]
-# One frame line: legs L1 (windward) and L2 fixed at their base plates, top rail R, and the unit
+# One frame line: the windward and leeward legs fixed at their base plates, top rail R, and the unit
 # as a stiff block (members K1, K2 to the unit's centre U). Wind acts at U, sideways and upward.
 
 # %%
@@ -104,8 +106,8 @@ fr.node("D", span, 0)
 fr.node("U", span / 2, height + e)
 leg = {"E": sh["E_s"], "A": sh["A_g"], "I": sh["I_l"]}
 stiff = {"E": sh["E_s"], "A": Q_(100.0, "in^2"), "I": Q_(1000.0, "in^4")}  # unit casing: stiff block
-fr.member("L1", "A", "B", **leg)
-fr.member("L2", "D", "C", **leg)
+fr.member("windward", "A", "B", **leg)
+fr.member("leeward", "D", "C", **leg)
 fr.member("R", "B", "C", **leg)
 fr.member("K1", "B", "U", **stiff)
 fr.member("K2", "C", "U", **stiff)
@@ -120,30 +122,30 @@ for c in combos:
 res = fr.solve()
 
 names = [c.name for c in combos]
-M_base, case_M, _ = res.envelope("L1", "M", cases=names)
-M_base2, case_M2, _ = res.envelope("L2", "M", cases=names)
+M_base, case_M, _ = res.envelope("windward", "M", cases=names)
+M_base2, case_M2, _ = res.envelope("leeward", "M", cases=names)
 if abs(M_base2) > abs(M_base):
-    M_base, case_M, leg_M = M_base2, case_M2, "L2"
+    M_base, case_M, leg_M = M_base2, case_M2, "leeward"
 else:
-    leg_M = "L1"
+    leg_M = "windward"
 N_gov = res.diagram(leg_M, case_M).N[0]
 sway = res.displacement("B", "AC5+")[0]
 
 sh.heading("Frame analysis (one frame line, ASD combinations)")
 sh.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c in combos))
 shown = [n for n in names if n in ("AC1", "AC5+", "AC7-", case_M)]
-add_frame_results(sh, res, shown, figure_case=case_M, members=["L1", "L2", "R"])
-sh.figure(f"Leg {leg_M} internal forces ({case_M})", plot_member(res, leg_M, case_M, ("N", "V", "M")))
+add_frame_results(sh, res, shown, figure_case=case_M, members=["windward", "leeward", "R"])
+sh.figure(f"Internal forces of the {leg_M} leg ({case_M})", plot_member(res, leg_M, case_M, ("N", "V", "M")))
 
 sh.heading("Leg at base plate")
-add_result_given(sh, "M_b", abs(M_base), f"Governing base moment, leg {leg_M}", f"frame analysis, {case_M}")
-add_result_given(sh, "P_b", Q_(abs(N_gov), "lbf"), f"Axial force in leg {leg_M}, same combination", f"frame analysis, {case_M}")
+add_result_given(sh, "M_b", abs(M_base), f"Governing base moment, {leg_M} leg", f"frame analysis, {case_M}")
+add_result_given(sh, "P_b", Q_(abs(N_gov), "lbf"), f"Axial force in the {leg_M} leg, same combination", f"frame analysis, {case_M}")
 sh.step("sigma_b", "P_b/A_g + M_b/S_l", "Combined stress at base", unit="ksi", ref="common practice")
 sh.check("Leg yield at base", demand="sigma_b", capacity="F_y", required_fs=FS_req, ref="yield-based, common practice")
 
 sh.heading("Leg member check (AISC 360-16, ASD)")
 leg_shape = RoundTube(sh["D_o"], sh["t"], name=f"leg tube {D_o} x {t_nom} nominal wall")
-check_frame_member(sh, res, ["L1", "L2"], leg_shape, L="H", K=float(K_leg), cases=names, material="A53 Gr B", F_y="F_y", E="E_s")
+check_frame_member(sh, res, ["windward", "leeward"], leg_shape, L="H", K=float(K_leg), cases=names, material="A53 Gr B", F_y="F_y", E="E_s")
 
 sh.heading("Sway of the stand")
 add_result_given(sh, "Delta_s", abs(sway), "Top rail sway under D + 0.6W", "frame analysis, AC5+")
@@ -155,7 +157,7 @@ sh
 # combination (the same figures go into the submittal).
 
 # %%
-display(Image(png_bytes(draw_frame(fr, res, case_M))), Image(png_bytes(draw_frame_diagram(res, case_M, "M", members=["L1", "L2", "R"]))))
+display(Image(png_bytes(draw_frame(fr, res, case_M))), Image(png_bytes(draw_frame_diagram(res, case_M, "M", members=["windward", "leeward", "R"]))))
 
 # %%
 sh.summary_frame()

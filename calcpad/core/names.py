@@ -10,7 +10,7 @@ import functools
 import keyword
 import re
 
-__all__ = ["NAME_PATTERN", "is_valid_name", "name_latex", "name_mathml", "name_text", "split_name"]
+__all__ = ["NAME_PATTERN", "RATIO_NAMES", "is_valid_name", "name_latex", "name_mathml", "name_text", "split_name"]
 
 NAME_PATTERN = re.compile(r"^[A-Za-z][A-Za-z0-9_]*$")
 
@@ -78,9 +78,27 @@ def _word_latex(word: str, italic_multi: bool = True) -> str:
     return word
 
 
+#: Names that print as a ratio of two symbols: base and first subscript -> (numerator, denominator).
+#: ``KL_r`` is the slenderness KL/r, not KL with a subscript r; ``KL_r_x`` prints (KL/r)_x.
+RATIO_NAMES = {("KL", "r"): ("KL", "r"), ("Lc", "r"): ("L_c", "r"), ("L", "ra"): ("L", "r_a")}
+
+
+def _ratio(name: str) -> tuple[str, str, list[str]] | None:
+    base, subs = split_name(name)
+    if subs and (base, subs[0]) in RATIO_NAMES:
+        num, den = RATIO_NAMES[(base, subs[0])]
+        return num, den, subs[1:]
+    return None
+
+
 @functools.lru_cache(maxsize=4096)
 def name_latex(name: str) -> str:
-    """LaTeX for a name: ``sigma_b`` → ``\\sigma_{b}``, ``FS`` → ``\\mathit{FS}``."""
+    """LaTeX for a name: ``sigma_b`` → ``\\sigma_{b}``, ``FS`` → ``\\mathit{FS}``, ``KL_r`` → KL/r."""
+    ratio = _ratio(name)
+    if ratio is not None:
+        num, den, rest = ratio
+        body = f"{name_latex(num)}/{name_latex(den)}"
+        return body if not rest else rf"\left({body}\right)_{{{','.join(_word_latex(s, italic_multi=False) for s in rest)}}}"
     base, subs = split_name(name)
     out = _word_latex(base)
     if subs:
@@ -97,7 +115,12 @@ def _word_text(word: str) -> str:
 
 @functools.lru_cache(maxsize=4096)
 def name_text(name: str) -> str:
-    """Plain-text form: ``sigma_b`` → ``σ_b``, ``Omega_c`` → ``Ω_c``."""
+    """Plain-text form: ``sigma_b`` → ``σ_b``, ``Omega_c`` → ``Ω_c``, ``KL_r`` → ``KL/r``."""
+    ratio = _ratio(name)
+    if ratio is not None:
+        num, den, rest = ratio
+        body = f"{name_text(num)}/{name_text(den)}"
+        return body if not rest else f"({body})_" + ",".join(_word_text(s) for s in rest)
     base, subs = split_name(name)
     out = _word_text(base)
     if subs:
@@ -107,7 +130,15 @@ def name_text(name: str) -> str:
 
 @functools.lru_cache(maxsize=4096)
 def name_mathml(name: str) -> str:
-    """Presentation MathML for a name (``<msub><mi>σ</mi><mi>b</mi></msub>``)."""
+    """Presentation MathML for a name (``<msub><mi>σ</mi><mi>b</mi></msub>``; KL_r as KL/r)."""
+    ratio = _ratio(name)
+    if ratio is not None:
+        num, den, rest = ratio
+        body = f"<mrow>{name_mathml(num)}<mo>/</mo>{name_mathml(den)}</mrow>"
+        if not rest:
+            return body
+        sub = ",".join(_word_text(s) for s in rest)
+        return f"<msub><mrow><mo>(</mo>{body}<mo>)</mo></mrow><mi>{sub}</mi></msub>"
     base, subs = split_name(name)
     b = _word_text(base)
     variant = ' mathvariant="italic"' if len(b) > 1 else ""

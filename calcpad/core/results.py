@@ -60,7 +60,13 @@ class FormulaResult:
     ref: str = ""
     sig: int = 4
     sigs: dict[str, int] = field(default_factory=dict)
+    quiet: bool = False
     kind: str = "formula"
+
+    @property
+    def hidden(self) -> bool:
+        """True for a quiet step whose value is zero: printers leave it out (the record keeps it)."""
+        return self.quiet and float(self.value.magnitude) == 0.0
 
 
 @dataclass
@@ -90,6 +96,7 @@ class BranchResult:
     description: str = ""
     ref: str = ""
     tested: int = 0
+    words: bool = False
     kind: str = "branch"
 
     @property
@@ -209,6 +216,11 @@ class SheetResult:
     def checks(self) -> list[CheckResult]:
         """All checks, in sheet order."""
         return [s for s in self.steps if isinstance(s, CheckResult)]
+
+    @property
+    def assumptions(self) -> list[str]:
+        """The model assumptions the template declared (``Sheet.assume``), in sheet order."""
+        return [s.text for s in self.steps if isinstance(s, TextResult) and s.kind == "assumption"]
 
     @property
     def ok(self) -> bool:

@@ -49,7 +49,7 @@ from calcpad.core.results import (
 from calcpad.core.steps import Branch, Case, Check, Figure, FormulaStep, Given, Heading, Select, Step, Table, Text
 from calcpad.core.units import Q_, DisplayPrefs, format_number, parse_quantity, parse_unit, unit_symbol
 
-__all__ = ["DISPLAY_HOOK", "Sheet"]
+__all__ = ["DISPLAY_HOOK", "Sheet", "calc_heading", "status_mark"]
 
 #: Where notebook display comes from. The engine does not import printers; this dotted path is
 #: loaded the first time a sheet is shown in Jupyter (dependency inversion, not a sideways import).
@@ -71,6 +71,40 @@ def _to_formula(text_or_expr: str | sp.Basic, condition: bool = False) -> Formul
 def _slug(text: str) -> str:
     slug = re.sub(r"[^A-Za-z0-9]+", "_", text).strip("_").lower()
     return slug or "check"
+
+
+_TYPED_NUMBER = re.compile(r"^\s*[-+]?(\d[\d,]*)\.(\d*0)(?![\d/])")
+
+
+def typed_sig(value: object) -> int | None:
+    """Significant figures of a typed value whose decimals end in zero (``"1.900 in"`` → 4), so
+    it prints as typed; None when printing "as entered" already shows it (``"0.145 in"``)."""
+    if not isinstance(value, str):
+        return None
+    m = _TYPED_NUMBER.match(value)
+    if not m:
+        return None
+    digits = (m.group(1).replace(",", "") + m.group(2)).lstrip("0")
+    return len(digits) or None
+
+
+def status_mark(status: str) -> str:
+    """A check status for tables: ``OK``, or ``[NG]`` framed so it is unmistakable without colour."""
+    return f"[{status}]" if status == NG else status
+
+
+def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> str:
+    """A sheet title from the job: ``"L1 - Stand legs: bending at base, existing section"``.
+
+    ``title`` is the job's calc title (``what``, the template's own words, when empty), ``mark``
+    the member mark and ``part`` names one of several sheets of a calc. Templates call this
+    with their ``calc_title`` and ``member_mark`` parameters, which the runner fills, so no
+    template carries a mark or a project's words.
+    """
+    head = (title or what).strip()
+    if part:
+        head = f"{head}, {part}"
+    return f"{mark.strip()} - {head}" if mark and mark.strip() else head
 
 
 def _column_scale(rows: list[list[Any]], j: int) -> float:
@@ -196,6 +230,10 @@ class Sheet:
                 control[key] = b
         if choices:
             control["choices"] = list(choices)
+        if sig is None:
+            # typed text prints as typed (trailing zeros kept); a value the template computed
+            # prints to the sheet's figures without padding zeros
+            sig = typed_sig(value) if isinstance(value, str) else -self.prefs.sig
         self._add(Given(name, q, description, source, sig, control))
 
     def step(
@@ -207,9 +245,12 @@ class Sheet:
         unit: str | None = None,
         ref: str = "",
         sig: int | None = None,
+        quiet: bool = False,
     ) -> None:
-        """Add ``name = formula`` (a formula string or a sympy expression)."""
-        self._add(FormulaStep(name, self._formula(name, formula), description, self._unit(name, unit), ref, sig))
+        """Add ``name = formula`` (a formula string or a sympy expression). ``quiet=True`` marks
+        an internal intermediate that the printers leave out while its value is zero (e.g. the
+        ineffective area of a flange that is fully effective)."""
+        self._add(FormulaStep(name, self._formula(name, formula), description, self._unit(name, unit), ref, sig, quiet))
 
     def branch(
         self,
@@ -220,11 +261,14 @@ class Sheet:
         unit: str | None = None,
         ref: str = "",
         sig: int | None = None,
+        words: bool = False,
     ) -> None:
         """Add a step whose formula is picked by the first condition that holds.
 
         ``cases`` is a list of ``(condition, formula, label)``; a ``None`` condition is
-        "otherwise" and must come last. The label names the governing equation.
+        "otherwise" and must come last. The label names the governing equation. ``words=True``
+        marks the value as an internal marker (a class number): the sheet prints the chosen
+        label ("compact") instead of the value.
         """
         if not cases:
             raise SheetError(f"branch {name!r}: needs at least one case")
@@ -239,7 +283,7 @@ class Sheet:
                     str(label),
                 )
             )
-        self._add(Branch(name, built, description, self._unit(name, unit), ref, sig))
+        self._add(Branch(name, built, description, self._unit(name, unit), ref, sig, words))
 
     def select(
         self,
@@ -451,7 +495,7 @@ class Sheet:
         value = evaluate_expr(formula.expr, env, name)
         shown = self._show(name, value, step.unit)
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
-        return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs)
+        return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 
     def _evaluate_step(self, step: Step) -> Any:
         if isinstance(step, Given):
@@ -491,7 +535,7 @@ class Sheet:
                 chosen = i
                 break
         formula = self._formula_result(step.name, step, step.cases[chosen].formula)
-        return BranchResult(step.name, cases, chosen, cond_env, sides, held, formula, step.description, step.ref, tested)
+        return BranchResult(step.name, cases, chosen, cond_env, sides, held, formula, step.description, step.ref, tested, step.words)
 
     def _evaluate_select(self, step: Select) -> SelectResult:
         cands = []
@@ -515,7 +559,8 @@ class Sheet:
                 f"check {step.title!r}: demand {step.demand!r} ({demand.units:~}) and capacity {step.capacity!r} "
                 f"({capacity.units:~}) are different kinds of quantity"
             )
-        cap = float(capacity.to(demand.units).magnitude)
+        demand = demand.to(capacity.units)  # one unit per kind inside a ratio: the capacity's
+        cap = float(capacity.magnitude)
         dem = abs(float(demand.magnitude))
         for role, nm, v in (("demand", step.demand, dem), ("capacity", step.capacity, cap)):
             if not math.isfinite(v):  # never OK (nor FS = ∞) on a NaN
@@ -584,18 +629,25 @@ class Sheet:
         return self.evaluate().checks
 
     def summary_frame(self) -> Any:
-        """Checks as a pandas DataFrame (name, demand, capacity, ratio, status)."""
+        """Checks as a pandas DataFrame (name, demand, capacity, ratio, status).
+
+        ratio = demand / capacity in every row: the demand's magnitude, in the capacity's unit;
+        a factor-of-safety check lists the allowable value (capacity / required FS). An NG
+        status is printed ``[NG]``, framed, so it stands out without colour.
+        """
         import pandas as pd  # lazy: pandas is slow to import
 
         rows = []
         for c in self.summary():
+            unit = unit_symbol(c.capacity.units)
+            capacity = float(c.capacity.magnitude) / (c.required_fs or 1.0)
             rows.append(
                 {
                     "check": c.title,
-                    "demand": f"{format_number(c.demand.magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
-                    "capacity": f"{format_number(c.capacity.to(c.demand.units).magnitude, c.sig)} {unit_symbol(c.demand.units)}".strip(),
+                    "demand": f"{format_number(abs(float(c.demand.magnitude)), c.sig)} {unit}".strip(),
+                    "capacity": f"{format_number(capacity, c.sig)} {unit}".strip(),
                     "ratio": round(c.ratio, 3),
-                    "status": c.status,
+                    "status": status_mark(c.status),
                     "reference": c.ref,
                 }
             )

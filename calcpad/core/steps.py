@@ -40,7 +40,8 @@ class Given:
 
 @dataclass
 class FormulaStep:
-    """``name = formula``, shown in ``unit`` (or the sheet's preference for its kind)."""
+    """``name = formula``, shown in ``unit`` (or the sheet's preference for its kind). A
+    ``quiet`` step is an internal intermediate: printers leave it out while its value is zero."""
 
     name: str
     formula: Formula
@@ -48,6 +49,7 @@ class FormulaStep:
     unit: pint.Unit | None = None  # read by parse_unit from the text the author wrote
     ref: str = ""
     sig: int | None = None
+    quiet: bool = False
 
     @property
     def defines(self) -> str:
@@ -69,7 +71,8 @@ class Case:
 
 @dataclass
 class Branch:
-    """Pick the first case whose condition holds."""
+    """Pick the first case whose condition holds. With ``words`` the value is an internal
+    marker (e.g. a class number): printers show the chosen case's label, not the value."""
 
     name: str
     cases: list[Case]
@@ -77,6 +80,7 @@ class Branch:
     unit: pint.Unit | None = None  # read by parse_unit from the text the author wrote
     ref: str = ""
     sig: int | None = None
+    words: bool = False
 
     @property
     def defines(self) -> str:

@@ -327,7 +327,8 @@ def format_number(x: float, sig: int = 4, style: str = "text") -> str:
 
     ``21000`` → ``21,000``; ``1.75`` → ``1.750``; ``0.09375`` → ``0.09375``; values at or above
     1e9 or below 1e-4 use powers of ten. ``sig=0`` means "as entered": up to six figures
-    without trailing zeros, the way givens are shown.
+    without trailing zeros, the way typed givens are shown; a negative ``sig`` means up to
+    ``-sig`` figures without trailing zeros (values a template computed and passed as givens).
     """
     if x is None or (isinstance(x, float) and math.isnan(x)):
         return "—"
@@ -337,8 +338,11 @@ def format_number(x: float, sig: int = 4, style: str = "text") -> str:
     if x == 0:
         return "0"
     exponent = math.floor(math.log10(abs(x)))
+    limit = -sig if sig < 0 else 0  # "up to -sig figures, no padding zeros"
+    if limit:
+        sig = 0
     if exponent >= 9 or exponent < -4:
-        sig = sig or 4
+        sig = sig or limit or 4
         mant = x / 10**exponent
         m = f"{mant:.{max(sig - 1, 0)}f}"
         if float(m) >= 10:  # rounding pushed the mantissa to 10
@@ -350,7 +354,7 @@ def format_number(x: float, sig: int = 4, style: str = "text") -> str:
         return f"{m}×10{str(exponent).translate(sup)}" if style == "text" else f"{m}e{exponent}"
     strip = sig == 0  # "as entered": up to 6 figures, no trailing zeros (used for givens)
     if strip:
-        sig = 6
+        sig = limit or 6
     rounded = _round_sig(x, sig)
     exponent = math.floor(math.log10(abs(rounded))) if rounded != 0 else 0
     decimals = max(sig - 1 - exponent, 0)

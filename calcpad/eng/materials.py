@@ -24,7 +24,16 @@ import pint
 from calcpad.core.errors import InputError
 from calcpad.core.units import Q_, parse_quantity
 
-__all__ = ["Material", "define_material", "get_material", "hss_material", "material_names", "register_material"]
+__all__ = [
+    "ROUND_TUBE_GRADES",
+    "Material",
+    "define_material",
+    "get_material",
+    "grade_label",
+    "hss_material",
+    "material_names",
+    "register_material",
+]
 
 _UNITS = {"Fy": "ksi", "Fu": "ksi", "E": "ksi", "G": "ksi", "density": "lb/ft**3", "Fy_welded": "ksi", "Fu_welded": "ksi"}
 
@@ -140,6 +149,23 @@ def hss_material(grade: str, section: Any) -> Material:
     """A500-type grade for a section: the round values for round tubes, shaped values otherwise."""
     kind = getattr(section, "kind", "")
     return get_material(grade, shape="round" if kind == "round tube" else "shaped")
+
+
+def grade_label(F_y: Any, among: tuple[str, ...] | None = None) -> str:
+    """The catalog grade of a yield stress actually used, for the label beside it.
+
+    ``among`` limits the search to catalog names (e.g. the pipe and round-HSS grades for a
+    tube). A value within 1 % of a grade's F_y (so 240 MPa finds the 35 ksi grade) gives its
+    name ("ASTM A53 Gr. B"; several as "X or Y"); a value no grade has gives "as given".
+    """
+    fy = float(parse_quantity(F_y, "F_y").to("ksi").magnitude)
+    pool = [get_material(n) for n in among] if among else list(_all().values())
+    hits = list(dict.fromkeys(m.name for m in pool if abs(m.Fy - fy) <= 0.01 * m.Fy))
+    return " or ".join(hits) if hits else "as given"
+
+
+#: Catalog grades of round tubes and pipe (for :func:`grade_label`).
+ROUND_TUBE_GRADES = ("A53 Gr B", "A500 Gr B round", "A500 Gr C round", "A1085")
 
 
 def _stress(value: Any, name: str, *, allow_none: bool = False) -> float | None:

@@ -9,23 +9,12 @@ from __future__ import annotations
 import base64
 import html
 
-from calcpad.core.names import name_mathml
-from calcpad.core.results import (
-    BranchResult,
-    CheckResult,
-    FigureResult,
-    FormulaResult,
-    GivenResult,
-    HeadingResult,
-    SelectResult,
-    SheetResult,
-    TableResult,
-    TextResult,
-)
-from calcpad.core.units import format_number
-from calcpad.render.expressions import quantity_mathml, substituted_mathml, symbolic_mathml
+from calcpad.core.results import FigureResult, HeadingResult, SheetResult, TableResult, TextResult
+from calcpad.render.latex import text_lead
+from calcpad.render.layout import mathml_lines
+from calcpad.render.rows import MathRow, math_rows
 
-__all__ = ["CAUTION", "CSS", "html_document", "sheet_html_fragment"]
+__all__ = ["CAUTION", "CSS", "html_document", "sheet_html_fragment", "status_html"]
 
 CAUTION = (
     "These calculations are for review by a qualified, licensed engineer. Local building codes and "
@@ -38,13 +27,13 @@ math { font-family: "Latin Modern Math", "DejaVu Math TeX Gyre", "STIX Two Math"
 h1 { font-size: 1.35em; border-bottom: 2px solid #333; padding-bottom: .2em; }
 h2 { font-size: 1.15em; margin-top: 1.2em; border-bottom: 1px solid #999; }
 h3 { font-size: 1.0em; margin: 1em 0 .3em; }
-.step { display: grid; grid-template-columns: 14em minmax(0, 1fr) 11em; gap: .2em 1em; padding: .25em 0; break-inside: avoid; border-bottom: 1px dotted #ccc; }
-.desc { color: #333; }
-.ref { color: #555; font-size: .88em; text-align: right; }
-.line { overflow-wrap: anywhere; min-width: 0; overflow-x: auto; overflow-y: hidden; } .line math { max-width: 100%; } .cont { display: inline-block; margin-left: .25em; }
+.step { display: grid; grid-template-columns: 13em minmax(0, 1fr); gap: .2em 1em; padding: .25em 0; break-inside: avoid; border-bottom: 1px dotted #ccc; }
+.desc { color: #333; overflow-wrap: anywhere; min-width: 0; }
+.ref { display: block; color: #555; font-size: .85em; margin-top: .1em; }
+.line { min-width: 0; } .mline { white-space: nowrap; } .mline.cont { padding-left: 2em; }
 .check { background: #f6f6f6; }
-.status { font-weight: bold; padding: 0 .4em; border: 1px solid #333; border-radius: 2px; }
-.status.NG { background: #111; color: #fff; }
+.status { font-weight: bold; padding: 0 .4em; margin-left: .6em; border: 1.5px solid #111; border-radius: 2px; }
+.status.NG { border-width: 3px; outline: 1.5px solid #111; outline-offset: 1px; }
 .note { font-style: italic; color: #333; padding: .2em 0; break-inside: avoid; }
 table.grid { border-collapse: collapse; margin: .4em 0; break-inside: avoid; }
 table.grid th, table.grid td { border: 1px solid #999; padding: .15em .5em; text-align: right; }
@@ -64,82 +53,21 @@ def _e(text: str) -> str:
     return html.escape(text or "")
 
 
-def _row(desc: str, math: str, ref: str, extra: str = "") -> str:
-    return f'<div class="step{extra}"><div class="desc">{desc}</div><div class="line">{math}</div><div class="ref">{ref}</div></div>'
+def status_html(status: str) -> str:
+    """The verdict as a framed word (NG with a heavy double frame, visible without colour)."""
+    return f'<span class="status {status}">{status}</span>'
 
 
-def _formula_ml(f: FormulaResult) -> str:
-    sym = symbolic_mathml(f.expr)
-    if f.expr.is_Number:  # a value written into the formula
-        return _m(f"{name_mathml(f.name)}<mo>=</mo>{sym}")
-    sub = substituted_mathml(f.expr, f.values, f.sigs, f.sig)
-    res = quantity_mathml(f.value, f.sig)
-    parts = [name_mathml(f.name), sym]
-    if sub != sym and sub.replace("<mrow>", "").replace("</mrow>", "") != res.replace("<mrow>", "").replace("</mrow>", ""):
-        parts.append(sub)
-    parts.append(res)
-    # one <math> per part so a long line wraps between "= ..." parts (MathML does not line-break)
-    head = _m(f"{parts[0]}<mo>=</mo>{parts[1]}")
-    return head + "".join(f'<span class="cont">{_m("<mo>=</mo>" + p)}</span>' for p in parts[2:])
-
-
-_REL = {"<": "&lt;", "<=": "&#x2264;", ">": "&gt;", ">=": "&#x2265;"}
-_FLIP = {"<": ">=", "<=": ">", ">": "<=", ">=": "<"}
-
-
-def _side(expr: object, value: object) -> str:
-    if getattr(expr, "is_Number", False):
-        return symbolic_mathml(expr)
-    return f"{symbolic_mathml(expr)}<mo>=</mo>{quantity_mathml(value)}"
-
-
-def _branch(b: BranchResult) -> str:
+def _row_html(row: MathRow) -> str:
+    label = f"<b>{_e(row.label)}</b>" if row.strong and row.label else _e(row.label)
+    ref = f'<span class="ref">[{_e(row.ref)}]</span>' if row.ref else ""
+    lines = mathml_lines(row.lines)
     out = []
-    cond = b.cases[b.tested].condition
-    label = b.cases[b.chosen].label
-    if cond is not None and b.condition_sides is not None and hasattr(cond, "rel_op"):
-        lhs, rhs = b.condition_sides
-        op = cond.rel_op if b.condition_held else _FLIP[cond.rel_op]
-        test = f"{_side(cond.lhs, lhs)}<mo>{_REL[op]}</mo>{_side(cond.rhs, rhs)}"
-        out.append(_row(_e(b.description), _m(test) + f" &#x21D2; use {_e(label)}", _e(b.ref)))
-        out.append(_row("", _formula_ml(b.formula), _e(label)))
-    else:
-        out.append(_row(_e(b.description), _formula_ml(b.formula), _e(label or b.ref)))
-    return "".join(out)
-
-
-def _select(s: SelectResult) -> str:
-    names = "<mo>,</mo>".join(name_mathml(c.name) for c in s.candidates)
-    vals = "<mo>,</mo>".join(quantity_mathml(c.value, s.sig) for c in s.candidates)
-    gov = s.candidates[s.governing]
-    ml = (
-        f"{name_mathml(s.name)}<mo>=</mo><mi>{s.mode}</mi><mrow><mo>(</mo>{names}<mo>)</mo></mrow><mo>=</mo>"
-        f"<mi>{s.mode}</mi><mrow><mo>(</mo>{vals}<mo>)</mo></mrow><mo>=</mo>{quantity_mathml(s.value, s.sig)}"
-    )
-    return _row(_e(s.description), _m(ml) + f" &#8212; {_e(gov.label)} governs", _e(s.ref))
-
-
-def _check(c: CheckResult) -> str:
-    d, cap = name_mathml(c.demand_name), name_mathml(c.capacity_name)
-    dq, cq = quantity_mathml(c.demand, c.sig), quantity_mathml(c.capacity, c.sig)
-    status = f'<span class="status {c.status}">{c.status}</span>'
-    if c.required_fs is not None:
-        rel = "&#x2265;" if c.ok else "&lt;"
-        ml = (
-            f'<mi mathvariant="italic">FS</mi><mo>=</mo><mfrac>{cap}{d}</mfrac><mo>=</mo><mfrac>{cq}{dq}</mfrac>'
-            f"<mo>=</mo><mn>{format_number(c.fs, c.sig)}</mn><mo>{rel}</mo><mn>{format_number(c.required_fs, 3)}</mn>"
-        )
-        return _row(f"<b>{_e(c.title)}</b>", _m(ml) + " " + status, _e(c.ref), " check")
-    rel = "&#x2264;" if c.ok else "&gt;"
-    ml = (
-        f"<mfrac>{d}{cap}</mfrac><mo>=</mo><mfrac>{dq}{cq}</mfrac><mo>=</mo><mn>{format_number(c.ratio, 3)}</mn>"
-        f"<mo>{rel}</mo><mn>{format_number(c.limit, 3)}</mn>"
-    )
-    out = _row(f"<b>{_e(c.title)}</b>", _m(ml) + " " + status, _e(c.ref), " check")
-    if c.show_fs and c.fs is not None:
-        fs = f'<mi mathvariant="italic">FS</mi><mo>=</mo><mfrac>{cap}{d}</mfrac><mo>=</mo><mn>{format_number(c.fs, c.sig)}</mn>'
-        out += _row("", _m(fs), "", " check")
-    return out
+    for i, ml in enumerate(lines):
+        tail = status_html(row.status) if row.status and i == len(lines) - 1 else ""
+        out.append(f'<div class="mline{" cont" if i else ""}">{_m(ml)}{tail}</div>')
+    extra = " check" if row.check else ""
+    return f'<div class="step{extra}"><div class="desc">{label}{ref}</div><div class="line">{"".join(out)}</div></div>'
 
 
 def _table(t: TableResult) -> str:
@@ -150,22 +78,13 @@ def _table(t: TableResult) -> str:
 
 
 def _step(step: object) -> str:
-    if isinstance(step, GivenResult):
-        ml = f"{name_mathml(step.name)}<mo>=</mo>{quantity_mathml(step.value, step.sig)}"
-        return _row(_e(step.description), _m(ml), _e(step.source))
-    if isinstance(step, FormulaResult):
-        return _row(_e(step.description), _formula_ml(step), _e(step.ref))
-    if isinstance(step, BranchResult):
-        return _branch(step)
-    if isinstance(step, SelectResult):
-        return _select(step)
-    if isinstance(step, CheckResult):
-        return _check(step)
+    rows = math_rows(step)
+    if rows is not None:
+        return "".join(_row_html(r) for r in rows)
     if isinstance(step, HeadingResult):
         return f"<h{step.level + 1}>{_e(step.text)}</h{step.level + 1}>"
     if isinstance(step, TextResult):
-        lead = {"assumption": "Assumption", "reference": "Reference"}.get(step.kind, "Note")
-        return f'<div class="note"><b>{lead}:</b> {_e(step.text)}</div>'
+        return f'<div class="note"><b>{text_lead(step.kind)}:</b> {_e(step.text)}</div>'
     if isinstance(step, TableResult):
         return _table(step)
     if isinstance(step, FigureResult):

@@ -6,8 +6,14 @@ Format (``"format": "calcpad-record/1"``)::
      "meta": {...},
      "inputs":  {name: {"value": float, "unit": "in", "description": ...}},
      "results": {name: {"value": float, "unit": "kip*ft"}},
+     "assumptions": [text, ...],   # declared with Sheet.assume, for a design basis section
      "checks":  [{"key", "title", "demand": {value, unit}, "capacity": {value, unit},
+                  "demand_signed", "nominal_capacity",
                   "ratio", "status", "fs", "required_fs", "ref"}]}
+
+In a check, ``ratio == demand / capacity``: ``demand`` is the magnitude (``demand_signed`` keeps
+the sign), in the capacity's unit; for a factor-of-safety check ``capacity`` is the allowable
+value (nominal / required FS) and ``nominal_capacity`` the value before the factor.
 
 Values are in the unit shown on the sheet (unit strings use pint's ASCII abbreviations).
 """
@@ -44,12 +50,18 @@ def sheet_record(result: SheetResult) -> dict[str, Any]:
         elif isinstance(s, BranchResult):
             results[s.name] = {**quantity_record(s.value), "case": s.cases[s.chosen].label}
         elif isinstance(s, CheckResult):
+            # ratio = demand / capacity in the record: the demand's magnitude, and for a
+            # factor-of-safety check the allowable capacity / required FS
+            capacity = s.capacity.to(s.demand.units)
+            allowable = capacity / s.required_fs if s.required_fs is not None else capacity
             checks.append(
                 {
                     "key": s.key,
                     "title": s.title,
-                    "demand": quantity_record(s.demand),
-                    "capacity": quantity_record(s.capacity.to(s.demand.units)),
+                    "demand": quantity_record(abs(s.demand)),
+                    "capacity": quantity_record(allowable),
+                    "demand_signed": quantity_record(s.demand),
+                    "nominal_capacity": quantity_record(capacity),
                     "ratio": s.ratio,
                     "status": s.status,
                     "fs": s.fs,
@@ -67,4 +79,5 @@ def sheet_record(result: SheetResult) -> dict[str, Any]:
         "inputs": inputs,
         "results": results,
         "checks": checks,
+        "assumptions": result.assumptions,
     }

@@ -17,6 +17,7 @@ from calcpad.core.results import (
 )
 from calcpad.core.units import format_number
 from calcpad.render.expressions import quantity_text, substituted_text, symbolic_text
+from calcpad.render.rows import check_label, same_at_print, select_words
 
 __all__ = ["sheet_markdown", "sheet_text", "step_text"]
 
@@ -52,7 +53,7 @@ def step_text(step: object) -> list[str]:
     if isinstance(step, GivenResult):
         return [_with(f"{name_text(step.name)} = {quantity_text(step.value, step.sig)}", step.description, step.source)]
     if isinstance(step, FormulaResult):
-        return [_with(_formula(step), step.description, step.ref)]
+        return [] if step.hidden else [_with(_formula(step), step.description, step.ref)]
     if isinstance(step, BranchResult):
         cond = step.cases[step.tested].condition
         label = step.cases[step.chosen].label
@@ -60,9 +61,12 @@ def step_text(step: object) -> list[str]:
         if cond is not None and step.condition_sides is not None and hasattr(cond, "rel_op"):
             lhs, rhs = step.condition_sides
             rel = _REL[cond.rel_op] if step.condition_held else _FLIP[cond.rel_op]
-            test = f"{_side(cond.lhs, lhs)} {rel} {_side(cond.rhs, rhs)} → use {label}"
+            test = f"{_side(cond.lhs, lhs)} {rel} {_side(cond.rhs, rhs)} → {label if step.words else 'use ' + label}"
             lines.append(_with(test, step.description, step.ref))
-            lines.append("    " + _with(_formula(step.formula), "", label))
+            if not step.words:
+                lines.append("    " + _with(_formula(step.formula), "", label))
+        elif step.words:
+            lines.append(_with(label, step.description, step.ref))
         else:
             lines.append(_with(_formula(step.formula), step.description, label or step.ref))
         return lines
@@ -70,22 +74,27 @@ def step_text(step: object) -> list[str]:
         names = ", ".join(name_text(c.name) for c in step.candidates)
         vals = ", ".join(quantity_text(c.value, step.sig) for c in step.candidates)
         gov = step.candidates[step.governing]
-        line = f"{name_text(step.name)} = {step.mode}({names}) = {step.mode}({vals}) = {quantity_text(step.value, step.sig)} — {gov.label} governs"
+        ties = [c.label for c in step.candidates if c is not gov and same_at_print(gov.value, c.value, step.sig)]
+        words = select_words(gov.label, ties)
+        line = f"{name_text(step.name)} = {step.mode}({names}) = {step.mode}({vals}) = {quantity_text(step.value, step.sig)} — {words}"
         return [_with(line, step.description, step.ref)]
     if isinstance(step, CheckResult):
         d, cap = name_text(step.demand_name), name_text(step.capacity_name)
-        dq, cq = quantity_text(step.demand, step.sig), quantity_text(step.capacity, step.sig)
+        if float(step.demand.magnitude) < 0:
+            d = f"|{d}|"
+        dq, cq = quantity_text(abs(step.demand), step.sig), quantity_text(step.capacity, step.sig)
+        title = check_label(step)
         if step.required_fs is not None:
             rel = "≥" if step.ok else "<"
             line = (
                 f"FS = {cap}/{d} = {cq}/{dq} = {format_number(step.fs, step.sig)} {rel} {format_number(step.required_fs, 3)}  {step.status}"
             )
-            return [_with(line, step.title, step.ref)]
+            return [_with(line, title, step.ref)]
         rel = "≤" if step.ok else ">"
         lines = [
             _with(
                 f"{d}/{cap} = {dq}/{cq} = {format_number(step.ratio, 3)} {rel} {format_number(step.limit, 3)}  {step.status}",
-                step.title,
+                title,
                 step.ref,
             )
         ]
@@ -116,7 +125,8 @@ def sheet_text(result: SheetResult) -> str:
 
 def sheet_markdown(result: SheetResult) -> str:
     """The sheet as Markdown: headings and notes as text, each step as display math."""
-    from calcpad.render.latex import step_latex
+    from calcpad.render.latex import row_math_latex
+    from calcpad.render.rows import math_rows
 
     out = [f"# {result.title}", ""]
     for step in result.steps:
@@ -131,10 +141,11 @@ def sheet_markdown(result: SheetResult) -> str:
         elif isinstance(step, FigureResult):
             out += [f"*Figure: {step.title}*", ""]
         else:
-            for desc, math, ref in step_latex(step):
-                label = desc.replace(r"\textbf{", "**").replace("}", "**") if desc.startswith(r"\textbf") else desc
-                head = " — ".join(x for x in (label, f"[{ref}]" if ref else "") if x)
+            rows = math_rows(step) or []
+            for row in rows:
+                label = f"**{row.label}**" if row.strong and row.label else row.label
+                head = " — ".join(x for x in (label, f"[{row.ref}]" if row.ref else "") if x)
                 if head:
-                    out.append(head.replace("\\", ""))
-                out += [f"$$ {math} $$", ""]
+                    out.append(head)
+                out += [f"$$ {row_math_latex(row)} $$", ""]
     return "\n".join(out)

@@ -117,9 +117,10 @@ def _close_figures() -> None:
 
 def _values(calc: Calc) -> dict[str, Any]:
     values: dict[str, Any] = dict(calc.inputs)
+    context = {"member_mark": calc.member if calc.member != "-" else "", "calc_title": calc.title}
     for name in CONTEXT_PARAMETERS:
         if name in calc.template.parameters:
-            values[name] = calc.member
+            values[name] = context[name]
     return {n: values[n] for n in calc.template.parameters if n in values}
 
 

@@ -28,10 +28,13 @@
     ...
 
 Every parameter of the template must be given (the job file is the complete record of what was
-assumed; `calcpad new` writes them all). A template parameter named ``member_mark`` is filled with
-the member mark by the runner. The job file is data only: nothing in it is executed, and a
-template is named, never pointed at: it is looked up in the template library folders
-(:func:`~calcpad.runner.template.find_template`), and names that are paths are refused. Validation
+assumed; `calcpad new` writes them all). Template parameters named ``member_mark`` and
+``calc_title`` are filled by the runner with the member mark and the calc's ``title``. ``[job]``
+may carry ``basis``: a text or a list of texts stating the design basis (load sources, the
+owner's criteria), printed in the submittal's design criteria. The job file is data only:
+nothing in it is executed, and a template is named, never pointed at: it is looked up in the
+template library folders (:func:`~calcpad.runner.template.find_template`), and names that are
+paths are refused. Validation
 collects every problem, each with its location (``calcs[3].inputs.L``; calcs count from 1 in
 file order) and raises one :class:`JobError`.
 """
@@ -69,13 +72,14 @@ __all__ = [
     "single_template_job",
 ]
 
-JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "paper", "print", "revisions")
+JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "paper", "print", "revisions", "basis")
 PAPERS = ("letter", "a4")
 REVISION_KEYS = ("rev", "date", "description", "by")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
 CALC_KEYS = ("template", "member", "members", "title", "inputs")
-CONTEXT_PARAMETERS = ("member_mark",)
-_OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions")
+#: Template parameters the runner fills from the job: the member mark and the calc's title.
+CONTEXT_PARAMETERS = ("member_mark", "calc_title")
+_OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions", "basis")
 _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
 
@@ -108,6 +112,7 @@ class JobInfo:
     paper: str = "letter"  # "letter" or "a4"
     print: str = "full"  # "full", "summary" or "calc:MARK"
     revisions: list[dict[str, str]] = field(default_factory=list)  # {"rev", "date", "description", "by"}
+    basis: list[str] = field(default_factory=list)  # design basis notes: load sources, owner's criteria
 
     def as_dict(self) -> dict[str, Any]:
         """Plain dictionary (for the record)."""
@@ -212,7 +217,14 @@ def _job_info(raw: Any, problems: list[tuple[str, str]]) -> JobInfo:
         problems.append(("job.print", f"{mode!r}; expected 'full', 'summary' or 'calc:MARK' (e.g. 'calc:L1')"))
         mode = "full"
     revisions = _revisions(raw.get("revisions", []), vals["revision"], problems)
-    return JobInfo(**vals, codes=list(codes), units=units, paper=paper, print=mode, revisions=revisions)
+    basis = raw.get("basis", [])
+    if isinstance(basis, str):
+        basis = [basis]
+    if not isinstance(basis, list) or not all(isinstance(b, str) and b.strip() for b in basis):
+        problems.append(("job.basis", f"{basis!r}; expected a text or a list of non-empty texts, e.g. "
+                                      "[\"Wind speed from the building official's letter of 2025-02-03\"]"))
+        basis = []
+    return JobInfo(**vals, codes=list(codes), units=units, paper=paper, print=mode, revisions=revisions, basis=[b.strip() for b in basis])
 
 
 def print_mode(text: str) -> tuple[str, str] | None:

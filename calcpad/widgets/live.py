@@ -4,7 +4,7 @@
     show_summary(sh)  # the check summary, kept for updates
     refresh(sh)       # after sh.set(...): re-print the changed steps and redraw them in place
 
-A :class:`SheetView` caches each step's printed form (LaTeX for the notebook, text for consoles).
+A :class:`SheetView` caches each step's printed form (HTML rows with LaTeX math, display blocks, text).
 After an evaluation, a step whose result object is the one printed last time is not printed again
 (the sheet keeps the result objects of steps it did not recompute, see ``Sheet.last_recomputed``);
 the others are printed and compared with the cache, and only those whose printed form differs
@@ -34,55 +34,38 @@ __all__ = ["SheetView", "quiet", "refresh", "show", "show_summary", "step_bundle
 _EMPTY: dict[str, str] = {"text/plain": ""}
 #: Most outputs one sheet display uses (JupyterLab shows 50 per cell before folding).
 MAX_SLOTS = 40
-#: Characters per display block (MathJax refuses one expression past about 5 KB expanded).
-BLOCK_CHARS = 2500
 _ids = itertools.count(1)
 
-
-def _title_row(title: str) -> str:
-    from calcpad.render.latex import _text  # the printer's own escaping
-
-    return rf"\textbf{{{_text(title)}}}"
+#: A printed step: (HTML table rows, LaTeX display blocks, plain text).
+Printed = tuple[str, str, str]
 
 
-def _latex_rows(rows: list[tuple[str, str, str]]) -> str:
-    """Rows ``(description, math, reference)`` as one display block, laid out by the LaTeX
-    printer's own row function (so the live sheet follows the printer's row layout)."""
-    from calcpad.render.latex import _row_latex
-
-    return "$$\n\\begin{array}{lll}\n" + " \\\\\n".join(_row_latex(*r) for r in rows) + "\n\\end{array}\n$$"
-
-
-def _printed(step: Any) -> tuple[list[tuple[str, str, str]], str]:
-    """LaTeX rows and plain text of one step result (the printers' own per-step functions)."""
-    from calcpad.render.latex import step_latex  # lazy: printers load sympy printing
+def _printed(step: Any) -> Printed:
+    """One step result printed by the notebook printers (the same rows the whole sheet shows)."""
+    from calcpad.render.latex import step_blocks, title_block  # lazy: printers load sympy printing
+    from calcpad.render.notebook import step_notebook_rows, title_notebook_row
     from calcpad.render.text import step_text
 
     if isinstance(step, HeadingResult) and step.level == 0:  # the sheet title
-        return [(_title_row(step.text), "", "")], step.text
-    return step_latex(step), "\n".join(step_text(step))
+        return title_notebook_row(step.text), title_block(step.text), step.text
+    return step_notebook_rows(step), step_blocks(step), "\n".join(step_text(step))
 
 
-def _bundle(rows: list[tuple[str, str, str]], plain: str) -> dict[str, str]:
-    """Rows as display blocks of at most :data:`BLOCK_CHARS` characters, and the plain text."""
-    if not rows:
-        return {"text/plain": plain}
-    blocks: list[list[tuple[str, str, str]]] = [[]]
-    size = 0
-    for row in rows:
-        n = sum(len(x) for x in row)
-        if blocks[-1] and size + n > BLOCK_CHARS:
-            blocks.append([])
-            size = 0
-        blocks[-1].append(row)
-        size += n
-    return {"text/latex": "\n".join(_latex_rows(b) for b in blocks), "text/plain": plain}
+def _bundle(printed: list[Printed]) -> dict[str, str]:
+    """Printed steps as one display: an HTML sheet table, LaTeX blocks and plain text."""
+    from calcpad.render.notebook import rows_notebook_html
+
+    html = [h for h, _, _ in printed if h]
+    latex = "\n".join(x for _, x, _ in printed if x)
+    plain = "\n".join(p for _, _, p in printed if p)
+    if not html and not latex:
+        return {"text/plain": plain} if plain else dict(_EMPTY)
+    return {"text/html": rows_notebook_html(html), "text/latex": latex, "text/plain": plain}
 
 
 def step_bundle(step: Any) -> dict[str, str]:
-    """The notebook display of one step result: ``text/latex`` (MathJax) and ``text/plain``."""
-    rows, plain = _printed(step)
-    return _bundle(rows, plain) if rows or plain else dict(_EMPTY)
+    """The notebook display of one step result: ``text/html``, ``text/latex`` and ``text/plain``."""
+    return _bundle([_printed(step)])
 
 
 def summary_bundle(result: SheetResult) -> dict[str, str]:
@@ -105,7 +88,7 @@ class SheetView:
     printed: int = 0
     _steps: list[Any] = field(default_factory=list)
     _bundles: list[dict[str, str]] = field(default_factory=list)
-    _printed: list[tuple[list[tuple[str, str, str]], str]] = field(default_factory=list)
+    _printed: list[Printed] = field(default_factory=list)
 
     def bundles(self) -> list[dict[str, str]]:
         """One bundle per step (the sheet title first), printing what is not cached yet."""
@@ -129,7 +112,7 @@ class SheetView:
                     continue
             self.printed += 1
             printed = _printed(step)
-            bundle = _bundle(*printed) if printed[0] or printed[1] else dict(_EMPTY)
+            bundle = _bundle([printed])
             if i < len(self._bundles):
                 self._steps[i] = step
                 if bundle != self._bundles[i]:
@@ -160,10 +143,8 @@ class SheetView:
         return ranges + [(end, end)] * (slots - len(ranges))
 
     def group_bundle(self, start: int, end: int) -> dict[str, str]:
-        """One display for steps ``start`` to ``end`` (their rows in shared blocks)."""
-        rows = [r for rs, _ in self._printed[start:end] for r in rs]
-        plain = "\n".join(p for _, p in self._printed[start:end] if p)
-        return _bundle(rows, plain) if rows or plain else dict(_EMPTY)
+        """One display for steps ``start`` to ``end`` (their rows in one sheet table)."""
+        return _bundle(self._printed[start:end])
 
 
 # ----------------------------------------------------------------------------- notebook slots

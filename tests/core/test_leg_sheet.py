@@ -63,9 +63,10 @@ def test_three_part_line_in_latex():
     latex = sheet_latex(leg_sheet().evaluate())
     # symbolic = substituted = result, in the author's order
     assert r"M = P \cdot L = 60\ \mathrm{lbf} \times 48\ \mathrm{in} = 2{,}880\ \mathrm{lbf} \cdot \mathrm{in}" in latex
+    # too long for one line: the substituted form continues on an indented line after "="
     assert (
-        r"I = \frac{\pi}{64} \cdot \left(D_{o}^{4} - D_{i}^{4}\right) = \frac{\pi}{64} \times "
-        r"\left(\left(1.9\ \mathrm{in}\right)^{4} - \left(1.610\ \mathrm{in}\right)^{4}\right) = 0.3099\ \mathrm{in}^{4}"
+        r"I = \frac{\pi}{64} \cdot \left(D_{o}^{4} - D_{i}^{4}\right) \\ \qquad = \frac{\pi}{64} \times "
+        r"\left(\left(1.900\ \mathrm{in}\right)^{4} - \left(1.610\ \mathrm{in}\right)^{4}\right) \\ \qquad = 0.3099\ \mathrm{in}^{4}"
     ) in latex
     assert r"\sigma_{b} = \frac{M \cdot c}{I}" in latex
     assert r"\mathit{FS} = \frac{F_{y}}{\sigma_{b}}" in latex

@@ -197,11 +197,12 @@ class Calc:
         self.given(base, v, description, source, dim=unit, sig=None if isinstance(v, str) else 4, shared=True)
 
     # ----------------------------------------------------------- steps
-    def step(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "", sig: int | None = None) -> str:
-        """Add ``base = formula``; returns the sheet name."""
+    def step(self, base: str, formula: str, description: str = "", *, unit: str | None = None, ref: str = "", sig: int | None = None,
+             quiet: bool = False) -> str:
+        """Add ``base = formula``; returns the sheet name (``quiet`` as in :meth:`Sheet.step`)."""
         name = self.name(base)
         text = self.f(formula)
-        self.sh.step(name, text, description, unit=unit, ref=ref, sig=sig)
+        self.sh.step(name, text, description, unit=unit, ref=ref, sig=sig, quiet=quiet)
         self.names[base] = name
         return name
 
@@ -222,11 +223,13 @@ class Calc:
         *,
         unit: str | None = None,
         ref: str = "",
+        words: bool = False,
     ) -> str:
-        """Add a branch step (conditions and formulas in base names)."""
+        """Add a branch step (conditions and formulas in base names); ``words`` as in
+        :meth:`Sheet.branch`."""
         name = self.name(base)
         built = [(self.f(c) if c is not None else None, self.f(formula), label) for c, formula, label in cases]
-        self.sh.branch(name, built, description, unit=unit, ref=ref)
+        self.sh.branch(name, built, description, unit=unit, ref=ref, words=words)
         self.names[base] = name
         return name
 

@@ -87,6 +87,7 @@ def write_elements(calc: Calc, sec: Sec, mode: str, axis: str = "x") -> dict[str
                 [(f"{lam} <= {lr}", "1", "nonslender"), (None, "3", "slender")],
                 f"Class in compression, {el.what}",
                 ref="AISC 360-16 B4.1a",
+                words=True,
             )
         else:
             lp, lr = f"lambda_p{el.code}", f"lambda_r{el.code}"
@@ -97,6 +98,7 @@ def write_elements(calc: Calc, sec: Sec, mode: str, axis: str = "x") -> dict[str
                 [(f"{lam} <= {lp}", "1", "compact"), (f"{lam} <= {lr}", "2", "noncompact"), (None, "3", "slender")],
                 f"Class in flexure, {el.what}",
                 ref="AISC 360-16 B4.1b",
+                words=True,
             )
     return out
 

@@ -232,8 +232,8 @@ def _rect_hss(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: f
     calc.step("b", "lambda_f*t", "Flat width of the compression flange", unit="in")
     calc.step("b_e", "min(1.92*t*sqrt(E/F_y)*(1 - 0.38/lambda_f*sqrt(E/F_y)), b)",
               "Effective width of the compression flange (used if slender)", unit="in", ref="AISC 360-16 Eq. F7-4")
-    calc.step("A_x", "(b - b_e)*t", "Ineffective flange area", unit="in^2")
-    calc.step("y_s", "A_x*(h_b - t)/2/(A - A_x)", "Shift of the neutral axis towards the tension flange", unit="in")
+    calc.step("A_x", "(b - b_e)*t", "Ineffective flange area", unit="in^2", quiet=True)
+    calc.step("y_s", "A_x*(h_b - t)/2/(A - A_x)", "Shift of the neutral axis towards the tension flange", unit="in", quiet=True)
     calc.step("I_e", "I - A_x*((h_b - t)/2)**2 - (A - A_x)*y_s**2", "Moment of inertia of the effective section", unit="in^4")
     calc.step("S_e", "I_e/(h_b/2 + y_s)", "Effective section modulus (tension fibre, least)", unit="in^3", ref="AISC 360-16 F7.2(c)")
     calc.branch(
