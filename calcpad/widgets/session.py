@@ -25,13 +25,14 @@ import pint
 from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import parse_quantity
+from calcpad.runner.job import CONTEXT_PARAMETERS
 from calcpad.runner.template import Parameter, Template, find_template, load_template
 from calcpad.widgets import live
 
 __all__ = ["CONTEXT_NAMES", "TemplateSession", "is_what_if_cell"]
 
 #: Parameters filled in by the runner, not by the engineer (no control, not exported).
-CONTEXT_NAMES = ("member_mark",)
+CONTEXT_NAMES = CONTEXT_PARAMETERS
 
 
 def is_what_if_cell(source: str) -> bool:

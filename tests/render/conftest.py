@@ -13,12 +13,14 @@ EXAMPLE = ROOT / "examples" / "harbor_ridge_condenser_stand.toml"
 @pytest.fixture(scope="session")
 def example_run(tmp_path_factory: pytest.TempPathFactory):
     """(job, outcomes, output folder) of the example job run in-process."""
+    from calcpad.report import write_submittal
     from calcpad.runner.execute import run_job
     from calcpad.runner.job import load_job
-    from calcpad.runner.record import job_record, write_outputs
+    from calcpad.runner.record import job_record
 
     job = load_job(EXAMPLE)
     outcomes = run_job(job, mode="inprocess")
     out = tmp_path_factory.mktemp("example") / "out"
-    write_outputs(out, job, outcomes, job_record(job, outcomes, "inprocess", 0.0))
+    out.mkdir()
+    write_submittal(out, job, outcomes, job_record(job, outcomes, "inprocess", 0.0), pdf=False)
     return job, outcomes, out

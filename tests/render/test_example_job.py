@@ -164,7 +164,7 @@ def test_job_basis_is_validated_and_kept(example_run) -> None:
     text = EXAMPLE.read_text(encoding="utf-8")
     bad = text.replace("basis = [", "basis = [3, ", 1)
     try:
-        parse_job(bad, "bad.toml", EXAMPLE.parent)
+        parse_job(bad, "bad.toml")
     except JobError as exc:
         assert "job.basis" in str(exc) and "expected a text or a list of non-empty texts" in str(exc)
     else:
@@ -177,7 +177,7 @@ def test_text_inputs_stay_text_in_the_record(example_run) -> None:
     job, outcomes, _ = example_run
     rec = job_record(job, outcomes, "inprocess", 0.0)
     stand = next(c for c in rec["calcs"] if c["template"] == "wind_rooftop_stand")
-    assert stand["inputs"]["exposure"] == {"value": "C", "unit": None}  # not 1.0 coulomb
+    assert stand["inputs"]["exposure"] == {"typed": "C", "value": "C", "unit": None}  # not 1.0 coulomb
 
 
 def test_negative_demand_is_checked_by_magnitude_with_the_sign_explained(example_run) -> None:

@@ -39,7 +39,7 @@ def _rows(d: RecordDiff) -> set[tuple[str, str, str]]:
 
 def test_diff_reports_exactly_the_seeded_changes(revisions: dict[str, Any]) -> None:
     d = diff_records(revisions["a"], revisions["b"])
-    sheet = "Leg - bending at base"
+    sheet = "P1 - Leg bending at base"
     assert _rows(d) == {
         ("added", "P3 (leg_bending)", "Leg in bending: cantilever tube, yield-based check"),
         ("removed", "P2 (leg_bending)", "Leg in bending: cantilever tube, yield-based check"),
@@ -91,7 +91,7 @@ def test_diff_tolerance(revisions: dict[str, Any]) -> None:
     calc = next(c for c in new["calcs"] if c["member"] == "P1")
     calc["sheets"][0]["results"]["M"]["value"] *= 1 + 1e-8
     assert not diff_records(revisions["a"], new).changed  # default rtol 1e-6
-    assert [ch.item for ch in diff_records(revisions["a"], new, rtol=1e-9).results] == ["Leg - bending at base › M"]
+    assert [ch.item for ch in diff_records(revisions["a"], new, rtol=1e-9).results] == ["P1 - Leg bending at base › M"]
 
 
 def test_diff_compares_values_across_units(revisions: dict[str, Any]) -> None:

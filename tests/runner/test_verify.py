@@ -168,7 +168,7 @@ def test_verify_lists_an_altered_result(base: dict[str, Any], tmp_path: Path) ->
     assert not report.record_intact and not report.results_reproduced
     M, _, _ = tube_ratio(120.0)  # 3600 lbf*in by statics
     assert [(c.calc, c.item, c.old, c.new) for c in report.diff.results] == [
-        ("P1 (leg_bending)", "Leg - bending at base › M", "3700 lbf*in", f"{M:g} lbf*in")
+        ("P1 (leg_bending)", "P1 - Leg bending at base › M", "3700 lbf*in", f"{M:g} lbf*in")
     ]
 
 
@@ -191,7 +191,7 @@ def _set(path: tuple[Any, ...], value: Any) -> Any:
         (("calcs", "@P1", "title"), "Renamed", ("P1 (leg_bending)", "title", "Renamed", "")),
         (("calcs", "@P2", "checks", 0, "status"), "NG", ("P2 (leg_bending)", "checks[0] › status", "NG", "OK")),
         (("calcs", "@P2", "status"), "NG", ("P2 (leg_bending)", "status", "NG", "OK")),
-        (("calcs", "@P1", "results", "Leg - bending at base", "M", "value"), 3599.0, ("P1 (leg_bending)", "results › Leg - bending at base › M › value", "3599.0", "3600.0")),
+        (("calcs", "@P1", "results", "P1 - Leg bending at base", "M", "value"), 3599.0, ("P1 (leg_bending)", "results › P1 - Leg bending at base › M › value", "3599.0", "3600.0")),
     ],
 )
 def test_verify_names_a_hand_edited_field(base: dict[str, Any], tmp_path: Path, path: tuple[Any, ...], value: Any, expected: tuple[str, str, str, str]) -> None:
