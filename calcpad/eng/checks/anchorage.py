@@ -125,6 +125,9 @@ def add_anchorage_check(
     Returns:
         Keys of the checks added.
     """
+    for field, value in (("anchor", anchor), ("grade", grade), ("condition", condition), ("seismic_tension", seismic_tension)):
+        if not isinstance(value, str):
+            raise CheckInputError(field, value, "a text (see the docstring for the choices)")
     if anchor not in _COVERED:
         raise CheckNotCoveredError("anchor", anchor, f"cast-in anchors only ({', '.join(_COVERED)}); post-installed mechanical "
                                    "anchors need the product's qualification data (ACI 355.2) and adhesive anchors its bond "
