@@ -30,6 +30,7 @@ from calcpad.eng.checks.flexure import add_flexure_check
 from calcpad.eng.checks.frame_member import MemberForces, check_frame_member, frame_member_forces
 from calcpad.eng.checks.member import MemberChecks, check_member
 from calcpad.eng.checks.shear import add_shear_check
+from calcpad.eng.checks.stability import add_second_order
 from calcpad.eng.checks.stress import add_stress_check
 from calcpad.eng.checks.tension import add_tension_check
 from calcpad.eng.checks.torsion import add_torsion_check, add_torsion_interaction_check
@@ -57,6 +58,7 @@ __all__ = [
     "add_fillet_weld_check",
     "add_flexure_check",
     "add_interaction_check",
+    "add_second_order",
     "add_shear_check",
     "add_stitch_weld_check",
     "add_stress_check",
