@@ -15,7 +15,9 @@ import sympy as sp
 
 __all__ = [
     "NG",
+    "NOT_COVERED",
     "OK",
+    "OK_SLENDER",
     "BranchCase",
     "BranchResult",
     "CheckResult",
@@ -29,10 +31,20 @@ __all__ = [
     "StepResult",
     "TableResult",
     "TextResult",
+    "status_ok",
 ]
 
 OK = "OK"
 NG = "NG"
+#: An OK check on a member above a recommended slenderness limit (AISC 360-16 E2, D1 user notes).
+OK_SLENDER = "OK, above recommended slenderness"
+#: An equation used outside its validity: no verdict (counts as not OK).
+NOT_COVERED = "not covered"
+
+
+def status_ok(status: str) -> bool:
+    """True for the statuses that pass (OK, and OK above a recommended slenderness)."""
+    return status in (OK, OK_SLENDER)
 
 
 @dataclass
@@ -148,7 +160,7 @@ class CheckResult:
     @property
     def ok(self) -> bool:
         """True when the check passes."""
-        return self.status == OK
+        return status_ok(self.status)
 
 
 @dataclass

@@ -114,7 +114,12 @@ class Select:
 
 @dataclass
 class Check:
-    """Demand vs capacity. ``required_fs`` turns it into an FS check (OK when FS ≥ required)."""
+    """Demand vs capacity. ``required_fs`` turns it into an FS check (OK when FS ≥ required).
+
+    ``flags`` are ``(name, above, status)``: when the value of ``name`` exceeds ``above`` the
+    check takes that status (``results.OK_SLENDER`` for an OK check above a recommended limit,
+    ``results.NOT_COVERED`` when an equation is used outside its validity, whatever the ratio).
+    """
 
     key: str
     title: str
@@ -125,6 +130,7 @@ class Check:
     show_fs: bool = False
     limit: float = 1.0
     sig: int | None = None
+    flags: tuple[tuple[str, float, str], ...] = ()
 
     @property
     def defines(self) -> str:
@@ -132,7 +138,7 @@ class Check:
 
     @property
     def depends(self) -> tuple[str, ...]:
-        return (self.demand, self.capacity)
+        return (self.demand, self.capacity, *(f[0] for f in self.flags))
 
 
 @dataclass

@@ -4,7 +4,7 @@ Record format ``"calcpad-job-record/1"``::
 
     {"format", "job": {number, title, client, site, engineer, checker, revision, date, codes, units},
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
-     "summary": {"calcs", "checks", "ok", "ng", "errors", "status"},
+     "summary": {"calcs", "checks", "ok", "ng", "errors", "status", "slender"},
      "calcs": [{"number", "location", "template", "template_title", "member", "title",
                 "inputs": {name: {"value", "unit"}}, "input_digest", "status", "error",
                 "results": {sheet title: {name: {"value", "unit"}}},
@@ -32,6 +32,7 @@ from importlib import metadata
 from pathlib import Path
 from typing import Any
 
+from calcpad.core.results import OK_SLENDER, status_ok
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, input_record
 
@@ -92,13 +93,15 @@ def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float)
     calcs = [_calc_record(o) for o in outcomes]
     checks = [ch for c in calcs for ch in c["checks"]]
     errors = sum(1 for c in calcs if c["status"] == "ERROR")
-    ng = sum(1 for ch in checks if ch["status"] != "OK")
+    ng = sum(1 for ch in checks if not status_ok(ch["status"]))  # "OK, above recommended slenderness" passes
     status = "ERROR" if errors else ("NG" if ng else "OK")
+    slender = sum(1 for ch in checks if ch["status"] == OK_SLENDER)  # among the OK ones
     return {
         "format": JOB_RECORD_FORMAT,
         "job": job.info.as_dict(),
         "versions": package_versions(),
-        "summary": {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status},
+        "summary": {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status,
+                    "slender": slender},
         "calcs": calcs,
         "run": {"mode": mode, "seconds": round(seconds, 3), "created": dt.datetime.now(dt.UTC).isoformat(timespec="seconds")},
     }

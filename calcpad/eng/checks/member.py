@@ -138,7 +138,8 @@ def check_member(
         axial_r, axial_c = _link(sh, P, f"P_r{s}"), f"P_c{s}"
     elif p is not None and p < 0:
         t_val = sh[P] * -1 if isinstance(P, str) and P in sh else -parse_quantity(P, "P", expected="lbf")
-        out.keys["tension"] = add_tension_check(sh, sec, T=t_val, A_n=A_n, U=U, material=material, F_y=F_y, F_u=F_u, suffix=suffix)
+        out.keys["tension"] = add_tension_check(sh, sec, T=t_val, A_n=A_n, U=U, L=L, material=material, F_y=F_y, F_u=F_u,
+                                                suffix=suffix)
         axial_r, axial_c = f"T_r{s}", f"T_c{s}"
     lb = L_b if L_b is not None else L
     open_opts: dict[str, Any] = {k: v for k, v in (("stem", stem), ("toe", toe)) if v is not None}
