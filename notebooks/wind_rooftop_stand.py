@@ -46,7 +46,7 @@ from IPython.display import Image, display
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
-from calcpad.eng.checks import check_frame_member
+from calcpad.eng.checks import add_second_order, check_frame_member
 from calcpad.eng.loads.combinations import basic_combinations
 from calcpad.eng.loads.seismic import add_component_seismic
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
@@ -114,6 +114,8 @@ fr.support("D", "fixed")
 fr.node_load("D", "U", Fy=-sh["W_f"])
 fr.node_load("W", "U", Fx=sh["F_hf"], Fy=sh["F_vf"])
 fr.node_load("E", "U", Fx=sh["F_pf"])
+for node in ("B", "C"):  # first-order story stiffness for B2: 1 kip of story shear at the rail
+    fr.node_load("Hs", node, Fx=Q_(0.5, "kip"))
 combos = basic_combinations("ASD", ["D", "W", "E"], S_DS=S_DS)
 for c in combos:
     fr.combination(c.name, c.factors)
@@ -141,9 +143,18 @@ add_result_given(sh, "P_b", Q_(abs(N_gov), "lbf"), f"Axial force in leg {leg_M},
 sh.step("sigma_b", "P_b/A_g + M_b/S_l", "Combined stress at base", unit="ksi", ref="common practice")
 sh.check("Leg yield at base", demand="sigma_b", capacity="F_y", required_fs=FS_req, ref="yield-based, common practice")
 
-sh.heading("Leg member check (AISC 360-16, ASD)")
 leg_shape = RoundTube(sh["D_o"], sh["t"], name=f"leg tube {D_o} x {t_nom} nominal wall")
-check_frame_member(sh, res, ["L1", "L2"], leg_shape, L="H", K=float(K_leg), cases=names, material="A53 Gr B", F_y="F_y", E="E_s")
+P_story = max(sum(res.reaction(n, c)[1].to("lbf").magnitude for n in ("A", "D")) for c in names)
+add_result_given(sh, "P_st", Q_(max(P_story, 0.0), "lbf"), "Largest gravity load on the frame line (any combination)",
+                 "frame analysis, vertical reactions")
+add_result_given(sh, "Delta_Hs", abs(res.displacement("B", "Hs")[0]), "Rail drift under 1 kip story shear", "frame analysis, Hs")
+sh.given("H_s", "1 kip", "Story shear of the stiffness case")
+sh.step("HL_D", "H_s*H/Delta_Hs", "Story stiffness term H L/Δ_H (first-order)", unit="kip", ref="AISC 360-16 Eq. A-8-7")
+add_second_order(sh, leg_shape, P_nt="P_st", L="H", sway="given", HL_Delta="HL_D", P_story="P_st", E="E_s", suffix="st")
+
+sh.heading("Leg member check (AISC 360-16, ASD)")
+check_frame_member(sh, res, ["L1", "L2"], leg_shape, L="H", K=float(K_leg), cases=names, B2="B_2_st", material="A53 Gr B",
+                   F_y="F_y", E="E_s")
 
 sh.heading("Sway of the stand")
 add_result_given(sh, "Delta_s", abs(sway), "Top rail sway under D + 0.6W", "frame analysis, AC5+")

@@ -39,8 +39,8 @@ def add_second_order(
     *,
     P_nt: Any,
     L: Any,
-    M_nt: Any = "0 kip*ft",
-    M_lt: Any = "0 kip*ft",
+    M_nt: Any = None,
+    M_lt: Any = None,
     P_lt: Any = "0 kip",
     sway: str = "cantilever",
     HL_Delta: Any = None,
@@ -54,7 +54,7 @@ def add_second_order(
     material: Any = None,
     E: Any = None,
     suffix: str = "",
-) -> tuple[str, str]:
+) -> tuple[str | None, str | None]:
     """Add the App. 8 amplifiers and the second-order required strengths of a member.
 
     Args:
@@ -62,7 +62,8 @@ def add_second_order(
         section: The member's section (for I); not needed with ``sway="given"`` and no B1 term.
         P_nt, P_lt: Axial compression with no lateral translation / from lateral translation
             (values or sheet names, >= 0).
-        M_nt, M_lt: First-order moments with no lateral translation / from lateral translation.
+        M_nt, M_lt: First-order moments with no lateral translation / from lateral translation
+            (None is 0; with both None only the amplifiers B_1, B_2 are written).
         L: Member (story) height.
         sway: ``"cantilever"`` (fixed-free post, Δ_H = H L³/(3EI)) or ``"given"`` (``HL_Delta``).
         HL_Delta: H L/Δ_H of the story from a first-order analysis (``sway="given"``).
@@ -79,7 +80,8 @@ def add_second_order(
         suffix: Name suffix.
 
     Returns:
-        Sheet names of the second-order axial force and moment (P_r2, M_r2).
+        Sheet names of the second-order axial force and moment (P_r2, M_r2), or (None, None)
+        when no moment was given (the amplifiers are ``B_1``, ``B_2`` plus suffix).
     """
     if sway not in ("cantilever", "given"):
         raise CheckInputError("sway", sway, "'cantilever' (fixed-free post) or 'given' (H L/Δ_H from an analysis)")
@@ -97,9 +99,11 @@ def add_second_order(
     for base, value, text in (("P_nt", P_nt, "Axial compression, no lateral translation"),
                               ("P_lt", P_lt, "Axial compression from lateral translation")):
         calc.given(base, value, text, dim="lbf", allow_zero=True, sign_hint="compression as a positive force")
+    moments = not (M_nt is None and M_lt is None)
     for base, value, text in (("M_nt", M_nt, "First-order moment, no lateral translation"),
                               ("M_lt", M_lt, "First-order moment from lateral translation")):
-        calc.given(base, value, text, dim="lbf*in", allow_zero=True, allow_negative=True)
+        if moments:
+            calc.given(base, "0 kip*ft" if value is None else value, text, dim="lbf*in", allow_zero=True, allow_negative=True)
     calc.given("L_s", L, "Story height", dim="[length]")
     if material is not None:
         add_material(calc, material, E=E)
@@ -159,6 +163,8 @@ def add_second_order(
                 "Multiplier for P-Δ effects", ref=f"{_REF}, Eq. A-8-6")
     calc.step("aP_story", "alpha_s*P_story", "α P_story", unit="kip")
     calc.check("Story stability for B2, α P_story < P_e,story", "aP_story", "P_estory", key="ratio_Pes", ref=f"{_REF}, Eq. A-8-6")
+    if not moments:
+        return None, None
     p_r = calc.step("P_r2", "P_nt + B_2*P_lt", "Required axial strength, second order", unit="kip", ref=f"{_REF}, Eq. A-8-2")
     m_r = calc.step("M_r2", "B_1*M_nt + B_2*M_lt", "Required flexural strength, second order", unit="kip*ft", ref=f"{_REF}, Eq. A-8-1")
     return p_r, m_r
