@@ -14,6 +14,8 @@ import pint
 import sympy as sp
 
 __all__ = [
+    "EXISTING_NG",
+    "EXISTING_OK",
     "NG",
     "NOT_COVERED",
     "OK",
@@ -42,9 +44,15 @@ OK_SLENDER = "OK, above recommended slenderness"
 NOT_COVERED = "not covered"
 
 
+#: Checks of an existing condition before a repair: reported, not governing (the repaired checks govern).
+EXISTING_OK = "OK (existing condition)"
+EXISTING_NG = "NG (existing condition; the repaired checks govern)"
+
+
 def status_ok(status: str) -> bool:
-    """True for the statuses that pass (OK, and OK above a recommended slenderness)."""
-    return status in (OK, OK_SLENDER)
+    """True for the statuses that do not make a calc NG (OK, OK above a recommended slenderness,
+    and the before-repair checks of an existing condition)."""
+    return status in (OK, OK_SLENDER, EXISTING_OK, EXISTING_NG)
 
 
 @dataclass

@@ -30,6 +30,8 @@ from calcpad.core.formula import Formula, formula_from_sympy, parse_condition, p
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr
 from calcpad.core.results import (
+    EXISTING_NG,
+    EXISTING_OK,
     NG,
     NOT_COVERED,
     OK,
@@ -271,6 +273,7 @@ class Sheet:
         key: str | None = None,
         sig: int | None = None,
         flags: Sequence[tuple[str, float, str]] = (),
+        existing: bool = False,
     ) -> str:
         """Add a check of ``demand`` against ``capacity`` (names of givens or steps).
 
@@ -278,7 +281,9 @@ class Sheet:
         factor-of-safety check: FS = capacity / demand, OK when FS ≥ required_fs, and
         ratio = required_fs / FS. ``flags`` are ``(name, above, status)``: the check takes
         ``status`` when the value of ``name`` exceeds ``above`` (``NOT_COVERED`` always, any other
-        status only in place of OK). Returns the check's key.
+        status only in place of OK). ``existing=True`` marks a check of an existing condition
+        before a repair (status ``EXISTING_OK``/``EXISTING_NG``, never making the calc NG).
+        Returns the check's key.
         """
         if required_fs is not None and not required_fs > 0:
             raise SheetError(f"check {title!r}: required_fs {required_fs!r}; expected a number > 0")
@@ -293,7 +298,7 @@ class Sheet:
             if not (len(flag) == 3 and isinstance(flag[0], str) and isinstance(flag[2], str)):
                 raise SheetError(f"check {title!r}: flag {flag!r}; expected (name, above, status)")
         built = tuple((str(n), float(above), str(status)) for n, above, status in flags)
-        self._add(Check(k, title, demand, capacity, ref, required_fs, fs_line, float(limit), sig, built))
+        self._add(Check(k, title, demand, capacity, ref, required_fs, fs_line, float(limit), sig, built, bool(existing)))
         return k
 
     def heading(self, text: str, level: int = 1) -> None:
@@ -528,6 +533,8 @@ class Sheet:
                 status = flagged
                 if flagged == NOT_COVERED:
                     break
+        if step.existing and status != NOT_COVERED:
+            status = EXISTING_NG if status == NG else EXISTING_OK
         self._values[step.key] = Q_(ratio, "")
         self._shown[step.key] = Q_(ratio, "")
         return CheckResult(

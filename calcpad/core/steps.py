@@ -119,6 +119,8 @@ class Check:
     ``flags`` are ``(name, above, status)``: when the value of ``name`` exceeds ``above`` the
     check takes that status (``results.OK_SLENDER`` for an OK check above a recommended limit,
     ``results.NOT_COVERED`` when an equation is used outside its validity, whatever the ratio).
+    ``existing`` marks a check of a condition before a repair: reported with its verdict
+    (``results.EXISTING_OK`` / ``EXISTING_NG``) but not making the calc NG.
     """
 
     key: str
@@ -131,6 +133,7 @@ class Check:
     limit: float = 1.0
     sig: int | None = None
     flags: tuple[tuple[str, float, str], ...] = ()
+    existing: bool = False
 
     @property
     def defines(self) -> str:

@@ -7,7 +7,7 @@ import pytest
 
 from calcpad import Sheet
 from calcpad.core.errors import SheetError
-from calcpad.core.results import NG, NOT_COVERED, OK, OK_SLENDER, status_ok
+from calcpad.core.results import EXISTING_NG, EXISTING_OK, NG, NOT_COVERED, OK, OK_SLENDER, status_ok
 
 
 def _sheet(d="5 kip", slender="150"):
@@ -43,3 +43,14 @@ def test_bad_flag_is_a_sheet_error():
     sh.given("C", "2 kip")
     with pytest.raises(SheetError, match="flag"):
         sh.check("x", "D", "C", flags=[("D", 1)])
+
+
+@pytest.mark.parametrize(("d", "status"), [("5 kip", EXISTING_OK), ("12 kip", EXISTING_NG)])
+def test_existing_condition_keeps_its_verdict_but_passes(d, status):
+    sh = Sheet("before")
+    sh.given("D", d)
+    sh.given("C", "10 kip")
+    sh.check("before repair", "D", "C", key="b", existing=True)
+    res = sh.evaluate()
+    assert res.checks[0].status == status
+    assert res.checks[0].ok and res.ok and status_ok(status)
