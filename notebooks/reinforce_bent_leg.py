@@ -20,7 +20,7 @@
 # jurisdiction govern.*
 
 # %% tags=["parameters"]
-P = "950 lbf"  # lateral service load at the top of the leg (ASD); 0 < P <= 20 kip
+P = "700 lbf"  # lateral service load at the top of the leg (ASD); 0 < P <= 20 kip
 L = "60 in"  # leg length from base to load; 12 in to 20 ft
 leg = "HSS3x3x3/16"  # existing leg, catalog designation: square/rectangular/round HSS or pipe
 leg_grade = "A500 Gr C"  # existing leg steel, materials catalog name (A500: round/shaped picked from the leg)
@@ -86,7 +86,8 @@ before.given("F_y", Q_(leg_mat.Fy, "ksi"), "Yield stress of the leg", source=leg
 before.given("Omega_b", 1.67, "Safety factor for flexure (ASD)", source="AISC 360-16 F1")
 before.step("F_b", "F_y/Omega_b", "Allowable bending stress (first yield)", unit="ksi", ref="AISC 360-16 F1, M = F_y*S")
 before.check("Bending stress, existing leg", demand="sigma_b", capacity="F_b", ref="AISC 360-16 F1 (ASD)", existing=True)
-before.note("Existing condition, for information: this check does not decide the job; the reinforced leg below governs.")
+before.note("Existing condition, for information (load parallel to a face): this check does not decide the job; the "
+            "reinforced leg below governs, for the worst load direction.")
 before
 
 # %% [markdown]
@@ -106,17 +107,23 @@ after.given("L", L, "Leg length, base to load")
 after.given("N", N, "Axial compression in the leg")
 after.given("e_0", e0, "Residual bow, measured after straightening")
 after.step("M", "P*L + N*e_0", "Base moment (lateral load and axial load on the bow)", unit="kip*in", ref="cantilever, statics")
-after.heading("Stress at the critical fibre of each member, checked against its own steel")
+after.heading("Stress at the critical fibre of each member, worst load direction, against its own steel")
+after.assume("The lateral load may act in any direction: the moment vector is taken at 0, 45, 90 and 135 degrees from x "
+             "and the direction giving the largest stress in each member is written (unsymmetric bending, common practice).")
 unsym = "I_xy" in c
 for i, (member, mat) in enumerate([(reinforced.members[0], leg_mat), (reinforced.members[1], add_mat)], start=1):
-    x_p, y_p = reinforced.critical_fibre("x", member=member.label)
+    theta, x_p, y_p, _ = reinforced.worst_direction(member=member.label)
+    after.given(f"theta_{i}", Q_(theta, "degree"), f"Direction of the moment vector from x, worst for {member.label}",
+                source="largest stress of 0/45/90/135 degrees")
     after.given(f"x_p{i}", Q_(x_p, "in"), f"Critical fibre of {member.label}, x from centroid", source="outline point of largest stress")
     after.given(f"y_p{i}", Q_(y_p, "in"), f"Critical fibre of {member.label}, y from centroid", source="outline point of largest stress")
     if unsym:
-        after.step(f"sigma_b{i}", f"abs(M*({c['I_y']}*y_p{i} - {c['I_xy']}*x_p{i})/({c['I_x']}*{c['I_y']} - {c['I_xy']}**2))",
+        after.step(f"sigma_b{i}", f"abs(M*(cos(theta_{i})*({c['I_y']}*y_p{i} - {c['I_xy']}*x_p{i}) + sin(theta_{i})*({c['I_x']}*x_p{i} - "
+                   f"{c['I_xy']}*y_p{i}))/({c['I_x']}*{c['I_y']} - {c['I_xy']}**2))",
                    f"Bending stress in {member.label} (unsymmetric bending)", unit="ksi", ref="common practice")
     else:
-        after.step(f"sigma_b{i}", f"abs(M*y_p{i}/{c['I_x']})", f"Bending stress in {member.label}", unit="ksi", ref="common practice")
+        after.step(f"sigma_b{i}", f"abs(M*(cos(theta_{i})*y_p{i}/{c['I_x']} + sin(theta_{i})*x_p{i}/{c['I_y']}))",
+                   f"Bending stress in {member.label}", unit="ksi", ref="common practice")
     after.given(f"F_y{i}", Q_(mat.Fy, "ksi"), f"Yield stress of {member.label}", source=mat.name)
     if i == 1:
         after.given("Omega_b", 1.67, "Safety factor for flexure (ASD)", source="AISC 360-16 F1")
@@ -124,7 +131,8 @@ for i, (member, mat) in enumerate([(reinforced.members[0], leg_mat), (reinforced
                ref="AISC 360-16 F1, M = F_y*S")
     after.check(f"Bending stress after reinforcement, {member.label}", demand=f"sigma_b{i}", capacity=f"F_b{i}", ref="AISC 360-16 F1 (ASD)")
 after.heading("Intermittent welds, added member to leg")
-after.assume("Two lines of fillet welds join the added member to the leg; shear flow from the x-axis properties.")
+after.assume("Two lines of fillet welds join the added member to the leg; shear flow from the x-axis properties (load "
+             "parallel to the face the member is welded across).")
 after.step("V", "P", "Shear along the leg", unit="lbf", ref="cantilever, statics")
 after.step("Q_a", f"{c['A_2']}*abs({c['y_2']} - {c['y_bar']})", "First moment of the added member", unit="in^3",
            ref="common practice")
