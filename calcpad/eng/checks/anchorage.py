@@ -21,7 +21,9 @@ Limit states (strength design; on an ASD sheet the forces are multiplied by the 
 * with ``seismic=True`` (SDC C to F, components per ASCE 7-16 13.4): 17.10.5.4 (0.75 on the
   concrete-governed tension strengths), shear with Ω_0 (17.10.6.3(c)), tension with Ω_0
   (17.10.5.3(d)) or ductile steel (17.10.5.3(a): stretch length >= 8 d_a and the steel weaker
-  than the concrete).
+  than the concrete). Ω_0 multiplies the whole force given (the standard amplifies the
+  earthquake part only): conservative, so give the earthquake combination's forces. The 20 %
+  exemptions of 17.10.5.1 / 17.10.6.1 are not taken.
 
 Not covered (raise :class:`CheckNotCoveredError`): post-installed mechanical anchors (their
 strengths come from product qualification data, ACI 355.2), adhesive anchors (bond, 17.6.5),
