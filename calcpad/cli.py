@@ -175,7 +175,9 @@ def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, An
             t.add_row(str(o.calc.number), o.calc.member, o.calc.template.name, ch["name"], f"{ch['ratio']:.3f}", ch["status"])
     out.print(t)
     s = record["summary"]
-    out.print(f"{s['calcs']} calcs, {s['checks']} checks: {s['ok']} OK, {s['ng']} NG, {s['errors']} failed — {s['status']}", highlight=False)
+    slender = f" ({s['slender']} above recommended slenderness)" if s.get("slender") else ""
+    out.print(f"{s['calcs']} calcs, {s['checks']} checks: {s['ok']} OK{slender}, {s['ng']} NG, {s['errors']} failed — {s['status']}",
+              highlight=False)
 
 
 def _print_sheet_text(out: Any, sheet: dict[str, Any]) -> None:

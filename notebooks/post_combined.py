@@ -21,18 +21,22 @@ L = "11 ft"  # post height from base plate to load; 3 ft to 30 ft
 K = "2.1"  # effective length factor; 0.5 to 2.5 (2.1 for fixed base, free top)
 plate_B = "10 in"  # base plate width (across the moment); 4 in to 36 in
 plate_N = "10 in"  # base plate length (along the moment); 4 in to 36 in
-plate_t = "3/4 in"  # base plate thickness; 1/4 in to 3 in
+plate_t = "7/8 in"  # base plate thickness; 1/4 in to 3 in
 plate_grade = "A36"  # base plate steel, materials catalog name
 f_c = "3000 psi"  # concrete compressive strength f'c; 2500 psi to 8000 psi
 rod_d = "3/4 in"  # anchor rod diameter (ASTM F1554 Gr 36, two rods on the tension side); 1/2 in to 2 in
-rod_f = "3.75 in"  # plate centre to the anchor rod line; 1 in to 18 in
+rod_f = "3.75 in"  # plate centre to the anchor rod line (four rods, square pattern 2f x 2f); 1 in to 18 in
+anchor_h_ef = "12 in"  # anchor rod embedment h_ef, cast-in with a heavy hex nut; 4 in to 25 in
+pier_edge = "8 in"  # edge distance from the anchor rods to each face of the pier; 2 in to 48 in
+pier_depth = "36 in"  # depth of the concrete pier below the plate; 8 in to 120 in
+anchor_load_factor = "1.6"  # ASD only: combined service loads to strength level for ACI 318 (1.6 common practice); 1.0 to 2.0
 member_mark = ""  # member mark (the runner fills it from the job)
 calc_title = ""  # calc title (the runner fills it from the job)
 
 # %%
 from calcpad import Sheet, calc_heading
 from calcpad.widgets import show, show_summary
-from calcpad.eng.checks import add_base_plate_check, check_member
+from calcpad.eng.checks import add_anchorage_check, add_base_plate_check, add_second_order, check_member
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import get_section
 
@@ -41,18 +45,25 @@ steel = hss_material(grade, shape) if "A500" in grade.upper() else get_material(
 
 sh = Sheet(calc_heading(f"Post {post}: axial and lateral load", calc_title, member_mark), method=method, meta={"member": member_mark})
 sh.assume("The post is a cantilever fixed at its base plate and free at its top, where the axial and lateral loads act.")
-sh.assume("Second-order effects are small or already in the moment (fixed-free post, K from Commentary Table C-A-7.1).")
-sh.assume("Anchorage in the concrete (ACI 318 Chapter 17), welds and shear transfer at the base are checked elsewhere.")
+sh.assume("Effective length method with K from Commentary Table C-A-7.1 (fixed-free post).")
+sh.assume("Anchorage to the concrete pier by ACI 318-19 Chapter 17 for four cast-in headed rods (no earthquake in these "
+          "combinations); welds of the post to the plate are checked elsewhere.")
 sh.heading("Loads and geometry")
 sh.given("P_top", P, "Axial compression at top of post")
 sh.given("H_top", H, "Lateral load at top of post")
 sh.given("L_post", L, "Post height, base to load")
 sh.step("M_base", "H_top*L_post", "Moment at the base", unit="kip*ft", ref="cantilever, statics")
 sh.step("V_base", "H_top", "Shear at the base", unit="kip", ref="cantilever, statics")
-sh.assume(f"Loads combined for {method}; second-order effects neglected or included in the loads.")
-result = check_member(sh, shape, material=steel, L="L_post", K=float(K), P="P_top", M_x="M_base", V="V_base")
-add_base_plate_check(sh, shape, P="P_top", M="M_base", B=plate_B, N=plate_N, t_p=plate_t, f_c=f_c, f=rod_f, d_rod=rod_d,
+sh.assume(f"Loads combined for {method}. Second-order effects by AISC 360-16 Appendix 8: the base moment is a sway "
+          "(lateral translation) moment amplified by B2; the post is the whole sway system (R_M = 0.85).")
+P_r, M_r = add_second_order(sh, shape, material=steel, P_nt="P_top", M_lt="M_base", L="L_post", sway="cantilever")
+result = check_member(sh, shape, material=steel, L="L_post", K=float(K), P=P_r, M_x=M_r, V="V_base")
+add_base_plate_check(sh, shape, P="P_top", M=M_r, B=plate_B, N=plate_N, t_p=plate_t, f_c=f_c, f=rod_f, d_rod=rod_d,
                      material=plate_grade, suffix="plate")
+sh.step("s_rods", "2*f_a_plate", "Anchor rod spacing (square pattern)", unit="in")
+add_anchorage_check(sh, d_a=rod_d, h_ef=anchor_h_ef, f_c="f_c_plate", c_x1=pier_edge, c_x2=pier_edge, c_y1=pier_edge,
+                    c_y2=pier_edge, h_a=pier_depth, N_ua="T_a_plate", V_ua="V_base", n_x=2, n_y=2, s_x="s_rods", s_y="s_rods",
+                    tension_rows=1, load_factor=None if method == "LRFD" else float(anchor_load_factor), suffix="anchor")
 show(sh)
 
 # %%

@@ -14,8 +14,12 @@ import pint
 import sympy as sp
 
 __all__ = [
+    "EXISTING_NG",
+    "EXISTING_OK",
     "NG",
+    "NOT_COVERED",
     "OK",
+    "OK_SLENDER",
     "BranchCase",
     "BranchResult",
     "CheckResult",
@@ -29,10 +33,26 @@ __all__ = [
     "StepResult",
     "TableResult",
     "TextResult",
+    "status_ok",
 ]
 
 OK = "OK"
 NG = "NG"
+#: An OK check on a member above a recommended slenderness limit (AISC 360-16 E2, D1 user notes).
+OK_SLENDER = "OK, above recommended slenderness"
+#: An equation used outside its validity: no verdict (counts as not OK).
+NOT_COVERED = "not covered"
+
+
+#: Checks of an existing condition before a repair: reported, not governing (the repaired checks govern).
+EXISTING_OK = "OK (existing condition)"
+EXISTING_NG = "NG (existing condition; the repaired checks govern)"
+
+
+def status_ok(status: str) -> bool:
+    """True for the statuses that do not make a calc NG (OK, OK above a recommended slenderness,
+    and the before-repair checks of an existing condition)."""
+    return status in (OK, OK_SLENDER, EXISTING_OK, EXISTING_NG)
 
 
 @dataclass
@@ -155,7 +175,7 @@ class CheckResult:
     @property
     def ok(self) -> bool:
         """True when the check passes."""
-        return self.status == OK
+        return status_ok(self.status)
 
 
 @dataclass

@@ -31,7 +31,10 @@ from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_fro
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
 from calcpad.core.results import (
+    EXISTING_NG,
+    EXISTING_OK,
     NG,
+    NOT_COVERED,
     OK,
     BranchCase,
     BranchResult,
@@ -319,12 +322,18 @@ class Sheet:
         limit: float = 1.0,
         key: str | None = None,
         sig: int | None = None,
+        flags: Sequence[tuple[str, float, str]] = (),
+        existing: bool = False,
     ) -> str:
         """Add a check of ``demand`` against ``capacity`` (names of givens or steps).
 
         ratio = demand / capacity, OK when ratio ≤ ``limit``. With ``required_fs`` the check is a
         factor-of-safety check: FS = capacity / demand, OK when FS ≥ required_fs, and
-        ratio = required_fs / FS. Returns the check's key.
+        ratio = required_fs / FS. ``flags`` are ``(name, above, status)``: the check takes
+        ``status`` when the value of ``name`` exceeds ``above`` (``NOT_COVERED`` always, any other
+        status only in place of OK). ``existing=True`` marks a check of an existing condition
+        before a repair (status ``EXISTING_OK``/``EXISTING_NG``, never making the calc NG).
+        Returns the check's key.
         """
         if required_fs is not None and not required_fs > 0:
             raise SheetError(f"check {title!r}: required_fs {required_fs!r}; expected a number > 0")
@@ -335,7 +344,11 @@ class Sheet:
         while k in self._defs:
             k, n = f"{base}_{n}", n + 1
         fs_line = (required_fs is not None) if show_fs is None else show_fs
-        self._add(Check(k, title, demand, capacity, ref, required_fs, fs_line, float(limit), sig))
+        for flag in flags:
+            if not (len(flag) == 3 and isinstance(flag[0], str) and isinstance(flag[2], str)):
+                raise SheetError(f"check {title!r}: flag {flag!r}; expected (name, above, status)")
+        built = tuple((str(n), float(above), str(status)) for n, above, status in flags)
+        self._add(Check(k, title, demand, capacity, ref, required_fs, fs_line, float(limit), sig, built, bool(existing)))
         return k
 
     def heading(self, text: str, level: int = 1) -> None:
@@ -572,6 +585,13 @@ class Sheet:
         if step.required_fs is not None:
             ratio = step.required_fs / fs if dem > 0 else 0.0
         status = OK if ratio <= step.limit else NG
+        for name, above, flagged in step.flags:
+            if float(self._values[name].to("").magnitude) > above and (flagged == NOT_COVERED or status == OK):
+                status = flagged
+                if flagged == NOT_COVERED:
+                    break
+        if step.existing and status != NOT_COVERED:
+            status = EXISTING_NG if status == NG else EXISTING_OK
         self._values[step.key] = Q_(ratio, "")
         self._shown[step.key] = Q_(ratio, "")
         return CheckResult(

@@ -118,7 +118,14 @@ class Select:
 
 @dataclass
 class Check:
-    """Demand vs capacity. ``required_fs`` turns it into an FS check (OK when FS ≥ required)."""
+    """Demand vs capacity. ``required_fs`` turns it into an FS check (OK when FS ≥ required).
+
+    ``flags`` are ``(name, above, status)``: when the value of ``name`` exceeds ``above`` the
+    check takes that status (``results.OK_SLENDER`` for an OK check above a recommended limit,
+    ``results.NOT_COVERED`` when an equation is used outside its validity, whatever the ratio).
+    ``existing`` marks a check of a condition before a repair: reported with its verdict
+    (``results.EXISTING_OK`` / ``EXISTING_NG``) but not making the calc NG.
+    """
 
     key: str
     title: str
@@ -129,6 +136,8 @@ class Check:
     show_fs: bool = False
     limit: float = 1.0
     sig: int | None = None
+    flags: tuple[tuple[str, float, str], ...] = ()
+    existing: bool = False
 
     @property
     def defines(self) -> str:
@@ -136,7 +145,7 @@ class Check:
 
     @property
     def depends(self) -> tuple[str, ...]:
-        return (self.demand, self.capacity)
+        return (self.demand, self.capacity, *(f[0] for f in self.flags))
 
 
 @dataclass

@@ -13,6 +13,7 @@ import html
 from dataclasses import dataclass
 from typing import Any
 
+from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
 from calcpad.report.grouping import CalcGroup, group_calcs, numbers_text
 from calcpad.report.styles import band_css, page_css
@@ -217,7 +218,7 @@ def _all_checks(c: _Context) -> str:
     rows = []
     for g in c.printed:
         for ch in g.records[0]["checks"]:
-            cls = ' class="ng"' if ch["status"] != "OK" else ""
+            cls = ' class="ng"' if not status_ok(ch["status"]) else ""
             rows.append(
                 f"<tr{cls}><td>{_e(', '.join(g.marks))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
                 f"<td class=\"st\">{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"

@@ -29,6 +29,7 @@ from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 from typing import Any
 
+from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 
@@ -52,10 +53,10 @@ class CalcOutcome:
 
     @property
     def status(self) -> str:
-        """"ERROR" when a cell failed, "NG" when a check is NG, "OK" otherwise."""
+        """"ERROR" when a cell failed, "NG" when a check does not pass (NG or not covered), "OK" otherwise."""
         if self.error is not None:
             return "ERROR"
-        if any(c["status"] != "OK" for s in self.sheets for c in s["record"]["checks"]):
+        if any(not status_ok(c["status"]) for s in self.sheets for c in s["record"]["checks"]):
             return "NG"
         return "OK"
 

@@ -11,7 +11,7 @@ Record format ``"calcpad-job-record/2"``::
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
      "templates": [{"name", "file", "sha256"}],      # every template the calcs used
      "data": {"eng/sections/data/pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
-     "summary": {"calcs", "checks", "ok", "ng", "errors", "status"},
+     "summary": {"calcs", "checks", "ok", "ng", "errors", "status", "slender"},
      "calcs": [{"number", "location", "template", "template_title", "template_file",
                 "template_sha256", "member", "title",
                 "inputs": {name: {"typed", "value", "unit"}}, "input_digest", "status", "error",
@@ -54,6 +54,7 @@ from importlib import metadata
 from pathlib import Path
 from typing import Any
 
+from calcpad.core.results import OK_SLENDER, status_ok
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, input_record
 
@@ -175,9 +176,10 @@ def job_summary(calcs: list[dict[str, Any]]) -> dict[str, Any]:
     """The record's ``summary`` as derived from its calc records."""
     checks = [ch for c in calcs for ch in c["checks"]]
     errors = sum(1 for c in calcs if c["status"] == "ERROR")
-    ng = sum(1 for ch in checks if ch["status"] != "OK")
+    ng = sum(1 for ch in checks if not status_ok(ch["status"]))  # "OK, above recommended slenderness" passes
     status = "ERROR" if errors else ("NG" if ng else "OK")
-    return {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status}
+    slender = sum(1 for ch in checks if ch["status"] == OK_SLENDER)  # among the OK ones
+    return {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status, "slender": slender}
 
 
 def template_list(calcs: list[dict[str, Any]]) -> list[dict[str, str]]:

@@ -29,6 +29,7 @@ from pathlib import Path
 from typing import Any
 
 from calcpad.core.errors import CalcpadError
+from calcpad.core.results import status_ok
 from calcpad.runner.diff import Change, RecordDiff, diff_records, diff_table
 from calcpad.runner.record import calc_results_and_checks, job_summary, record_digest, template_list
 
@@ -139,7 +140,7 @@ def _derived_fields(record: dict[str, Any]) -> list[Change]:
         except (KeyError, TypeError):
             out.append(Change(label, f"calcs[{i + 1}].sheets", "malformed", "a list of sheet records"))
             continue
-        status = "ERROR" if c.get("error") is not None else "NG" if any(ch["status"] != "OK" for ch in checks) else "OK"
+        status = "ERROR" if c.get("error") is not None else "NG" if any(not status_ok(ch["status"]) for ch in checks) else "OK"
         from_sheets.append({**c, "results": results, "checks": checks, "status": status})
         for key, derived in (("results", results), ("checks", checks), ("status", status)):
             for path, stored, now in _leaf_diffs(c.get(key), derived, key):

@@ -248,3 +248,21 @@ def test_drawing_has_one_panel_per_section():
     fig = draw_sections([get_section("HSS3x3x1/4"), _builtup(ARRANGEMENTS["tube_plus_angle"])], ["before", "after"])
     assert len(fig.axes) == 2
     assert [a.get_title() for a in fig.axes] == ["before", "after"]
+
+
+def test_worst_direction_of_a_square_tube_is_the_diagonal():
+    """Square HSS alone: the diagonal moment (θ = 45°) stresses the rounded corner most; geometry:
+    max(x + y) on the outline = 2(b/2 - r_out) + r_out·sqrt(2), σ/M = max(x + y)/(sqrt(2)·I)
+    (elastic bending about a principal axis at 45°, I the same about every axis of a square)."""
+    tube = get_section("HSS3x3x3/16")
+    b = BuiltUp("tube")
+    b.add(tube, label="tube")
+    theta, x, y, per_m = b.worst_direction()
+    assert x == pytest.approx(y)  # on the diagonal
+    I = b.moments().central().Ix
+    reach = 2 * (tube.width / 2 - tube.r_out) + tube.r_out * math.sqrt(2)
+    assert theta == 45.0
+    assert per_m == pytest.approx(reach / (math.sqrt(2) * I), rel=2e-3)
+    _, _, _, per_m0 = b.worst_direction(angles=(0.0,))
+    assert per_m0 == pytest.approx((tube.width / 2) / I, rel=1e-9)
+    assert per_m / per_m0 == pytest.approx(1.318, abs=0.01)  # +32 % on the diagonal

@@ -96,3 +96,15 @@ def test_several_members_the_worst_is_written():
     assert abs(sh["M_fr"].to("kip*in").magnitude) == pytest.approx(H_KIP * L_IN, rel=1e-9)
     assert out.governing == "flexure x"
     assert any("Member AB" in getattr(s, "text", "") for s in sh.steps)
+
+
+def test_sway_amplifier_multiplies_p_and_m_of_every_case():
+    """AISC 360-16 Eqs. A-8-1, A-8-2 with all forces treated as lateral-translation effects:
+    M_r = B2·H·L, P_r = B2·P (statics of the cantilever)."""
+    sh = Sheet("post", method="ASD")
+    sh.given("B2", 1.25)
+    check_frame_member(sh, _post(), "AB", HSS, L="120 in", K=2.1, cases=["D+W"], B2="B2", F_y="50 ksi")
+    assert abs(sh["M_fr2"].to("kip*in").magnitude) == pytest.approx(1.25 * H_KIP * L_IN, rel=1e-9)
+    assert sh["P_fr2"].to("kip").magnitude == pytest.approx(1.25 * D_KIP, rel=1e-9)
+    with pytest.raises(CalcpadError, match="B2"):
+        check_frame_member(Sheet("x"), _post(), "AB", HSS, L="120 in", B2=0.9, F_y="50 ksi")

@@ -17,12 +17,14 @@ from calcpad import Sheet
 from calcpad.core.errors import CalcpadError
 from calcpad.eng.checks import (
     CheckWarning,
+    add_anchorage_check,
     add_base_plate_check,
     add_block_shear_check,
     add_bolt_line_check,
     add_compression_check,
     add_fillet_weld_check,
     add_flexure_check,
+    add_second_order,
     add_torsion_check,
     add_weld_group_check,
     check_member,
@@ -63,6 +65,12 @@ CASES = {
     "angle principal": (lambda **k: add_flexure_check(Sheet("f"), L3, **k), {"M": "1 kip*ft", "axis": "w", "L_b": "4 ft", "F_y": "36 ksi"}),
     "block shear": (lambda **k: add_block_shear_check(Sheet("f"), **k), {"R": "20 kip", "A_gv": "2.25 in^2", "A_nt": "0.94 in^2",
                                                                           "F_y": "36 ksi", "F_u": "58 ksi", "U_bs": 1.0}),
+    "anchorage": (lambda **k: add_anchorage_check(Sheet("f", method="LRFD"), **k),
+                  {"d_a": "3/4 in", "h_ef": "12 in", "f_c": "3000 psi", "c_x1": "6 in", "c_x2": "6 in", "c_y1": "6 in", "c_y2": "6 in",
+                   "h_a": "30 in", "N_ua": "8 kip", "V_ua": "2 kip", "n_x": 2, "n_y": 2, "s_x": "7.5 in", "s_y": "7.5 in",
+                   "tension_rows": 1, "anchor": "cast-in headed", "grade": "F1554 Gr 36", "condition": "B"}),
+    "second order": (lambda **k: add_second_order(Sheet("f"), HSS, **k), {"P_nt": "5 kip", "M_lt": "3 kip*ft", "L": "10 ft",
+                                                                           "sway": "cantilever", "K1": 1.0, "stiffness": "nominal"}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 

@@ -75,3 +75,19 @@ def test_every_family_with_every_force_on_one_sheet(designation, extra, suffix):
     ratios = {c.key: c.ratio for c in sh.evaluate().checks}
     assert set(out.keys.values()) <= set(ratios)
     assert out.governing_ratio == pytest.approx(max(ratios[k] for k in out.keys.values()))
+
+
+def test_named_axial_force_at_zero_keeps_compression_and_interaction_live():
+    """A sheet built with P = 0 (a named value) still carries compression and H1 so sh.set can raise
+    P; at P = 0, H1-1b gives M_r/M_c (AISC 360-16 Eq. H1-1b)."""
+    sh = Sheet("post", method="ASD")
+    sh.given("P_top", "0 kip")
+    out = check_member(sh, get_section("HSS4x4x1/4"), F_y="50 ksi", L="11 ft", K=2.1, P="P_top", M_x="5 kip*ft", V="0.45 kip")
+    assert {"compression", "interaction"} <= set(out.keys)
+    checks = {c.key: c for c in sh.summary()}
+    assert checks[out.keys["interaction"]].ratio == pytest.approx(5 / sh["M_c"].to("kip*ft").magnitude, rel=1e-12)
+    sh.set(P_top="6 kip")
+    checks = {c.key: c for c in sh.summary()}
+    pc, mc = sh["P_c"].to("kip").magnitude, sh["M_c"].to("kip*ft").magnitude
+    u = 6 / pc + 8 / 9 * 5 / mc if 6 / pc >= 0.2 else 6 / (2 * pc) + 5 / mc
+    assert checks[out.keys["interaction"]].ratio == pytest.approx(u, rel=1e-12)

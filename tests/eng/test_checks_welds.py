@@ -16,6 +16,8 @@ Sources:
 
 from __future__ import annotations
 
+import math
+
 import pytest
 
 from calcpad import Sheet
@@ -226,3 +228,42 @@ def test_base_thickness_wrong_unit_names_field():
     with pytest.raises(CalcpadError, match=r"^base_t"):
         add_fillet_weld_check(Sheet("u"), R="5 kip", w="0.25 in", L="6 in", t_p="0.25 in", base_t="0.25 kip",
                               base_material="A36")
+
+
+# ----------------------------------------------------------------- stitch welds of a repair (issue 12)
+def _stitch(w="3/16 in", s="12 in", method="ASD", **kw):
+    sh = Sheet("stitch", method=method)
+    add_stitch_weld_check(sh, V="0.95 kip", Q="1.2 in^3", I="6.0 in^4", w=w, L_seg="2 in", s=s, n=2, **kw)
+    return sh, {c.key: c for c in sh.evaluate().checks}
+
+
+def test_stitch_weld_on_a_quarter_inch_angle_edge_is_limited_to_3_16():
+    """AISC 360-16 J2.2b(b): along an edge 1/4 in or thicker, w <= t - 1/16 in (1/4 in leg: 3/16 in)."""
+    _, ok = _stitch("3/16 in", t_e="1/4 in", t_p="3/16 in")
+    _, ng = _stitch("5/16 in", t_e="1/4 in", t_p="3/16 in")
+    assert ok["ratio_wmax"].ok and ok["ratio_wmax"].ratio == pytest.approx(1.0)
+    assert not ng["ratio_wmax"].ok and ng["ratio_wmax"].ratio == pytest.approx((5 / 16) / (3 / 16))
+    assert ok["ratio_wmin"].ratio == pytest.approx(0.125 / 0.1875)  # Table J2.4: t <= 1/4 in -> 1/8 in
+
+
+def test_stitch_base_metal_of_both_members_j4_2():
+    """Per weld line and unit length: 0.60 F_y t / 1.50 (J4-3) and 0.60 F_u t / 2.00 (J4-4), ASD."""
+    base = [{"label": "leg", "t": "0.174 in", "F_y": "50 ksi", "F_u": "62 ksi"},
+            {"label": "angle", "t": "0.25 in", "F_y": "36 ksi", "F_u": "58 ksi"}]
+    _, res = _stitch(base=base)
+    q = 0.95 * 1.2 / 6.0
+    for i, (t, fy, fu) in enumerate([(0.174, 50, 62), (0.25, 36, 58)], start=1):
+        per = min(0.6 * fy * t / 1.5, 0.6 * fu * t / 2.0)
+        assert res[f"ratio_bm{i}"].ratio == pytest.approx(q / (2 * per * 2 / 12), rel=1e-9)
+    weld = 2 * 0.707 * 0.1875 * 0.6 * 70 / 2.0 * 2 / 12  # J2-4, J2-5 with Ω = 2.00
+    assert res["ratio_q"].ratio == pytest.approx(q / weld, rel=1e-9)
+
+
+def test_stitch_pitch_of_a_built_up_compression_member_e6_2():
+    """E6.2(b): pitch <= 0.75 t sqrt(E/F_y) <= 12 in; 1/4 in A36 angle: 5.32 in."""
+    limit = 0.75 * 0.25 * math.sqrt(29000 / 36)
+    _, res = _stitch(s="12 in", compression={"t": "0.25 in", "F_y": "36 ksi"})
+    assert res["ratio_smax"].ratio == pytest.approx(12 / limit, rel=1e-9)
+    assert not res["ratio_smax"].ok
+    _, res = _stitch(s="5 in", compression={"t": "0.25 in", "F_y": "36 ksi"})
+    assert res["ratio_smax"].ok

@@ -241,13 +241,15 @@ class Calc:
         return name
 
     def check(self, title: str, demand: str, capacity: str, *, key: str, ref: str = "", required_fs: float | None = None,
-              show_fs: bool | None = None) -> str:
-        """Add a check of two base names under the ratio name ``key`` (+ tag/suffix); returns the key."""
+              show_fs: bool | None = None, flags: Sequence[tuple[str, float, str]] = ()) -> str:
+        """Add a check of two base names under the ratio name ``key`` (+ tag/suffix); returns the key.
+        ``flags`` are ``(base name, above, status)`` (see :meth:`Sheet.check`)."""
         full = f"{title} [{self.suffix}]" if self.suffix else title
         k = self.name(key)
         if k in self.sh:
             raise CheckInputError("suffix", self.suffix, f"a suffix not yet used on this sheet ({k!r} exists); give each member its own suffix=")
-        return self.sh.check(full, self.name(demand), self.name(capacity), ref=ref, required_fs=required_fs, show_fs=show_fs, key=k)
+        return self.sh.check(full, self.name(demand), self.name(capacity), ref=ref, required_fs=required_fs, show_fs=show_fs, key=k,
+                             flags=[(self.name(n), above, status) for n, above, status in flags])
 
     # ----------------------------------------------------------- φ / Ω
     def available(self, avail: str, nominal: str, kind: str, sub: str, description: str, *, unit: str | None = None) -> str:

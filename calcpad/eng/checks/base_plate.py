@@ -8,11 +8,16 @@ Sections 3.1, 3.3 and 4.3 (from memory).
   Y from moment equilibrium about the anchor rods, anchor tension T = q_max·Y - P; the plate is
   also checked for bending from T on the tension side.
 
+The small/large case is a branch evaluated with the values when the rods are given, so a
+what-if change of P or M that crosses e_crit follows (P = 0 is a pure moment, large case); a
+plate too short for the bearing to balance the moment shows as an NG bearing check.
+
 Plate bending is written with the available yield stress F_ya = φF_y or F_y/Ω, so the Guide's
 constants appear unfolded: 1.5 m·sqrt(f_p/F_y) is m·sqrt(2 f_p/(0.9 F_y)) (LRFD), 2.11 is
 sqrt(4/0.9); in ASD they become 1.83 and 2.58. The check writes the demand as the plate thickness needed and the capacity as the thickness
 provided. Anchor rod steel in tension is checked (J3.6 with F_nt = 0.75 F_u); concrete
-breakout, pullout and side-face blowout (ACI 318 Chapter 17) are not, and the sheet says so.
+breakout, pullout and side-face blowout (ACI 318 Chapter 17) are in
+:mod:`calcpad.eng.checks.anchorage` (give it ``N_ua="T_a"`` of this check).
 """
 
 from __future__ import annotations
@@ -76,7 +81,7 @@ def add_base_plate_check(
     calc = Calc(sh, suffix)
     sh.heading(f"Base plate, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, need_e=False)
-    calc.given("P_r", P, "Required axial compression", dim="lbf",
+    calc.given("P_r", P, "Required axial compression", dim="lbf", allow_zero=True,
                sign_hint="compression is entered as a positive force; uplift on a base plate is not covered here")
     check_length(calc, "B_p", B, "Plate width")
     check_length(calc, "N_p", N, "Plate length (along the moment)")
@@ -92,8 +97,10 @@ def add_base_plate_check(
     calc.available_with("F_ya", "F_y", _PHI_B, _OMEGA_B, "AISC Design Guide 1, 3.1", "p", "Plate yield stress for bending", unit="ksi")
     _footprint(calc, sec)  # after A_1 and f_pa: its formulas name them
     keys: list[str] = []
-    moment = M is not None and float(calc.given("M_r", M, "Required moment", dim="lbf*in", allow_negative=True,
-                                                allow_zero=True).to("kip*in").magnitude) != 0.0
+    moment = False
+    if M is not None:  # a moment named on the sheet stays live (sh.set, what-if), so it takes the moment path even at 0
+        m_r = calc.given("M_r", M, "Required moment", dim="lbf*in", allow_negative=True, allow_zero=True)
+        moment = (isinstance(M, str) and M in sh) or float(m_r.to("kip*in").magnitude) != 0.0
     if not moment:
         calc.step("f_p", "P_r/A_1", "Bearing stress", unit="ksi", ref="AISC Design Guide 1, 3.1")
         keys.append(calc.check("Concrete bearing", "f_p", "f_pa", key="ratio_fp", ref="AISC 360-16 J8"))
@@ -135,38 +142,51 @@ def _footprint(calc: Calc, sec: Any) -> None:
 
 
 def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys: list[str]) -> None:
-    """Uniform bearing over Y; small or large eccentricity (Design Guide 1, 3.3 and 3.4)."""
-    calc.step("e", "abs(M_r)/P_r", "Eccentricity", unit="in", ref="AISC Design Guide 1, 3.3")
+    """Uniform bearing over Y; small or large eccentricity (Design Guide 1, 3.3 and 3.4).
+
+    With the rods given, the case is a branch evaluated with the values (any P >= 0 and M work,
+    also under ``sh.set`` and in a what-if panel). Without them only a small moment can be
+    checked, and the case is fixed when the sheet is built.
+    """
     calc.step("e_crit", "N_p/2 - P_r/(2*q_max)", "Critical eccentricity", unit="in", ref="AISC Design Guide 1, Eq. 3.3.7")
-    large = calc.value("e", "in") > calc.value("e_crit", "in")
-    calc.sh.note(f"{'Large' if large else 'Small'} eccentricity (e {'>' if large else '<='} e_crit) when the sheet was built; "
-                 "the formulas below are for that case. Rebuild the sheet if a what-if change crosses e_crit.")
-    if not large:
+    if f is None or d_rod is None:
+        P = calc.value("P_r", "kip")
+        if P <= 0 or abs(calc.value("M_r", "kip*in")) / P > calc.value("e_crit", "in"):
+            raise CheckInputError("f / d_rod", (f, d_rod), "the anchor rod distance f and rod diameter d_rod: the moment puts the "
+                                  "rods in tension")
+        calc.step("e", "abs(M_r)/P_r", "Eccentricity", unit="in", ref="AISC Design Guide 1, 3.3")
         calc.step("Y", "N_p - 2*e", "Bearing length (small moment)", unit="in", ref="AISC Design Guide 1, Eq. 3.3.4")
         calc.step("q", "P_r/Y", "Bearing force per unit length", unit="kip/in", ref="AISC Design Guide 1, 3.3.1")
         keys.append(calc.check("Concrete bearing (small moment)", "q", "q_max", key="ratio_fp", ref="AISC 360-16 J8"))
         calc.step("f_p", "q/B_p", "Bearing stress", unit="ksi")
         _bearing_side(calc, "t_req", "Plate thickness required (bearing side)", "AISC Design Guide 1, 3.3.2")
-        calc.sh.note("Small eccentricity: the resultant stays within the bearing length; the anchor rods carry no tension.")
+        calc.sh.note("Small eccentricity (e <= e_crit): the anchor rods carry no tension. No anchor rods were given, so a "
+                     "change that makes the moment large needs the rods (f, d_rod) and a rebuilt sheet.")
         return
-    if f is None or d_rod is None:
-        raise CheckInputError("f / d_rod", (f, d_rod), "the anchor rod distance f and rod diameter d_rod: the moment puts the rods in tension")
     calc.given("f_a", f, "Plate centre to the anchor rods (tension side)", dim="[length]")
     calc.step("k_Y", "f_a + N_p/2", "f + N/2", unit="in")
-    calc.step("Y_disc", "k_Y**2 - 2*P_r*(e + f_a)/q_max", "Discriminant (>= 0 for a solution)", unit="in^2",
-              ref="AISC Design Guide 1, Eq. 3.4.4")
-    if calc.value("Y_disc", "in**2") < 0:
-        raise CheckNotCoveredError("N / f", "plate too short", "a plate long enough for bearing to balance the moment "
-                                   "((f + N/2)^2 >= 2P(e + f)/q_max, Design Guide 1 Eq. 3.4.4): enlarge the plate or move the rods")
-    calc.step("Y", "k_Y - sqrt(Y_disc)", "Bearing length (large moment)", unit="in", ref="AISC Design Guide 1, Eq. 3.4.3")
-    calc.step("T_a", "q_max*Y - P_r", "Anchor rod tension (all rods on the tension side)", unit="kip", ref="AISC Design Guide 1, Eq. 3.4.2")
-    calc.step("f_p", "q_max/B_p", "Bearing stress (at the available limit)", unit="ksi")
-    _bearing_side(calc, "t_b", "Plate thickness, bearing side", "AISC Design Guide 1, 3.4")
+    small = "abs(M_r) < P_r*e_crit"  # P = 0 (pure moment) is large; at e = e_crit both cases give Y = P/q_max
+    small_label, large_label = "small moment, e = M/P < e_crit", "large moment, e >= e_crit"
+    calc.step("Y_disc", "k_Y**2 - 2*(abs(M_r) + P_r*f_a)/q_max", "Discriminant, (f + N/2)^2 - 2P(e + f)/q_max (>= 0 when the "
+              "bearing can balance the moment)", unit="in^2", ref="AISC Design Guide 1, Eq. 3.4.4")
+    calc.branch("Y", [(small, "N_p - 2*abs(M_r)/P_r", small_label + ", Eq. 3.3.4"),
+                      (None, "k_Y*(1 - sqrt(max(Y_disc/k_Y**2, 0)))", large_label + ", Eq. 3.4.3")],
+                "Bearing length", unit="in", ref="AISC Design Guide 1, 3.3 and 3.4")
+    calc.branch("q", [(small, "P_r/Y", small_label), (None, "2*(abs(M_r) + P_r*f_a)/k_Y**2", large_label +
+                       ": least bearing force per length that balances the moment about the rods (Y = f + N/2)")],
+                "Bearing force per unit length needed", unit="kip/in", ref="AISC Design Guide 1, 3.3.1 and Eq. 3.4.4")
+    keys.append(calc.check("Concrete bearing", "q", "q_max", key="ratio_fp", ref="AISC 360-16 J8"))
+    calc.branch("T_a", [(small, "0*P_r", small_label + ": no rod tension"), (None, "q_max*Y - P_r", large_label + ", Eq. 3.4.2")],
+                "Anchor rod tension (all rods on the tension side)", unit="kip", ref="AISC Design Guide 1, 3.3 and 3.4")
+    calc.branch("f_p", [(small, "q/B_p", small_label), (None, "q_max/B_p", large_label + ": at the available limit")],
+                "Bearing stress", unit="ksi", ref="AISC Design Guide 1, 3.3 and 3.4")
+    _bearing_side(calc, "t_b", "Plate thickness, bearing side", "AISC Design Guide 1, 3.3.2 and 3.4")
     calc.step("x_t", "f_a - d_c/2 + t_c/2", "Rod line to the middle of the column's tension flange or wall", unit="in",
               ref="AISC Design Guide 1, 3.4")
     if calc.value("x_t", "in") <= 0:
         raise CheckInputError("f", f, "anchor rods outside the column's tension flange or wall (f > d/2 - t/2)")
-    calc.step("t_t", "sqrt(4*T_a*x_t/(B_p*F_ya))", "Plate thickness, tension side", unit="in", ref="AISC Design Guide 1, Eq. 3.4.7")
+    calc.step("t_t", "sqrt(4*T_a*x_t/(B_p*F_ya))", "Plate thickness, tension side (0 without rod tension)", unit="in",
+              ref="AISC Design Guide 1, Eq. 3.4.7")
     calc.step("t_req", "max(t_b, t_t)", "Plate thickness required", unit="in")
     calc.given("n_r", n_rods, "Anchor rods on the tension side", dim="")
     calc.given("d_r", d_rod, "Anchor rod diameter", dim="[length]")

@@ -60,7 +60,8 @@ def write_elastic_buckling(
         _two_axes(calc, sec, L_y, K_y)
     kl_r = calc.value("KL_r")
     if kl_r > 200:
-        warn(calc.sh, f"KL/r = {kl_r:.0f} exceeds 200, the preferred limit of AISC 360-16 E2 (User Note)")
+        warn(calc.sh, f"KL/r = {kl_r:.0f} exceeds 200, the preferred limit of AISC 360-16 E2 (User Note); the check's status "
+             "says so")
     if sec.kind == "i_shape" and r is None:
         calc.step("F_e_fb", "pi**2*E/KL_r**2", "Elastic flexural buckling stress", unit="ksi", ref="AISC 360-16 Eq. E3-4")
         _lz(calc, L_z, K_z)
@@ -186,7 +187,8 @@ def _angle_e5(calc: Calc, sec: Sec, connected_leg: str | None, truss: str) -> No
         calc.step("KL_r", "KL_r0", "Effective slenderness ratio L_c/r", ref=f"AISC 360-16 {clause}(1)")
     kl_r = calc.value("KL_r")
     if kl_r > 200:
-        warn(calc.sh, f"L_c/r = {kl_r:.0f} exceeds 200, the limit for the E5 method (AISC 360-16 E5(4))")
+        raise CheckNotCoveredError("L_c/r", round(kl_r, 1), "an effective slenderness L_c/r <= 200, the limit of the E5 "
+                                   "equations (AISC 360-16 Eqs. E5-2, E5-4); a longer single angle needs Chapter H")
     calc.step("F_e", "pi**2*E/KL_r**2", "Elastic buckling stress", unit="ksi", ref="AISC 360-16 Eq. E3-4")
     calc.sh.note("E5 applies to an angle loaded at its ends through the same one leg, welded or with at least two bolts, "
                  "without transverse load between its ends; the eccentricity is then accounted for by L_c/r.")

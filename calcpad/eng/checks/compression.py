@@ -11,6 +11,7 @@ from __future__ import annotations
 import math
 from typing import Any
 
+from calcpad.core.results import NOT_COVERED, OK_SLENDER
 from calcpad.core.sheet import Sheet
 from calcpad.eng.checks._common import Calc, CheckNotCoveredError, add_material, add_props, check_k, check_length
 from calcpad.eng.checks._section import Sec, resolve_section
@@ -131,7 +132,9 @@ def add_compression_check(
     else:
         calc.step("P_n", "F_cr*A_g", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E3-1")
     calc.available("P_c", "P_n", "compression", "c", "Available compressive strength", unit="kip")
-    return calc.check("Axial compression", "P_r", "P_c", key="ratio_c", ref="AISC 360-16 E1")
+    # E2 user note: KL/r preferably <= 200 (a status, not NG); E5's L_c/r <= 200 is a limit of the equations (not covered)
+    flag = ("KL_r", 200.0, NOT_COVERED if sec.kind == "angle" else OK_SLENDER)
+    return calc.check("Axial compression", "P_r", "P_c", key="ratio_c", ref="AISC 360-16 E1", flags=[flag])
 
 
 def _effective_widths(calc: Calc, elements: list[tuple[str, str, str]], case: str, tag: str = "") -> None:

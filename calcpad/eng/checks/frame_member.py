@@ -74,6 +74,7 @@ def check_frame_member(
     *,
     L: Any,
     cases: list[str] | None = None,
+    B2: Any = None,
     suffix: str = "",
     **options: Any,
 ) -> MemberChecks:
@@ -88,6 +89,10 @@ def check_frame_member(
         section: Shape or property mapping for the checks.
         L: Unbraced length for the checks (the member length or less), a value or a sheet name.
         cases: Cases and combinations to consider (default: all of the result's).
+        B2: Sway amplifier of AISC 360-16 App. 8 (a number or a sheet name, e.g. written by
+            :func:`add_second_order`): every case's P and M are multiplied by it (all of them
+            treated as lateral-translation effects, Eqs. A-8-1, A-8-2: conservative when the
+            no-translation moments are small).
         suffix: Name suffix for the sheet (one per member checked on the same sheet).
         **options: Passed to :func:`check_member` (``material``, ``K``, ``F_y`` ...); values may
             name sheet values.
@@ -109,6 +114,9 @@ def check_frame_member(
         return sh[v] if isinstance(v, str) and v in sh else v
 
     scratch_opts = {k: value(v) for k, v in options.items()}
+    amp = 1.0 if B2 is None else float(value(B2).magnitude if hasattr(value(B2), "magnitude") else B2)
+    if not (np.isfinite(amp) and amp >= 1.0):
+        raise CheckInputError("B2", B2, "a sway amplifier B2 >= 1 (AISC 360-16 Eq. A-8-6)")
     rows, best = [], None
     for m in members:
         for c in names:
@@ -119,7 +127,7 @@ def check_frame_member(
             scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
             with warnings.catch_warnings():  # cautions are raised again when the governing case is written
                 warnings.simplefilter("ignore")
-                out = check_member(scratch, section, L=value(L), P=f.P, M_x=f.M, V=f.V, table=False, **scratch_opts)
+                out = check_member(scratch, section, L=value(L), P=f.P * amp, M_x=f.M * amp, V=f.V, table=False, **scratch_opts)
             rows.append([m, f.case, f.P, f.M, f.V, f"{out.governing_ratio:.3f}", out.governing])
             if best is None or out.governing_ratio > best[0]:
                 best = (out.governing_ratio, m, f)
@@ -136,4 +144,14 @@ def check_frame_member(
     sh.given(f"P_fr{s}", gov.P, f"Axial force in {gov_m} (compression +)", source=src)
     sh.given(f"M_fr{s}", gov.M, f"Largest bending moment in {gov_m} (at x = {gov.x_M:~.4g})", source=src)
     sh.given(f"V_fr{s}", gov.V, f"Largest shear in {gov_m}", source=src)
-    return check_member(sh, section, L=L, P=f"P_fr{s}", M_x=f"M_fr{s}", V=f"V_fr{s}", suffix=suffix, **options)
+    p_name, m_name = f"P_fr{s}", f"M_fr{s}"
+    if B2 is not None:
+        b2 = B2 if isinstance(B2, str) and B2 in sh else f"B_2fr{s}"
+        if b2 != B2:
+            sh.given(b2, amp, "Sway amplifier B2", source="AISC 360-16 Appendix 8")
+        p_name, m_name = f"P_fr2{s}", f"M_fr2{s}"
+        sh.step(p_name, f"{b2}*P_fr{s}", "Axial force, second order (all of it as from lateral translation)",
+                ref="AISC 360-16 Eq. A-8-2")
+        sh.step(m_name, f"{b2}*M_fr{s}", "Bending moment, second order (all of it as from lateral translation)",
+                ref="AISC 360-16 Eq. A-8-1")
+    return check_member(sh, section, L=L, P=p_name, M_x=m_name, V=f"V_fr{s}", suffix=suffix, **options)

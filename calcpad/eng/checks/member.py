@@ -3,7 +3,7 @@
     keys = check_member(sh, get_section("HSS4x4x1/4"), material="A500 Gr C shaped",
                         L="10 ft", P="12 kip", M_x="4 kip*ft", V="1.5 kip")
 
-Writes compression (P > 0) or tension (P < 0), flexure about x and y, shear, the H1-1
+Writes compression (P > 0, or a sheet name whose value is 0) or tension (P < 0), flexure about x and y, shear, the H1-1
 interaction, a selection naming the governing ratio (live under ``sh.set``) and a summary table
 of ratios (a snapshot at build time).
 """
@@ -131,13 +131,15 @@ def check_member(
     p = _num(sh, P, "P", "lbf")
     axial_c = axial_r = None
     s = f"_{suffix}" if suffix else ""
-    if p is not None and p > 0:
+    live_zero = p == 0 and isinstance(P, str) and P in sh  # a named force at 0 stays live (sh.set, what-if): compression path
+    if p is not None and (p > 0 or live_zero):
         out.keys["compression"] = add_compression_check(sh, sec, P=P, L=L, K=K, L_y=L_y, K_y=K_y, L_z=L_z, K_z=K_z, G=G,
                                                         connected_leg=connected_leg, truss=truss, suffix=suffix, **mat)
         axial_r, axial_c = _link(sh, P, f"P_r{s}"), f"P_c{s}"
     elif p is not None and p < 0:
         t_val = sh[P] * -1 if isinstance(P, str) and P in sh else -parse_quantity(P, "P", expected="lbf")
-        out.keys["tension"] = add_tension_check(sh, sec, T=t_val, A_n=A_n, U=U, material=material, F_y=F_y, F_u=F_u, suffix=suffix)
+        out.keys["tension"] = add_tension_check(sh, sec, T=t_val, A_n=A_n, U=U, L=L, material=material, F_y=F_y, F_u=F_u,
+                                                suffix=suffix)
         axial_r, axial_c = f"T_r{s}", f"T_c{s}"
     lb = L_b if L_b is not None else L
     open_opts: dict[str, Any] = {k: v for k, v in (("stem", stem), ("toe", toe)) if v is not None}

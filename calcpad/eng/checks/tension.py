@@ -7,8 +7,9 @@ from __future__ import annotations
 
 from typing import Any
 
+from calcpad.core.results import OK_SLENDER
 from calcpad.core.sheet import Sheet
-from calcpad.eng.checks._common import Calc, CheckInputError, add_material
+from calcpad.eng.checks._common import Calc, CheckInputError, add_material, check_length
 from calcpad.eng.checks._section import resolve_section
 
 __all__ = ["add_tension_check"]
@@ -22,6 +23,7 @@ def add_tension_check(
     A_g: Any = None,
     A_n: Any = None,
     U: Any = 1.0,
+    L: Any = None,
     kind: str | None = None,
     material: Any = None,
     F_y: Any = None,
@@ -37,6 +39,8 @@ def add_tension_check(
         A_g: Gross area (overrides the section's).
         A_n: Net area at the connection (default A_g: no holes), ≤ A_g.
         U: Shear lag factor, 0 < U ≤ 1 (AISC 360-16 Table D3.1).
+        L: Member length (with a section): L/r is written and above 300 (D1 user note) the check's
+            status is "OK, above recommended slenderness" (not for rods and hangers).
         material / F_y / F_u: Material or values.
         suffix: Name suffix.
 
@@ -71,4 +75,12 @@ def add_tension_check(
     calc.available("T_cy", "T_ny", "tension_yield", "ty", "Available strength, yielding", unit="kip")
     calc.available("T_cr", "T_nr", "tension_rupture", "tr", "Available strength, rupture", unit="kip")
     calc.select("T_c", "min", {"T_cy": "yielding (D2-1)", "T_cr": "rupture (D2-2)"}, "Available tensile strength", unit="kip")
-    return calc.check("Axial tension", "T_r", "T_c", key="ratio_t", ref="AISC 360-16 D2")
+    flags = []
+    if L is not None:
+        if sec is None:
+            raise CheckInputError("L", L, "a section with it (L/r needs the least radius of gyration), or no L")
+        check_length(calc, "L", L, "Member length")
+        calc.prop("r", sec.need("r_min", "tension slenderness"), "in", "Least radius of gyration", sec.label)
+        calc.step("Lr_D1", "L/r", "Slenderness ratio L/r (preferably <= 300; not for rods or hangers)", ref="AISC 360-16 D1 User Note")
+        flags.append(("Lr_D1", 300.0, OK_SLENDER))
+    return calc.check("Axial tension", "T_r", "T_c", key="ratio_t", ref="AISC 360-16 D2", flags=flags)

@@ -242,6 +242,10 @@ def add_stitch_weld_check(
     s: Any,
     n: int = 2,
     F_EXX: Any = "70 ksi",
+    t_p: Any = None,
+    t_e: Any = None,
+    base: Any = (),
+    compression: Any = None,
     suffix: str = "",
 ) -> list[str]:
     """Add a stitch-weld check for a reinforcing member welded alongside an existing one.
@@ -250,11 +254,26 @@ def add_stitch_weld_check(
     the combined section, I of the combined section) is carried by ``n`` lines of intermittent
     fillet welds, segments ``L_seg`` long at pitch ``s`` (centre to centre).
 
+    Optional (each adds its checks):
+        t_p: Thinner part joined: minimum fillet size, AISC 360-16 Table J2.4.
+        t_e: Thickness of the material along whose edge the welds run (e.g. the angle's leg):
+            maximum fillet size, J2.2b(b).
+        base: Base metal of each member along the welds, a sequence of mappings
+            ``{"label", "t", "F_y", "F_u"}``: shear yielding (Eq. J4-3) and rupture (Eq. J4-4)
+            of one plane of thickness t per weld line, per unit length of the stitch pattern.
+        compression: For a built-up compression member, ``{"t", "F_y", "E"}`` of the thinner
+            outside component welded along its edges: E6.2 maximum pitch
+            min(0.75 t sqrt(E/F_y), 12 in) (clear spacing taken as the pitch, conservative).
+
     Returns:
-        Keys of the checks added (strength and minimum segment length).
+        Keys of the checks added.
     """
     if not (isinstance(n, int) and not isinstance(n, bool) and n >= 1):
         raise CheckInputError("n", n, "a whole number of weld lines >= 1")
+    if not isinstance(base, (list, tuple)) or not all(isinstance(b, dict) and {"label", "t", "F_y", "F_u"} <= set(b) for b in base):
+        raise CheckInputError("base", base, "a list of {'label', 't', 'F_y', 'F_u'} mappings, one per member along the weld")
+    if compression is not None and not (isinstance(compression, dict) and {"t", "F_y"} <= set(compression)):
+        raise CheckInputError("compression", compression, "None, or {'t', 'F_y'[, 'E']} of the thinner outside component")
     calc = Calc(sh, suffix)
     sh.heading(f"Stitch welds by shear flow{f' [{suffix}]' if suffix else ''}", 2)
     calc.given("V_r", V, "Required shear at the section", dim="lbf", allow_negative=True, allow_zero=True)
@@ -276,5 +295,51 @@ def add_stitch_weld_check(
     keys = [calc.check("Stitch welds: shear flow", "q", "q_c", key="ratio_q", ref="AISC 360-16 J2.4")]
     calc.step("L_segmin", "max(4*w, L_abs)", "Minimum segment length", unit="in", ref="AISC 360-16 J2.2b(e)")
     keys.append(calc.check("Stitch segment length", "L_segmin", "L_seg", key="ratio_Lseg", ref="AISC 360-16 J2.2b(e)"))
-    sh.note("Maximum stitch spacing rules for built-up compression members (AISC 360-16 E6) are checked separately.")
+    if t_p is not None or t_e is not None:
+        _size_rules(calc)
+    if t_p is not None:
+        calc.given("t_p", t_p, "Thinner part joined", dim="[length]")
+        calc.branch("w_min", [("t_p <= 4*w_u", "2*w_u", "t <= 1/4 in: 1/8 in"), ("t_p <= 8*w_u", "3*w_u", "1/4 < t <= 1/2 in: 3/16 in"),
+                              ("t_p <= 12*w_u", "4*w_u", "1/2 < t <= 3/4 in: 1/4 in"), (None, "5*w_u", "t > 3/4 in: 5/16 in")],
+                    "Minimum fillet size", unit="in", ref="AISC 360-16 Table J2.4")
+        keys.append(calc.check("Stitch fillet size at least the minimum", "w_min", "w", key="ratio_wmin", ref="AISC 360-16 Table J2.4"))
+    if t_e is not None:
+        calc.given("t_e", t_e, "Thickness of the edge the welds run along", dim="[length]")
+        calc.branch("w_max", [("t_e < 4*w_u", "t_e", "edge thinner than 1/4 in: w <= t"),
+                              (None, "t_e - w_u", "edge 1/4 in or thicker: w <= t - 1/16 in")],
+                    "Maximum fillet size along an edge", unit="in", ref="AISC 360-16 J2.2b(b)")
+        keys.append(calc.check("Stitch fillet size at most the maximum", "w", "w_max", key="ratio_wmax", ref="AISC 360-16 J2.2b(b)"))
+    for i, b in enumerate(base, start=1):
+        keys += _stitch_base_metal(calc, i, b)
+    if compression is not None:
+        calc.given("t_o", compression["t"], "Thinner outside component of the built-up compression member", dim="[length]")
+        calc.given("F_y_o", compression["F_y"], "Its yield stress", dim="ksi")
+        calc.given("E_o", compression.get("E", "29000 ksi"), "Modulus of elasticity", dim="ksi")
+        calc.given("s_12", "12 in", "Absolute maximum pitch", "AISC 360-16 E6.2(b)", dim="[length]")
+        calc.step("s_max", "min(0.75*t_o*sqrt(E_o/F_y_o), s_12)", "Maximum pitch of intermittent welds along the edges of an outside "
+                  "component", unit="in", ref="AISC 360-16 E6.2(b)")
+        keys.append(calc.check("Stitch pitch, built-up compression member", "s", "s_max", key="ratio_smax",
+                               ref="AISC 360-16 E6.2(b)"))
+    else:
+        sh.note("Maximum stitch spacing rules for built-up compression members (AISC 360-16 E6) do not apply (no axial "
+                "compression given) or are checked separately.")
     return keys
+
+
+def _stitch_base_metal(calc: Calc, i: int, b: dict) -> list[str]:
+    """J4.2 shear yielding and rupture of one member's base metal beside each weld line, per unit length."""
+    label = str(b["label"])
+    calc.given(f"t_bm{i}", b["t"], f"Base metal thickness beside the welds, {label}", dim="[length]")
+    calc.given(f"F_y_bm{i}", b["F_y"], f"Yield stress, {label}", dim="ksi")
+    calc.given(f"F_u_bm{i}", b["F_u"], f"Tensile strength, {label}", dim="ksi")
+    calc.step(f"r_ngv{i}", f"0.60*F_y_bm{i}*t_bm{i}", f"Base metal shear yielding per unit length, {label}", unit="kip/in",
+              ref="AISC 360-16 Eq. J4-3")
+    calc.available_with(f"r_cgv{i}", f"r_ngv{i}", 1.00, 1.50, "AISC 360-16 J4.2(a)", "gv", "Available base metal shear yielding",
+                        unit="kip/in")
+    calc.step(f"r_nnv{i}", f"0.60*F_u_bm{i}*t_bm{i}", f"Base metal shear rupture per unit length, {label}", unit="kip/in",
+              ref="AISC 360-16 Eq. J4-4")
+    calc.available_with(f"r_cnv{i}", f"r_nnv{i}", 0.75, 2.00, "AISC 360-16 J4.2(b)", "nv", "Available base metal shear rupture",
+                        unit="kip/in")
+    calc.step(f"q_bm{i}", f"n_l*min(r_cgv{i}, r_cnv{i})*L_seg/s", f"Available shear flow of the base metal, {label}", unit="kip/in",
+              ref="AISC 360-16 J4.2")
+    return [calc.check(f"Stitch welds: base metal of {label}", "q", f"q_bm{i}", key=f"ratio_bm{i}", ref="AISC 360-16 J4.2")]

@@ -248,6 +248,36 @@ class BuiltUp:
         i = int(np.argmax(np.abs(f)))
         return float(pts[i, 0]), float(pts[i, 1])
 
+    def worst_direction(self, member: str | None = None, angles: tuple[float, ...] = (0.0, 45.0, 90.0, 135.0)
+                        ) -> tuple[float, float, float, float]:
+        """The direction of a moment (angle θ of its vector from x: M_x = M cos θ, M_y = M sin θ)
+        giving the largest stress in the outline (of ``member``), among ``angles``.
+
+        Same unsymmetric-bending formula as :meth:`critical_fibre` with both components:
+        ``sigma/M = (cos θ (I_y y - I_xy x) + sin θ (I_x x - I_xy y))/(I_x I_y - I_xy**2)``.
+        Returns ``(theta_deg, x, y, sigma_per_M)`` (x, y from the centroid in inches, stress per
+        unit moment in 1/in^3).
+        """
+        c = self.moments().central()
+        if member is None:
+            rings = self.rings()
+        else:
+            found = [m for m in self.members if m.label == member]
+            if not found:
+                raise InputError(f"member: {member!r} is not in {self.name!r}; expected one of "
+                                 f"{', '.join(repr(m.label) for m in self.members)}")
+            rings = found[0].rings()
+        pts = np.vstack(rings) - np.array([c.xc, c.yc])
+        det = c.Ix * c.Iy - c.Ixy**2
+        best = (0.0, 0.0, 0.0, -1.0)
+        for th in angles:
+            ct, st = np.cos(np.radians(th)), np.sin(np.radians(th))
+            f = np.abs(ct * (c.Iy * pts[:, 1] - c.Ixy * pts[:, 0]) + st * (c.Ix * pts[:, 0] - c.Ixy * pts[:, 1])) / det
+            i = int(np.argmax(f))
+            if f[i] > best[3] + 1e-12:
+                best = (float(th), float(pts[i, 0]), float(pts[i, 1]), float(f[i]))
+        return best
+
     def table(self) -> pd.DataFrame:
         """Parallel-axis table: each member's A, centroid, own I and transfer terms, with a total row."""
         if not self.members:
