@@ -6,7 +6,7 @@ numbers kept exact (:class:`fractions.Fraction`) until the end. Unit names are l
 by one in the shared registry (``ureg.parse_unit_name``); pint's string expression evaluator
 never sees the user's text. The work is bounded by rule, not by a timeout: at most
 :data:`MAX_LENGTH` characters, scientific exponents of at most :data:`MAX_EXPONENT`, unit
-powers whole numbers from 1 to :data:`MAX_POWER`, no nesting beyond one pair of parentheses.
+powers whole numbers from 1 to :data:`MAX_POWER` (or halves, for ACI 318's ``psi^0.5``), no nesting beyond one pair of parentheses.
 
 Accepted forms (see :data:`ACCEPTED_FORMS`)::
 
@@ -423,11 +423,23 @@ class _Reader:
                 self.take()
                 sign = -1
             p = self.peek()
-            if p is None or not p.whole or not 1 <= int(p.text) <= MAX_POWER or (self.at("/", 1) or self.at("^", 1)):
-                raise _RefusedError(f"the power of {tok.text} must be a whole number from 1 to {MAX_POWER}", "write e.g. in^4 or in**4")
+            power = _unit_power(p.text) if p is not None and p.kind == "num" else None
+            if power is None or self.at("/", 1) or self.at("^", 1):
+                raise _RefusedError(f"the power of {tok.text} must be a whole number from 1 to {MAX_POWER} (or a half, psi^0.5)", "write e.g. in^4 or in**4")
             self.take()
-            u = u ** (sign * int(p.text))
+            u = u ** (sign * power)
         return u
+
+
+def _unit_power(text: str) -> int | float | None:
+    """A unit power as written: a whole number 1 to :data:`MAX_POWER`, or a half (0.5 to 5.5, as in
+    ACI 318's lbf/(psi^0.5 in^1.5)); None for anything else."""
+    if text.isdigit():
+        return int(text) if 1 <= int(text) <= MAX_POWER else None
+    whole, dot, frac = text.partition(".")
+    if dot and frac == "5" and (whole == "" or whole.isdigit()) and int(whole or 0) < MAX_POWER:
+        return int(whole or 0) + 0.5
+    return None
 
 
 # --------------------------------------------------------------------------- public

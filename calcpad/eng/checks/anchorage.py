@@ -283,7 +283,7 @@ def _givens(calc: Calc, d_a: Any, h_ef: Any, f_c: Any, h_a: Any, c_x1: Any, c_x2
     threads = next((t for k, t in UNC_THREADS_PER_INCH.items() if abs(k - d_in) < 1e-3), None)
     if threads is None:
         raise CheckInputError("d_a", d_a, "a UNC anchor rod size: " + ", ".join(f"{k:g}" for k in UNC_THREADS_PER_INCH) + " in")
-    calc.given("n_thr", f"{threads:g} 1/in", "Threads per inch (UNC)", "ASME B1.1 (from memory)")
+    calc.given("n_thr", f"{threads:g} in^-1", "Threads per inch (UNC)", "ASME B1.1 (from memory)")
     f_ya, f_uta = ANCHOR_GRADES[grade]
     calc.given("f_ya", f"{f_ya:g} ksi", "Anchor yield strength", f"ASTM {grade}", dim="ksi")
     calc.given("f_uta", f"{f_uta:g} ksi", "Anchor tensile strength", f"ASTM {grade}", dim="ksi")
