@@ -47,8 +47,8 @@ else:
     tube = get_section(leg)
     if not isinstance(tube, RoundTube):
         raise CheckInputError("leg", leg, "a pipe or round HSS designation, or 'custom' with D_o and t")
-    sh.given("D_o", f"{tube.width:.4g} in", "Outside diameter", source=tube.name)
-    sh.given("t_nom", f"{tube.t_nominal:.4g} in", "Nominal wall thickness", source=tube.name)
+    sh.given("D_o", f"{tube.width:.3f} in", "Outside diameter", source=tube.name)  # table precision
+    sh.given("t_nom", f"{tube.t_nominal:.3f} in", "Nominal wall thickness", source=tube.name)
     sh.step("t", "0.93*t_nom", "Design wall thickness (ERW pipe / HSS)", unit="in", ref="AISC 360-16 B4.2")
 sh.step("D_i", "D_o - 2*t", "Inside diameter")
 sh.step("A", "pi/4*(D_o**2 - D_i**2)", "Area", unit="in^2")

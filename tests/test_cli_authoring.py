@@ -1,15 +1,21 @@
 """CLI what-ifs on a job (--set MARK.NAME=...), hand-calc printing, and authoring commands
 (calcpad lab, calcpad template new/store).
 
-Hand check of the leg (common practice): σ = P·L·(D_o/2)/I, I = π/64·(D_o⁴ − D_i⁴); for member
-L1 of the example job (L = 30 in, 1.900 × 0.145 in tube) with P = 140 lbf:
-I = 0.30989 in⁴, σ = 140·30·0.95/0.30989 = 12,875 psi → "12.88 ksi".
+Hand check of the leg (plain floats, never through calcpad): Pipe 1-1/2 Std, D_o = 1.900 in,
+t_nom = 0.145 in (ASME B36.10M, NPS 1-1/2 Std wall); design wall t = 0.93·t_nom (AISC 360-16
+B4.2); D_i = D_o − 2t, A = π/4·(D_o² − D_i²), I = π/64·(D_o⁴ − D_i⁴) = 0.2929 in⁴; M_1 = P·L;
+σ = N/A + B2·M_1·(D_o/2)/I (common practice). B2 of the fixed-free leg by AISC 360-16
+Appendix 8: B2 = 1/(1 − α·P_story/P_e,story) (Eq. A-8-6), α = 1.6 for ASD, P_e,story = R_M·H·L/Δ_H
+(Eq. A-8-7) with R_M = 0.85 (Eq. A-8-8, the leg is the whole sway system) and Δ_H = H·L³/(3EI)
+(cantilever, elastic beam theory), E = 29,000 ksi. For member L1 of the example job (L = 30 in,
+N = 115 lbf) with P = 140 lbf: P_e,story = 24.07 kip, B2 = 1.0077, σ = 0.154 + 13.73 = 13.88 ksi.
 """
 
 from __future__ import annotations
 
 import json
 import math
+import re
 import subprocess
 import sys
 from pathlib import Path
@@ -26,9 +32,14 @@ def test_job_set_runs_only_the_changed_calc_and_prints_its_hand_calc(capsys: pyt
     rc = main(["run", str(EXAMPLE), "--set", "L1.P=140 lbf"])
     out = capsys.readouterr().out
     assert rc == 0
-    D_i = 1.9 - 2 * 0.145
-    sigma = 140 * 30 * 0.95 / (math.pi / 64 * (1.9**4 - D_i**4))
-    assert f"{sigma / 1000:.2f} ksi" in out  # 12.88 ksi by hand
+    D_o, t, L, P, N, E = 1.9, 0.93 * 0.145, 30.0, 140.0, 115.0, 29_000_000.0  # in, lbf, psi
+    D_i = D_o - 2 * t
+    area = math.pi / 4 * (D_o**2 - D_i**2)
+    inertia = math.pi / 64 * (D_o**4 - D_i**4)
+    p_e_story = 0.85 * 3 * E * inertia / L**2  # R_M·H·L/Δ_H with Δ_H = H·L³/(3EI)
+    b2 = 1 / (1 - 1.6 * N / p_e_story)
+    sigma = N / area + b2 * P * L * (D_o / 2) / inertia
+    assert f"{sigma / 1000:.2f} ksi" in out  # 13.88 ksi by hand
     assert "P = 140 lbf" in out and "1 calcs" in out
     assert "L3" not in out  # only the changed calc
     assert not (tmp_path / "build").exists()  # a what-if writes nothing without --out
@@ -63,9 +74,14 @@ def test_job_set_bad_input_exits_2_with_a_message(item: str, expected: str, caps
 def test_template_set_prints_the_hand_calc_not_bare_values(capsys: pytest.CaptureFixture[str]) -> None:
     assert main(["run", "leg_bending", "--set", "P=140 lbf", "--set", "L=30 in"]) == 0
     out = capsys.readouterr().out
-    assert "Base moment: M = P·L = 140 lbf × 30 in" in out
+    assert "Base moment, first order: M_1 = P·L = 140 lbf × 30 in" in out
+    D_i = 1.9 - 2 * 0.93 * 0.145  # design wall, AISC 360-16 B4.2 (module docstring)
+    sigma = 140 * 30 * 0.95 / (math.pi / 64 * (1.9**4 - D_i**4))  # N = 0 by default, so B2 = 1
+    assert f"{sigma / 1000:.2f} ksi" in out  # 13.62 ksi by hand
     assert "FS = " in out and "OK" in out
-    assert "  D_i = 1.61 in" not in out  # no bare "name = value" lines
+    d_i_lines = [line for line in out.splitlines() if "D_i = " in line and "Inside diameter" in line]
+    assert d_i_lines and all("D_o - (2·t)" in line and f"{D_i:.3f} in" in line for line in d_i_lines)
+    assert not re.search(r"^\s*D_i = [0-9.]+ in\s*$", out, re.M)  # no bare "name = value" lines
 
 
 # ----------------------------------------------------------------------------- authoring

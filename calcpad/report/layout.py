@@ -185,8 +185,18 @@ def _criteria(c: _Context) -> str:
         if typical
         else ""
     )
+    basis = "".join(f"<li>{_e(b)}</li>" for b in info.basis)
+    assumed: dict[str, list[str]] = {}  # each assumption once, with the members whose sheets state it
+    for g in c.groups:
+        for s in g.first.sheets:
+            for text in s["record"].get("assumptions", []):
+                marks = assumed.setdefault(text, [])
+                marks.extend(m for m in g.marks if m not in marks)
+    assumptions = "".join(f"<li>{_e(t)} <i>({_e(', '.join(m))})</i></li>" for t, m in assumed.items())
     return (
         _h2(c, "criteria", "Design criteria")
+        + (f'<h3>Design basis</h3><ul class="basis">{basis}</ul>' if basis else "")
+        + (f'<h3>Model assumptions (stated on each calc)</h3><ul class="basis">{assumptions}</ul>' if assumptions else "")
         + f'<table class="facts"><tr><th>Codes and editions</th><td>{_e("; ".join(info.codes) or "(none given)")}</td></tr>'
         + f"<tr><th>Design method</th><td>{_e(', '.join(methods) or '(as stated on each sheet)')}</td></tr>"
         + f"<tr><th>Display units</th><td>{_e(info.units)}</td></tr></table>"

@@ -147,7 +147,7 @@ def test_assumptions_reach_the_result_model_and_the_print(example_run) -> None:
     repair = [r for c, r, _ in _sheets(outcomes) if c.template.name == "reinforce_bent_leg"]
     assert any("straightened" in a for r in repair for a in r["assumptions"])
     stand = next(r for c, r, _ in _sheets(outcomes) if c.template.name == "wind_rooftop_stand")
-    assert any("rigid block" in a for a in stand["assumptions"])
+    assert any("stiff block pinned to rails" in a for a in stand["assumptions"])  # the job's stated attachment
 
 
 def test_job_basis_is_validated_and_kept(example_run) -> None:

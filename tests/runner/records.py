@@ -33,7 +33,9 @@ template = "leg_bending"
 member = "{mark}"
 [calcs.inputs]
 P = "{P}"   # lateral load
+N = "0 lbf"
 L = "30 in"
+leg = "custom"
 D_o = "1.900 in"
 t = "0.145 in"
 F_y = "35 ksi"
@@ -55,6 +57,7 @@ unit_L = "48 in"
 unit_W = "36 in"
 unit_H = "42 in"
 H_leg = "24 in"
+attachment = "pinned to rails"
 D_o = "2.375 in"
 t_nom = "0.154 in"
 F_y = "35 ksi"
@@ -93,10 +96,12 @@ def copy_template(name: str, folder: Path) -> Path:
 
 
 def tube_ratio(P_lbf: float, L_in: float = 30.0, D_o: float = 1.900, t: float = 0.145, F_y_ksi: float = 35.0, FS: float = 1.67) -> tuple[float, float, float]:
-    """Hand calc of a cantilever tube (common practice): M = P L, sigma = M c / I, ratio = FS sigma / F_y.
+    """Hand calc of a cantilever tube (common practice): M = P L, sigma = M c / I, ratio = FS sigma / F_y,
+    with the design wall 0.93 t of AISC 360-16 B4.2 and no axial load (so B2 = 1, App. 8).
 
     Returns (M in lbf*in, sigma in ksi, ratio).
     """
+    t = 0.93 * t
     I = math.pi / 64 * (D_o**4 - (D_o - 2 * t) ** 4)
     M = P_lbf * L_in
     sigma = M * (D_o / 2) / I / 1000.0

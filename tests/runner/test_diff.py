@@ -44,10 +44,11 @@ def test_diff_reports_exactly_the_seeded_changes(revisions: dict[str, Any]) -> N
         ("added", "P3 (leg_bending)", "Leg in bending: cantilever tube, yield-based check"),
         ("removed", "P2 (leg_bending)", "Leg in bending: cantilever tube, yield-based check"),
         ("inputs", "P1 (leg_bending)", "P"),
-        ("flips", "P1 (leg_bending)", f"{sheet} › Bending stress vs yield"),
-        ("results", "P1 (leg_bending)", f"{sheet} › M"),
+        ("flips", "P1 (leg_bending)", f"{sheet} › Combined stress vs yield"),
+        ("results", "P1 (leg_bending)", f"{sheet} › M_1"),
+        ("results", "P1 (leg_bending)", f"{sheet} › M_r2"),  # M_r2 = B2 M_1 (AISC 360-16 App. 8), B2 = 1 without axial load
         ("results", "P1 (leg_bending)", f"{sheet} › sigma_b"),
-        ("results", "P1 (leg_bending)", f"{sheet} › Bending stress vs yield (ratio)"),
+        ("results", "P1 (leg_bending)", f"{sheet} › Combined stress vs yield (ratio)"),
     }
     assert (d.old_label, d.new_label) == ("A", "B") and d.changed and not d.versions
     (inp,) = d.inputs
@@ -59,9 +60,9 @@ def test_diff_reports_exactly_the_seeded_changes(revisions: dict[str, Any]) -> N
     (flip,) = d.flips
     assert flip.old.startswith("OK (") and flip.new.startswith("NG (")
     moved = {ch.item.split(" › ")[-1]: ch for ch in d.results}
-    assert (moved["M"].old, moved["M"].new) == (f"{M0:g} lbf*in", f"{M1:g} lbf*in")
-    assert moved["M"].note == "+150.000%"
-    ratio = moved["Bending stress vs yield (ratio)"]
+    assert (moved["M_1"].old, moved["M_1"].new) == (f"{M0:g} lbf*in", f"{M1:g} lbf*in")
+    assert moved["M_1"].note == "+150.000%"
+    ratio = moved["Combined stress vs yield (ratio)"]
     assert (float(ratio.old), float(ratio.new)) == pytest.approx((r0, r1), rel=1e-5)
     assert (float(moved["sigma_b"].old.split()[0]), float(moved["sigma_b"].new.split()[0])) == pytest.approx((s0, s1), rel=1e-5)
 
@@ -89,16 +90,16 @@ def test_diff_tolerance(revisions: dict[str, Any]) -> None:
 
     new = copy.deepcopy(revisions["a"])
     calc = next(c for c in new["calcs"] if c["member"] == "P1")
-    calc["sheets"][0]["results"]["M"]["value"] *= 1 + 1e-8
+    calc["sheets"][0]["results"]["M_1"]["value"] *= 1 + 1e-8
     assert not diff_records(revisions["a"], new).changed  # default rtol 1e-6
-    assert [ch.item for ch in diff_records(revisions["a"], new, rtol=1e-9).results] == ["P1 - Leg bending at base › M"]
+    assert [ch.item for ch in diff_records(revisions["a"], new, rtol=1e-9).results] == ["P1 - Leg bending at base › M_1"]
 
 
 def test_diff_compares_values_across_units(revisions: dict[str, Any]) -> None:
     import copy
 
     new = copy.deepcopy(revisions["a"])
-    res = next(c for c in new["calcs"] if c["member"] == "P1")["sheets"][0]["results"]["M"]
+    res = next(c for c in new["calcs"] if c["member"] == "P1")["sheets"][0]["results"]["M_1"]
     res.update(value=res["value"] / 12.0, unit="lbf*ft")  # the same moment in another unit
     assert not diff_records(revisions["a"], new).results
 
@@ -113,7 +114,7 @@ def test_cli_diff_exit_codes_and_html(revisions: dict[str, Any], tmp_path: Path,
     out = capsys.readouterr().out
     assert "calc added" in out and "status flipped" in out and "P3 (leg_bending)" in out
     text = html.read_text()
-    assert "Changes since revision A" in text and text.count("<tr>") == 1 + 7
+    assert "Changes since revision A" in text and text.count("<tr>") == 1 + 8
     assert main(["diff", str(a), str(b), "--html", str(html)]) == 1  # our own file may be replaced
     foreign = tmp_path / "notes.html"
     foreign.write_text("my notes")

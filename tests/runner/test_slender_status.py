@@ -18,9 +18,9 @@ def test_slender_post_passes_with_its_own_status(tmp_path: Path, monkeypatch: py
                                                  capsys: pytest.CaptureFixture[str]) -> None:
     monkeypatch.chdir(ROOT)
     out = tmp_path / "o"
-    code = main(["run", "post_combined", "--set", "L=30 ft", "--set", "H=0.05 kip", "--set", "P=0.3 kip", "--out", str(out)])
+    code = main(["run", "post_combined", "--set", "L=30 ft", "--set", "H=0.05 kip", "--set", "P=0.3 kip", "--out", str(out), "--no-pdf"])
     assert code == 0
-    record = json.loads((out / "record.json").read_text())
+    record = json.loads((out / "rev-draft" / "record.json").read_text())
     statuses = [ch["status"] for c in record["calcs"] for ch in c["checks"]]
     assert statuses.count(OK_SLENDER) == 1
     assert record["summary"]["slender"] == 1 and record["summary"]["ng"] == 0 and record["summary"]["status"] == "OK"

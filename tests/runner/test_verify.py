@@ -162,13 +162,13 @@ def test_verify_lists_an_altered_input(base: dict[str, Any], tmp_path: Path, cap
 
 def test_verify_lists_an_altered_result(base: dict[str, Any], tmp_path: Path) -> None:
     def edit(r: dict[str, Any]) -> None:
-        _leg(r, "P1")["sheets"][0]["results"]["M"]["value"] = 3700.0
+        _leg(r, "P1")["sheets"][0]["results"]["M_1"]["value"] = 3700.0
 
     report = verify_record(read_record(_edited(base, tmp_path, edit) / "record.json"))
     assert not report.record_intact and not report.results_reproduced
     M, _, _ = tube_ratio(120.0)  # 3600 lbf*in by statics
     assert [(c.calc, c.item, c.old, c.new) for c in report.diff.results] == [
-        ("P1 (leg_bending)", "P1 - Leg bending at base › M", "3700 lbf*in", f"{M:g} lbf*in")
+        ("P1 (leg_bending)", "P1 - Leg bending at base › M_1", "3700 lbf*in", f"{M:g} lbf*in")
     ]
 
 
@@ -191,7 +191,7 @@ def _set(path: tuple[Any, ...], value: Any) -> Any:
         (("calcs", "@P1", "title"), "Renamed", ("P1 (leg_bending)", "title", "Renamed", "")),
         (("calcs", "@P2", "checks", 0, "status"), "NG", ("P2 (leg_bending)", "checks[0] › status", "NG", "OK")),
         (("calcs", "@P2", "status"), "NG", ("P2 (leg_bending)", "status", "NG", "OK")),
-        (("calcs", "@P1", "results", "P1 - Leg bending at base", "M", "value"), 3599.0, ("P1 (leg_bending)", "results › P1 - Leg bending at base › M › value", "3599.0", "3600.0")),
+        (("calcs", "@P1", "results", "P1 - Leg bending at base", "M_1", "value"), 3599.0, ("P1 (leg_bending)", "results › P1 - Leg bending at base › M_1 › value", "3599.0", "3600.0")),
     ],
 )
 def test_verify_names_a_hand_edited_field(base: dict[str, Any], tmp_path: Path, path: tuple[Any, ...], value: Any, expected: tuple[str, str, str, str]) -> None:
@@ -221,10 +221,10 @@ def test_verify_finds_an_edited_template(tmp_path: Path, monkeypatch: pytest.Mon
     assert [(c.item, c.old, c.new) for c in d.templates] == [("leg_bending", before[:12], after[:12])]
     M, sigma, ratio = tube_ratio(120.0)
     moved = {c.item.split(" › ")[-1]: (c.old, c.new) for c in d.results}
-    assert moved["M"] == (f"{M:g} lbf*in", f"{M / 2:g} lbf*in")  # the moment halves
+    assert moved["M_1"] == (f"{M:g} lbf*in", f"{M / 2:g} lbf*in")  # the moment halves
     assert moved["sigma_b"][1] == f"{sigma / 2:.6g} ksi"
-    assert set(moved) == {"M", "sigma_b", "Bending stress vs yield (ratio)"}
-    old_ratio, new_ratio = moved["Bending stress vs yield (ratio)"]
+    assert set(moved) == {"M_1", "M_r2", "sigma_b", "Combined stress vs yield (ratio)"}  # M_r2 = B2 M_1, B2 = 1 without axial load
+    old_ratio, new_ratio = moved["Combined stress vs yield (ratio)"]
     assert (float(old_ratio), float(new_ratio)) == pytest.approx((ratio, ratio / 2), rel=1e-5)
     assert main(["verify", str(out)]) == 1
 
@@ -259,7 +259,7 @@ def test_verify_finds_a_removed_data_file(base: dict[str, Any], tmp_path: Path, 
 
 def test_verify_rtol(base: dict[str, Any], tmp_path: Path) -> None:
     def edit(r: dict[str, Any]) -> None:
-        res = _leg(r, "P1")["sheets"][0]["results"]["M"]
+        res = _leg(r, "P1")["sheets"][0]["results"]["M_1"]
         res["value"] *= 1 + 1e-7
 
     path = _edited(base, tmp_path, edit) / "record.json"

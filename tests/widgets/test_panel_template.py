@@ -2,8 +2,11 @@
 sensitivity, "what would it take" and export.
 
 Hand arithmetic for the leg template (plain floats, never through calcpad; common practice):
-M = P·L, I = π/64·(D_o⁴ − D_i⁴), D_i = D_o − 2t, σ = M·(D_o/2)/I, ratio = FS_req·σ/F_y, so
-the ratio is proportional to P, to L and to 1/F_y (elasticities 1, 1, −1 exactly).
+default leg Pipe 1-1/2 Std, D_o = 1.900 in, t_nom = 0.145 in (ASME B36.10M, NPS 1-1/2 Std wall);
+design wall t = 0.93·t_nom (AISC 360-16 B4.2), D_i = D_o − 2t, I = π/64·(D_o⁴ − D_i⁴),
+M_1 = P·L. With no axial load (N = 0, the template's default) B2 = 1 (AISC 360-16 Appendix 8,
+Eq. A-8-6 with P_story = 0), so M_r2 = M_1, σ = M_1·(D_o/2)/I and ratio = FS_req·σ/F_y: the
+ratio is proportional to P, to L and to 1/F_y (elasticities 1, 1, −1 exactly).
 """
 
 from __future__ import annotations
@@ -20,14 +23,23 @@ from calcpad.widgets import live, what_if
 from calcpad.widgets.session import TemplateSession
 
 POST_BIND = {"P": "P_top", "H": "H_top", "L": "L_post"}
-LEG_BIND = ["P", "L", "D_o", "t", "F_y"]
+LEG_BIND = ["P", "L", "F_y"]  # D_o, t and the leg re-run the template (the section feeds B2)
+
+
+LEG_CHECK = "chk_combined_stress_vs_yield"  # the leg's own check (the B1/B2 stability checks come first)
 
 
 def leg_ratio(P: float = 85.0, L: float = 42.0, D_o: float = 1.9, t: float = 0.145, F_y: float = 35_000.0, FS: float = 1.67) -> float:
-    """Hand ratio of the leg template in lbf, in, psi (common practice, see module docstring)."""
-    D_i = D_o - 2 * t
+    """Hand ratio of the leg template with N = 0, in lbf, in, psi; t is the nominal wall
+    (see module docstring: design wall 0.93 t per AISC 360-16 B4.2, B2 = 1)."""
+    D_i = D_o - 2 * (0.93 * t)
     inertia = math.pi / 64 * (D_o**4 - D_i**4)
     return FS * (P * L * D_o / 2 / inertia) / F_y
+
+
+def leg_check(panel):
+    """The panel's "Combined stress vs yield" result."""
+    return next(c for c in panel.sheet.summary() if c.key == LEG_CHECK)
 
 
 def leg_panel(**kw):
@@ -54,12 +66,12 @@ def gov_ratio(panel) -> float:
 def test_values_outside_the_stated_range_are_refused_inline(name: str, value: str, stated: str) -> None:
     panel = leg_panel()
     assert panel.set("P", "120 lbf") is True
-    good = panel.sheet.summary()[0].ratio
+    good = leg_check(panel).ratio
     assert panel.set(name, value) is False
     assert stated in panel.last_error and repr(value) in panel.last_error
     assert "Not applied" in panel._message.value and html.escape(stated) in panel._message.value
-    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(P=120.0), rel=1e-9)
-    assert panel.sheet.summary()[0].ratio == good
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(P=120.0), rel=1e-9)
+    assert leg_check(panel).ratio == good
     assert "OK" in panel._out.outputs[0]["data"]["text/plain"]  # the last good result stays shown
 
 
@@ -74,18 +86,39 @@ def test_the_panel_refuses_what_the_cli_refuses() -> None:
         single_template_job("leg_bending", ['t=1.2 in'])
 
 
-def test_a_step_that_cannot_be_evaluated_rolls_back() -> None:
+def test_a_post_without_lateral_load_is_now_accepted() -> None:
+    # post_combined states H as "0 to 20 kip" and its base plate and anchorage now take a post
+    # with no tension side, so H = 0 (once refused when the plate step could not be evaluated)
+    # is in range and evaluates: the panel applies it.
+    panel = post_panel()
+    assert panel.set("H", "0 kip") is True and panel.last_error is None
+    assert panel.controls["H"].value == 0.0
+    assert panel.ratios["Flexure about x"] == 0.0  # no lateral load, no base moment
+
+
+@pytest.mark.parametrize(
+    ("name", "value", "default", "expected"),
+    [
+        # bound (sheet.set): P is inside "0 to 200 kip", but the base plate's tension-side
+        # thickness step cannot be evaluated (square root of a negative value)
+        ("P", "200 kip", 6.5, "t_t_plate"),
+        # re-run: rod_f is inside "1 in to 18 in", but the plate check refuses rods inside the wall
+        ("rod_f", "1 in", 3.75, "f > d/2 - t/2"),
+    ],
+)
+def test_a_value_the_sheet_cannot_take_rolls_back(name: str, value: str, default: float, expected: str) -> None:
     panel = post_panel()
     before = dict(panel.ratios)
-    assert panel.set("H", "0 kip") is False  # in range, but the base plate's tension side has no force
-    assert panel.last_error and "plate" in panel.last_error
+    assert panel.set(name, value) is False
+    assert panel.last_error and expected in panel.last_error
+    assert "Not applied" in panel._message.value
     assert panel.ratios == before
-    assert panel.controls["H"].value == pytest.approx(0.45)
+    assert panel.controls[name].value == pytest.approx(default)
 
 
 def test_labels_are_words_with_the_symbol_and_units_follow_the_parameter() -> None:
     panel = leg_panel()
-    assert panel._inputs["P"].label == "Lateral load at the top of the leg (P)"
+    assert panel._inputs["P"].label == "Lateral load at the top of the leg, service level (ASD) (P)"
     assert panel._inputs["D_o"].label.endswith("(D_o)")
     slider = panel.controls["L"]
     assert type(slider).__name__ == "FloatSlider" and slider.value == 42.0  # in, the default's unit
@@ -118,13 +151,16 @@ def test_only_the_changed_rows_are_reprinted() -> None:
     assert panel.set("P", "300 lbf") is True
     steps = [getattr(s, "name", getattr(s, "key", None)) for s in panel.sheet.evaluate().steps]
     changed = {i for i, o in enumerate(panel._sheet_outs) if o.outputs is not outs_before[i]}
-    # P feeds M = P*L, sigma_b = M*c/I and the check; nothing else (title is position 0)
-    assert {steps[i - 1] for i in changed} == {"P", "M", "sigma_b", "chk_bending_stress_vs_yield"}
-    assert view.printed - printed == 4
-    sheet_row = panel._sheet_outs[1 + steps.index("chk_bending_stress_vs_yield")].outputs[0]["data"]["text/plain"]
+    # P feeds M_1 = P*L, M_r2 = B1*M_nt + B2*M_1, sigma_b = N_ax/A + M_r2*c/I and the check;
+    # nothing else (B1, B2 and their stability checks depend on N_ax, L and the section, not on P;
+    # the title is position 0)
+    assert {steps[i - 1] for i in changed} == {"P", "M_1", "M_r2", "sigma_b", LEG_CHECK}
+    assert view.printed - printed == 5
+    sheet_row = panel._sheet_outs[1 + steps.index(LEG_CHECK)].outputs[0]["data"]["text/plain"]
     summary = panel._out.outputs[0]["data"]["text/plain"]
-    assert "NG" in sheet_row and "NG" in summary  # one check, one status (ratio 1.84 > 1 by hand)
-    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(P=300.0), rel=1e-9) and leg_ratio(P=300.0) > 1.0
+    summary_row = next(line for line in summary.splitlines() if "Combined stress vs yield" in line)
+    assert "NG" in sheet_row and "NG" in summary_row  # one check, one status (ratio 1.95 > 1 by hand)
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(P=300.0), rel=1e-9) and leg_ratio(P=300.0) > 1.0
 
 
 def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> None:
@@ -140,16 +176,18 @@ def test_live_display_is_updated_in_place(monkeypatch: pytest.MonkeyPatch) -> No
     monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append((display_id, b.get("text/plain", ""))))
     live.show(sh)
     live.show_summary(sh)
-    headings = [s for s in sh.steps if type(s).__name__ == "Heading"]
+    headings = [s for s in sh.steps if type(s).__name__ == "Heading" and s.level == 1]  # a level-2 heading stays in its section
     assert len(shown) == 1 + len(headings) + 1  # title, one per section, the summary
+    section_ids = {text.split("\n")[1]: did for did, text in shown[1:-1]}  # section heading line -> display id
     panel = what_if(sh, template="leg_bending", bind=LEG_BIND)
     updated.clear()
     assert panel.set("P", "300 lbf") is True
     sections = [u for u in updated if "summary" not in u[0]]
-    # P is in "Inputs"; M, sigma_b and the check in "Demand and check"; "Section properties" is untouched
-    assert len(sections) == 2
+    # P is in "Inputs"; M_1 and M_r2 in "Demand" (with its second-order subsection); sigma_b and
+    # the check in "Check"; "Section properties" is untouched
+    assert {did for did, _ in sections} == {section_ids["INPUTS"], section_ids["DEMAND"], section_ids["CHECK"]}
     assert any("P = 300 lbf" in text for _, text in sections)
-    assert not any("Moment of inertia" in text for _, text in sections)
+    assert not any("SECTION PROPERTIES" in text or "Outside diameter" in text for _, text in sections)
     summary = [u[1] for u in updated if "summary" in u[0]]
     assert summary and "NG" in summary[-1]
 
@@ -191,13 +229,14 @@ def test_sensitivity_matches_finite_differences_of_scalar_evaluation() -> None:
 
 def test_sensitivity_of_the_leg_is_one_for_p_and_l_and_minus_one_for_fy() -> None:
     panel = leg_panel()
-    row = panel.sensitivity().table["chk_bending_stress_vs_yield"]
+    row = panel.sensitivity().table[LEG_CHECK]
     assert row["P"] == pytest.approx(1.0, rel=1e-7)
     assert row["L"] == pytest.approx(1.0, rel=1e-7)
     assert row["F_y"] == pytest.approx(-1.0, rel=1e-7)
     gov = panel.sensitivity().of_governing()
     mags = [abs(v) for _, v in gov]
-    assert mags == sorted(mags, reverse=True) and {n for n, _ in gov} == {"P", "L", "D_o", "t", "F_y"}
+    # the bound inputs only: D_o, t and the leg re-run the template and are not differentiated
+    assert mags == sorted(mags, reverse=True) and {n for n, _ in gov} == set(LEG_BIND)
 
 
 def test_sensitivity_figure_is_a_sorted_bar_chart() -> None:
@@ -206,8 +245,17 @@ def test_sensitivity_figure_is_a_sorted_bar_chart() -> None:
     panel = leg_panel()
     fig = sensitivity_figure(panel.sensitivity())
     bars = fig.axes[0].patches
+    widths = [b.get_width() for b in bars]
+    # one bar per bound input (P, L, F_y); elasticities 1, 1, -1 in closed form
+    assert sorted(widths) == pytest.approx([-1.0, 1.0, 1.0], rel=1e-7)
+    # sorting by magnitude, where the magnitudes differ: the post's governing check
+    post = post_panel()
+    sens = post.sensitivity()
+    bars = sensitivity_figure(sens).axes[0].patches
     widths = [abs(b.get_width()) for b in bars]
-    assert widths == sorted(widths) and len(bars) >= 4
+    row = sens.table[sens.governing]
+    assert widths == sorted(widths) and len(bars) == sum(v is not None for v in row.values()) >= 3
+    assert len({round(w, 6) for w in widths}) > 1
 
 
 # ----------------------------------------------------------------------------- what would it take
@@ -311,8 +359,10 @@ units = "US"
 def test_exported_block_runs_through_the_job_loader_and_reproduces_the_ratios(which: str) -> None:
     if which == "leg":
         panel = leg_panel()
-        panel.set("P", "140 lbf")
-        panel.set("t", "0.2 in")
+        assert panel.set("P", "140 lbf") is True
+        assert panel.set("leg", "custom") is True  # D_o and t apply to a custom leg only
+        assert panel.set("t", "0.2 in") is True
+        assert leg_check(panel).ratio == pytest.approx(leg_ratio(P=140.0, t=0.2), rel=1e-9)
     else:
         panel = post_panel()
         panel.set("post", "HSS5x5x3/16")
@@ -343,4 +393,4 @@ def test_an_unbound_parameter_re_runs_the_template() -> None:
     runs = panel.session.runs
     assert panel.set("FS_req", 2.0) is True  # FS_req goes into the check, not into a given
     assert panel.session.runs == runs + 1
-    assert panel.sheet.summary()[0].ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
