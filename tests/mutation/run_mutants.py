@@ -124,7 +124,7 @@ def imports_copy(work: Path) -> bool:
     return out.startswith(str(work.resolve()))
 
 
-def run(mutants: list[Mutant], root: Path, timeout: float, log=print) -> list[Outcome]:
+def run(mutants: list[Mutant], root: Path, timeout: float, log=lambda s: print(s, flush=True)) -> list[Outcome]:
     """Apply each mutant in a temporary copy of ``root`` and run its tests."""
     outcomes: list[Outcome] = []
     live = []
