@@ -5,7 +5,9 @@ file under the project root, an exact original text (which must occur exactly on
 file), its replacement and the test paths to run. The tool copies ``calcpad/``, ``tests/`` and
 ``pyproject.toml`` into a temporary folder, checks that the listed tests pass there unmutated
 (baseline), then for each mutant writes the mutated file, runs
-``python -m pytest -x -q -p no:cacheprovider TESTS`` in the copy and restores the file.
+pytest (``-x -q``) on the mutant's tests in the copy and restores the file. To save the import
+time of numpy/sympy/pint/pandas on every run, each run is a ``fork`` of the tool after it has
+imported them once (calcpad itself is imported fresh by each child, from the copy).
 
 A mutant is *killed* when pytest exits non-zero, *survived* when it exits 0, and *stale* when
 its original text is missing or ambiguous (a code change elsewhere; fix the list, never count
@@ -93,10 +95,81 @@ def stale_reason(m: Mutant, root: Path) -> str:
     return ""
 
 
+#: Third-party modules the tests import, loaded once in the parent so each forked run skips them
+#: (calcpad itself is never imported by the parent: each child imports the mutated copy).
+WARM_MODULES = ("numpy", "scipy", "scipy.optimize", "sympy", "pint", "pandas", "matplotlib", "pytest", "hypothesis")
+
+
+def warm_up() -> None:
+    """Import the heavy third-party modules once (a missing optional one is skipped)."""
+    import importlib
+
+    os.environ.setdefault("MPLBACKEND", "Agg")
+    for name in WARM_MODULES:
+        try:
+            importlib.import_module(name)
+        except ImportError:
+            pass
+
+
+def _pytest_args(tests: tuple[str, ...]) -> list[str]:
+    return ["-x", "-q", "-p", "no:cacheprovider", "-p", "no:randomly", *tests]
+
+
 def run_pytest(work: Path, tests: tuple[str, ...], timeout: float) -> tuple[int | None, str]:
-    """Run pytest on ``tests`` inside the copy; (exit code or None on timeout, last output line)."""
+    """Run pytest on ``tests`` inside the copy; (exit code or None on timeout, last output line).
+
+    With ``os.fork`` (POSIX) the run is a forked child of this warmed-up process, which imports
+    calcpad from the copy and calls ``pytest.main``; otherwise a fresh ``python -m pytest``.
+    """
+    if not hasattr(os, "fork"):
+        return _run_subprocess(work, tests, timeout)
+    with tempfile.TemporaryFile() as out:
+        pid = os.fork()
+        if pid == 0:  # child: never returns
+            code = 3
+            try:
+                os.dup2(out.fileno(), 1)
+                os.dup2(out.fileno(), 2)
+                os.chdir(work)
+                sys.path.insert(0, str(work))
+                os.environ["PYTHONDONTWRITEBYTECODE"] = "1"
+                sys.dont_write_bytecode = True
+                import calcpad
+
+                if not Path(calcpad.__file__).resolve().is_relative_to(work.resolve()):
+                    print(f"calcpad imported from {calcpad.__file__}, not the copy", flush=True)
+                    os._exit(4)
+                import pytest
+
+                code = int(pytest.main(_pytest_args(tests)))
+                sys.stdout.flush()
+                sys.stderr.flush()
+            finally:
+                os._exit(code)
+        deadline = time.monotonic() + timeout
+        status = None
+        while status is None:
+            done, st = os.waitpid(pid, os.WNOHANG)
+            if done:
+                status = st
+            elif time.monotonic() > deadline:
+                os.kill(pid, signal.SIGKILL)
+                os.waitpid(pid, 0)
+                return None, f"timeout after {timeout:g} s"
+            else:
+                time.sleep(0.05)
+        out.seek(0)
+        lines = [ln for ln in out.read().decode("utf-8", "replace").splitlines() if ln.strip()]
+    code = os.waitstatus_to_exitcode(status)
+    if code == 4:
+        raise RuntimeError(lines[-1] if lines else "the copy's calcpad was not imported")
+    return code, lines[-1] if lines else ""
+
+
+def _run_subprocess(work: Path, tests: tuple[str, ...], timeout: float) -> tuple[int | None, str]:
     env = dict(os.environ, PYTHONPATH=str(work), PYTHONDONTWRITEBYTECODE="1", MPLBACKEND="Agg")
-    cmd = [sys.executable, "-m", "pytest", "-x", "-q", "-p", "no:cacheprovider", "-p", "no:randomly", *tests]
+    cmd = [sys.executable, "-m", "pytest", *_pytest_args(tests)]
     try:
         proc = subprocess.run(cmd, cwd=work, env=env, capture_output=True, text=True, timeout=timeout, check=False)
     except subprocess.TimeoutExpired:
@@ -199,6 +272,7 @@ def main(argv: list[str] | None = None) -> int:
         mutants = [m for m in mutants if m.id in args.only]
     # a plain kill stops the running pytest and removes the temporary copy (as Ctrl-C does)
     signal.signal(signal.SIGTERM, lambda *_: (_ for _ in ()).throw(KeyboardInterrupt()))
+    warm_up()
     try:
         outcomes = run(mutants, ROOT, args.timeout)
     except RuntimeError as exc:
