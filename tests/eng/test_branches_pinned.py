@@ -1051,3 +1051,41 @@ def test_f9_tee_flange_local_buckling_value(bf_2tf):
         want = 0.7 * E * p["Sx_top"] / bf_2tf**2  # Eq. F9-15
     sh = _flex(m(**p), kind="tee", stem="tension")
     assert v(sh, "M_n_FLB") == pytest.approx(want, rel=REL)
+
+
+@pytest.mark.parametrize(("structure", "kd"), [("building", 0.85), ("arched roof", 0.85), ("chimney square", 0.90),
+                                               ("chimney hexagonal", 0.95), ("chimney round", 0.95), ("solid sign", 0.85),
+                                               ("open sign", 0.85), ("open frame", 0.85), ("rooftop equipment", 0.85),
+                                               ("trussed tower triangular/square/rectangular", 0.85), ("trussed tower other", 0.95)])
+def test_kd_table_26_6_1(structure, kd):
+    from calcpad.eng.loads import wind
+
+    # ASCE 7-16 Table 26.6-1, wind directionality factor K_d (from memory)
+    assert wind.k_d(structure) == kd
+
+
+@pytest.mark.parametrize(("L_in", "status"), [(1.0, "OK"), (0.95, "NG")])
+def test_j2_2b_minimum_length_4w(L_in, status):
+    # AISC 360-16 J2.2b(c): effective length of a fillet weld at least 4 times its size (1/4 in weld: 1 in)
+    sh = Sheet("w")
+    add_fillet_weld_check(sh, R="1 kip", w="1/4 in", L=f"{L_in} in", t_p="0.5 in")
+    chk = {c.key: c for c in sh.evaluate().checks}["ratio_Lw"]
+    assert v(sh, "L_min", "in") == pytest.approx(4 * 0.25, rel=REL)
+    assert chk.status == status and chk.ratio == pytest.approx(1.0 / L_in, rel=REL)
+
+
+@pytest.mark.parametrize("column", ["HSS6x6x1/4", "HSS6.625x0.280"])
+def test_dg1_hss_column_cantilevers(column):
+    # AISC Design Guide 1 (2nd ed.) 4.3: m = (N - 0.95 d)/2, n = (B - 0.95 b)/2 for rectangular HSS; 0.8 D both ways for
+    # round HSS; t = l sqrt(2 P/(phi Fy B N))
+    shape = get_section(column)
+    p = props(shape)
+    B = N = 14.0
+    P, fy = 100.0, 36.0
+    if "H" in p:
+        m_, n_ = (N - 0.95 * p["H"]) / 2, (B - 0.95 * p["B"]) / 2
+    else:
+        m_ = n_ = (N - 0.8 * p["D"]) / 2
+    sh = Sheet("bp", method="LRFD")
+    add_base_plate_check(sh, shape, P="100 kip", B="14 in", N="14 in", t_p="1 in", f_c="4 ksi", F_y="36 ksi")
+    assert v(sh, "t_req", "in") == pytest.approx(max(m_, n_) * math.sqrt(2 * P / (0.9 * fy * B * N)), rel=REL)
