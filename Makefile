@@ -4,7 +4,7 @@ VENV := .venv
 PY := $(VENV)/bin/python
 STAMP := $(VENV)/.installed
 
-.PHONY: demo test lint nbval benchmark clean venv
+.PHONY: demo test lint nbval benchmark mutation clean venv
 
 venv: $(STAMP)
 
@@ -28,6 +28,10 @@ test: $(STAMP)
 
 lint: $(STAMP)
 	$(VENV)/bin/ruff check calcpad tests benchmarks
+
+# Plants each bug of tests/mutation/mutants.toml in a temporary copy and runs its tests (slow; not part of test/CI).
+mutation: $(STAMP)
+	$(PY) tests/mutation/run_mutants.py
 
 benchmark: $(STAMP)
 	$(PY) benchmarks/bench_core.py

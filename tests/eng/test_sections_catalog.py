@@ -16,9 +16,11 @@ in the last printed digit plus a named allowance for what the table does differe
   WT_ORACLE_NR points), which agrees to about 0.003 % here, so the tolerance has ample margin.
 
 Sources (beside each table below) are recalled from memory; a value we were unsure of was left out.
-Z of HSS6.625x0.280 and HSS4.500x0.237 were recalled as 10.7 and 4.00 in^3 but disagree with the
-closed form (10.55, 4.04) by more than the table rounding, so they are treated as misremembered
-and not used.
+Z of HSS6.625x0.280 and HSS4.500x0.237 were recalled as 10.7 and 4.00 in^3; they disagree with the
+closed form (10.55, 4.04) by more than the table rounding. They are kept below as strict xfails
+(test_round_hss_z_recalled) and checked against the AISC Shapes Database copy shipped in aiscpy
+(Z = 10.5 and 4.03 in^3, which agree with ours; test_round_hss_z_shapes_database), so the recalled
+values look misremembered. More database comparisons: tests/eng/test_sections_database.py.
 """
 
 from __future__ import annotations
@@ -315,3 +317,22 @@ def test_unknown_wt_suggests(text, suggestion):
         get_section(text)
     msg = str(info.value)
     assert "section designation" in msg and repr(text) in msg and "did you mean" in msg and suggestion in msg
+
+
+# AISC Manual 15th ed. Table 1-13, recalled from memory: Z of two round HSS (design wall).
+RECALLED_ROUND_Z = {"HSS6.625x0.280": "10.7", "HSS4.500x0.237": "4.00"}
+
+
+@pytest.mark.xfail(strict=True, reason="recalled Z disagrees with ours by more than the table rounding: HSS6.625x0.280 "
+                   "10.55 vs 10.7 (-1.4 %), HSS4.500x0.237 4.04 vs 4.00 (+1.0 %); the Shapes Database gives 10.5 and 4.03, "
+                   "so the recalled values are the likely error (see test_round_hss_z_shapes_database)")
+@pytest.mark.parametrize("name", sorted(RECALLED_ROUND_Z))
+def test_round_hss_z_recalled(name):
+    _check(get_section(name).props.Zx, RECALLED_ROUND_Z[name], DESIGN_WALL_ALLOWANCE)
+
+
+@pytest.mark.parametrize(("name", "printed"), [("HSS6.625x0.280", "10.5"), ("HSS4.500x0.237", "4.03")])
+def test_round_hss_z_shapes_database(name, printed):
+    # AISC Shapes Database as shipped in aiscpy 0.1.5 (shapes_AISC.db; edition not confirmed, v14 column layout),
+    # table HSS-Pipe, column Z; values typed here as printed there
+    _check(get_section(name).props.Zx, printed, DESIGN_WALL_ALLOWANCE)
