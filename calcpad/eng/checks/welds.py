@@ -27,6 +27,17 @@ from calcpad.eng.checks._common import Calc, CheckInputError, check_length
 __all__ = ["add_fillet_weld_check", "add_stitch_weld_check"]
 
 
+
+#: Minimum fillet size by the thinner part joined (AISC 360-16 Table J2.4); w_u = 1/16 in.
+MIN_FILLET_CASES = [
+    ("t_p <= 4*w_u", "2*w_u", "t <= 1/4 in: 1/8 in"),
+    ("t_p <= 8*w_u", "3*w_u", "1/4 < t <= 1/2 in: 3/16 in"),
+    ("t_p <= 12*w_u", "4*w_u", "1/2 < t <= 3/4 in: 1/4 in"),
+    (None, "5*w_u", "t > 3/4 in: 5/16 in"),
+]
+#: Maximum fillet size along an edge (AISC 360-16 J2.2b(b)).
+MAX_FILLET_CASES = [("t_e < 4*w_u", "t_e", "edge thinner than 1/4 in: w <= t"), (None, "t_e - w_u", "edge 1/4 in or thicker: w <= t - 1/16 in")]
+
 def _size_rules(calc: Calc) -> None:
     calc.given("w_u", "0.0625 in", "Fillet size increment (1/16 in)", "AISC 360-16 Table J2.4", dim="[length]")
 
@@ -157,17 +168,14 @@ def add_fillet_weld_check(
     keys = []
     calc.branch(
         "w_min",
-        [("t_p <= 4*w_u", "2*w_u", "t <= 1/4 in: 1/8 in"),
-         ("t_p <= 8*w_u", "3*w_u", "1/4 < t <= 1/2 in: 3/16 in"),
-         ("t_p <= 12*w_u", "4*w_u", "1/2 < t <= 3/4 in: 1/4 in"),
-         (None, "5*w_u", "t > 3/4 in: 5/16 in")],
+        MIN_FILLET_CASES,
         "Minimum fillet size",
         unit="in",
         ref="AISC 360-16 Table J2.4",
     )
     calc.branch(
         "w_max",
-        [("t_e < 4*w_u", "t_e", "edge thinner than 1/4 in: w <= t"), (None, "t_e - w_u", "edge 1/4 in or thicker: w <= t - 1/16 in")],
+        MAX_FILLET_CASES,
         "Maximum fillet size along an edge",
         unit="in",
         ref="AISC 360-16 J2.2b(b)",
@@ -299,14 +307,12 @@ def add_stitch_weld_check(
         _size_rules(calc)
     if t_p is not None:
         calc.given("t_p", t_p, "Thinner part joined", dim="[length]")
-        calc.branch("w_min", [("t_p <= 4*w_u", "2*w_u", "t <= 1/4 in: 1/8 in"), ("t_p <= 8*w_u", "3*w_u", "1/4 < t <= 1/2 in: 3/16 in"),
-                              ("t_p <= 12*w_u", "4*w_u", "1/2 < t <= 3/4 in: 1/4 in"), (None, "5*w_u", "t > 3/4 in: 5/16 in")],
+        calc.branch("w_min", MIN_FILLET_CASES,
                     "Minimum fillet size", unit="in", ref="AISC 360-16 Table J2.4")
         keys.append(calc.check("Stitch fillet size at least the minimum", "w_min", "w", key="ratio_wmin", ref="AISC 360-16 Table J2.4"))
     if t_e is not None:
         calc.given("t_e", t_e, "Thickness of the edge the welds run along", dim="[length]")
-        calc.branch("w_max", [("t_e < 4*w_u", "t_e", "edge thinner than 1/4 in: w <= t"),
-                              (None, "t_e - w_u", "edge 1/4 in or thicker: w <= t - 1/16 in")],
+        calc.branch("w_max", MAX_FILLET_CASES,
                     "Maximum fillet size along an edge", unit="in", ref="AISC 360-16 J2.2b(b)")
         keys.append(calc.check("Stitch fillet size at most the maximum", "w", "w_max", key="ratio_wmax", ref="AISC 360-16 J2.2b(b)"))
     for i, b in enumerate(base, start=1):
