@@ -85,7 +85,7 @@ class _Token:
     @property
     def whole(self) -> bool:
         """A whole number written with digits only (fractions and mixed numbers use these)."""
-        return self.kind == "num" and self.text.isdigit()
+        return self.kind == "num" and _ascii_digits(self.text)
 
 
 @dataclass(frozen=True)
@@ -108,6 +108,11 @@ def _message(field: str, raw: object, reason: str, hint: str, what: str) -> str:
 # --------------------------------------------------------------------------- tokens
 
 
+def _ascii_digits(text: str) -> bool:
+    """True for a non-empty run of 0-9 (``str.isdigit`` also takes superscripts such as ``¹``)."""
+    return bool(text) and all("0" <= ch <= "9" for ch in text)
+
+
 def _normalise(text: str) -> str:
     return " ".join(text.translate(_TRANSLATE).split())
 
@@ -122,12 +127,12 @@ def _tokens(text: str) -> list[_Token]:
             continue
         if c not in _ALLOWED:
             raise _RefusedError(f"the character {c!r} is not part of a value")
-        if c.isdigit() or (c == "." and i + 1 < n and text[i + 1].isdigit()):
+        if _ascii_digits(c) or (c == "." and i + 1 < n and _ascii_digits(text[i + 1])):
             m = _NUMBER.match(text, i)
             assert m is not None  # a digit (or .digit) always starts a number
             j = m.end()
             nxt = text[j] if j < n else ""
-            if nxt.isdigit() or (nxt == "," and j + 1 < n and text[j + 1].isdigit()):
+            if _ascii_digits(nxt) or (nxt == "," and j + 1 < n and _ascii_digits(text[j + 1])):
                 raise _RefusedError(f"{text[i:j + 2]!r} is not a number", "commas separate thousands in groups of three (1,200); decimals take a point (1.5)")
             if nxt == ".":
                 raise _RefusedError(f"{text[i:j + 1]!r} is not a number", "a number has one decimal point")
@@ -280,7 +285,7 @@ class _Reader:
             second = self.take()
             if not (self.at("/") and self.at("num", 1)):
                 digits = tok.text.replace(",", "")
-                if digits.isdigit() and second.whole and len(second.text) == 3:
+                if _ascii_digits(digits) and second.whole and len(second.text) == 3:
                     hint = f"write {tok.text},{second.text} or {digits}{second.text}"
                 else:
                     hint = "a value is one number; a mixed number is written 1 1/2 or 1-1/2"
@@ -321,7 +326,7 @@ class _Reader:
 
     def mixed(self, whole: _Token, num: _Token, den: _Token) -> Fraction:
         digits = whole.text.replace(",", "")
-        if not digits.isdigit():
+        if not _ascii_digits(digits):
             raise _RefusedError(f"{whole.text} before a fraction is not a whole number", "write 1 1/2 or 1.5")
         part = self.fraction(num, den)
         if not 0 < part < 1:
@@ -434,10 +439,10 @@ class _Reader:
 def _unit_power(text: str) -> int | float | None:
     """A unit power as written: a whole number 1 to :data:`MAX_POWER`, or a half (0.5 to 5.5, as in
     ACI 318's lbf/(psi^0.5 in^1.5)); None for anything else."""
-    if text.isdigit():
+    if _ascii_digits(text):
         return int(text) if 1 <= int(text) <= MAX_POWER else None
     whole, dot, frac = text.partition(".")
-    if dot and frac == "5" and (whole == "" or whole.isdigit()) and int(whole or 0) < MAX_POWER:
+    if dot and frac == "5" and (whole == "" or _ascii_digits(whole)) and int(whole or 0) < MAX_POWER:
         return int(whole or 0) + 0.5
     return None
 
