@@ -228,6 +228,8 @@ class _Reader:
         return tok is not None and tok.kind == kind
 
     def take(self) -> _Token:
+        if self.i >= len(self.tokens):
+            raise _RefusedError("it ends where a number or unit should follow", "write e.g. 1-1/2 in or 84 in")
         tok = self.tokens[self.i]
         self.i += 1
         return tok

@@ -453,3 +453,10 @@ def test_superscript_digits_are_not_numbers(text: str) -> None:
     # found by the hypothesis test above in CI: str.isdigit() is True for '¹', the number pattern is not
     with pytest.raises(UnitInputError):
         parse_quantity(text, "x")
+
+
+@pytest.mark.parametrize("text", [".511-2.5/", "1-1/", "3 1/", "2 in/"])
+def test_text_that_stops_mid_value_is_refused(text: str) -> None:
+    # found by a random token fuzz: the mixed-number rule read past the end
+    with pytest.raises(UnitInputError):
+        parse_quantity(text, "x")
