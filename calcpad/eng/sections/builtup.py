@@ -219,6 +219,18 @@ class BuiltUp:
             ],
         )
 
+    def _outline_points(self, member: str | None, xc: float, yc: float) -> np.ndarray:
+        """Outline vertices (of one member, by label, or of all) relative to the centroid ``(xc, yc)``."""
+        if member is None:
+            rings = self.rings()
+        else:
+            found = [m for m in self.members if m.label == member]
+            if not found:
+                raise InputError(f"member: {member!r} is not in {self.name!r}; expected one of "
+                                 f"{', '.join(repr(m.label) for m in self.members)}")
+            rings = found[0].rings()
+        return np.vstack(rings) - np.array([xc, yc])
+
     def critical_fibre(self, axis: str = "x", member: str | None = None) -> tuple[float, float]:
         """Outline point with the largest bending stress for a moment about ``axis`` alone.
 
@@ -232,15 +244,7 @@ class BuiltUp:
         if axis not in ("x", "y"):
             raise InputError(f"axis: {axis!r}; expected 'x' or 'y'")
         c = self.moments().central()
-        if member is None:
-            rings = self.rings()
-        else:
-            found = [m for m in self.members if m.label == member]
-            if not found:
-                raise InputError(f"member: {member!r} is not in {self.name!r}; expected one of "
-                                 f"{', '.join(repr(m.label) for m in self.members)}")
-            rings = found[0].rings()
-        pts = np.vstack(rings) - np.array([c.xc, c.yc])
+        pts = self._outline_points(member, c.xc, c.yc)
         if axis == "x":
             f = c.Iy * pts[:, 1] - c.Ixy * pts[:, 0]
         else:
@@ -259,15 +263,7 @@ class BuiltUp:
         unit moment in 1/in^3).
         """
         c = self.moments().central()
-        if member is None:
-            rings = self.rings()
-        else:
-            found = [m for m in self.members if m.label == member]
-            if not found:
-                raise InputError(f"member: {member!r} is not in {self.name!r}; expected one of "
-                                 f"{', '.join(repr(m.label) for m in self.members)}")
-            rings = found[0].rings()
-        pts = np.vstack(rings) - np.array([c.xc, c.yc])
+        pts = self._outline_points(member, c.xc, c.yc)
         det = c.Ix * c.Iy - c.Ixy**2
         best = (0.0, 0.0, 0.0, -1.0)
         for th in angles:
