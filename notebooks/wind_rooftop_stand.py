@@ -8,7 +8,8 @@
 # base plates, the unit a stiff block pinned to or moment-connected to the top rails, as stated)
 # for the ASD combinations of ASCE 7-16 Sec. 2.4.1 and 2.4.5, checks the leg at its base for
 # yield, checks the governing leg to AISC 360-16 (compression, flexure, shear and their
-# interaction, ASD, with B2 of Appendix 8) for wind in x, in y and on the diagonal, and checks the
+# interaction, ASD, with B2 of Appendix 8) for wind and seismic in x, in y and on the corner leg under both
+# directions at once (wind diagonal; seismic 100 %/30 % and diagonal), and checks the
 # stand for sway.
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
@@ -198,29 +199,56 @@ for d, r in (("x", res), ("y", res_y)):
     check_frame_member(sh, r, ["windward", "leeward"], leg_shape, L="H", K=float(K_leg), cases=names, B2="B_2_st", material="A53 Gr B",
                        F_y="F_y", E="E_s", suffix=d)
 
-sh.heading("Leg member check, diagonal wind (corner leg, both frame lines)")
-sh.note("Diagonal wind: 75 % of the sideways wind of each direction at once; the vertical loads (D and the uplift) are "
-        "taken once, from the direction-x frame; the moments of both planes combine into the resultant of the round leg.")
-diag_best = None
+sh.heading("Leg member check, corner leg under both frame lines at once (diagonal wind, seismic 100 %/30 % and diagonal)")
+sh.assume("Corner leg under loads in both directions at once. Wind: 75 % of the sideways wind of each direction together "
+          "(ASCE 7-16 Fig. 27.4-8 case 3). Seismic: F_p on each axis alone in the x and y checks above (ASCE 7-16 13.3.1), "
+          "here 100 % on one axis with 30 % on the other (orthogonal combination of ASCE 7-16 12.5.3.1(a), applied to the "
+          "component) and F_p on the diagonal (0.707 F_p each way); the governing one is named.")
+sh.note("Vertical loads (D and the wind uplift) are taken once, from the direction-x frame; the moments of both planes "
+        "combine into the resultant of the round leg (AISC 360-16 H1 by the resultant for round HSS).")
+DIRECTIONS = {"W": [("wind diagonal, 0.75 x + 0.75 y", 0.75, 0.75)],
+              "E": [("seismic 100 % x + 30 % y", 1.0, 0.3), ("seismic 30 % x + 100 % y", 0.3, 1.0),
+                    ("seismic diagonal, 0.707 x + 0.707 y", 0.5**0.5, 0.5**0.5)]}
+
+
+def corner_forces(c, m, lateral, kx, ky):
+    """Base forces of leg m of both frame lines under combination c with the lateral load split kx, ky."""
+    def base(r, case):
+        dg = r.diagram(m, case)
+        return dg.N[0], dg.M[0], dg.V[0]
+    fD, fL = c.factors.get("D", 0.0), c.factors.get(lateral, 0.0)
+    case_h = "Wh" if lateral == "W" else "E"
+    Dx, Dy, Hx, Hy = base(res, "D"), base(res_y, "D"), base(res, case_h), base(res_y, case_h)
+    Vv = base(res, "Wv") if lateral == "W" else (0.0, 0.0, 0.0)
+    Mx = fD * Dx[1] + fL * (Vv[1] + kx * Hx[1])
+    My = fD * Dy[1] + fL * ky * Hy[1]
+    Vx = fD * Dx[2] + fL * (Vv[2] + kx * Hx[2])
+    Vy = fD * Dy[2] + fL * ky * Hy[2]
+    N = fD * Dx[0] + fL * (Vv[0] + kx * Hx[0] + ky * Hy[0])
+    return (Mx**2 + My**2) ** 0.5, (Vx**2 + Vy**2) ** 0.5, -N, Mx, My
+
+
+corner = []  # (M_res, V_res, P, leg, combination, direction label, M_x, M_y)
 for c in combos:
-    fD, fW = c.factors.get("D", 0.0), c.factors.get("W", 0.0)
-    if fW == 0:
-        continue
-    for m in ("windward", "leeward"):
-        def base(r, case):
-            dg = r.diagram(m, case)
-            return dg.N[0], dg.M[0], dg.V[0]
-        Dx, Dy, Whx, Why, Wvx = base(res, "D"), base(res_y, "D"), base(res, "Wh"), base(res_y, "Wh"), base(res, "Wv")
-        Mx = fD * Dx[1] + fW * (Wvx[1] + 0.75 * Whx[1])
-        My = fD * Dy[1] + fW * 0.75 * Why[1]
-        Vx = fD * Dx[2] + fW * (Wvx[2] + 0.75 * Whx[2])
-        Vy = fD * Dy[2] + fW * 0.75 * Why[2]
-        N = fD * Dx[0] + fW * (Wvx[0] + 0.75 * (Whx[0] + Why[0]))
-        M_res = (Mx**2 + My**2) ** 0.5
-        if diag_best is None or M_res > diag_best[0]:
-            diag_best = (M_res, (Vx**2 + Vy**2) ** 0.5, -N, m, c.name)
-M_d, V_d, P_d, leg_d, case_d = diag_best
-src = f"frame analyses x and y, {case_d} with 0.75 W each way"
+    for lateral, splits in DIRECTIONS.items():
+        if c.factors.get(lateral, 0.0) == 0:
+            continue
+        for label, kx, ky in splits:
+            for m in ("windward", "leeward"):
+                M_r, V_r, P_r, Mx, My = corner_forces(c, m, lateral, kx, ky)
+                corner.append((M_r, V_r, P_r, m, c.name, label, Mx, My))
+per_direction = {}
+for row in corner:
+    if row[5] not in per_direction or row[0] > per_direction[row[5]][0]:
+        per_direction[row[5]] = row
+sh.table("Corner leg base, largest resultant moment per direction", [
+    [lab, r[3], r[4], Q_(r[6], "lbf*in").to("kip*in"), Q_(r[7], "lbf*in").to("kip*in"), Q_(r[0], "lbf*in").to("kip*in"),
+     Q_(r[2], "lbf")] for lab, r in per_direction.items()],
+    columns=["direction", "leg", "combination", "M about x-frame", "M about y-frame", "resultant M", "P (compression +)"],
+    note="From the two frame analyses (x and y) superposed per combination.")
+M_d, V_d, P_d, leg_d, case_d, dir_d, _, _ = max(corner, key=lambda r: r[0])
+sh.note(f"Governing for the corner leg: {dir_d} ({leg_d} leg, {case_d}).")
+src = f"frame analyses x and y, {case_d}, {dir_d}"
 add_result_given(sh, "M_diag", Q_(M_d, "lbf*in"), f"Resultant base moment, {leg_d} leg (round leg)", src)
 add_result_given(sh, "V_diag", Q_(V_d, "lbf"), f"Resultant base shear, {leg_d} leg", src)
 add_result_given(sh, "P_diag", Q_(P_d, "lbf"), f"Axial force in the {leg_d} leg (compression +)", src)
