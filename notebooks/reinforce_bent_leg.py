@@ -134,28 +134,61 @@ for i, (member, mat) in enumerate([(reinforced.members[0], leg_mat), (reinforced
     after.step(f"F_b{i}", f"F_y{i}/Omega_b", f"Allowable bending stress in {member.label} (first yield)", unit="ksi",
                ref="AISC 360-16 F1, M = F_y*S")
     after.check(f"Bending stress after reinforcement, {member.label}", demand=f"sigma_b{i}", capacity=f"F_b{i}", ref="AISC 360-16 F1 (ASD)")
+after.heading("Force transfer between the added member and the leg, worst load direction")
+after.assume("The load may act in any direction: the shear flow and the force the added member picks up are taken for the "
+             "direction that makes them largest, from the first moments of the added member about both composite axes.")
+after.step("Q_ax", f"{c['A_2']}*({c['y_2']} - {c['y_bar']})", "First moment of the added member about the composite x-axis",
+           unit="in^3", ref="common practice")
+after.step("Q_ay", f"{c['A_2']}*({c['x_2']} - {c['x_bar']})", "First moment of the added member about the composite y-axis",
+           unit="in^3", ref="common practice")
+if unsym:
+    after.step("k_Q", f"sqrt(({c['I_y']}*Q_ax - {c['I_xy']}*Q_ay)**2 + ({c['I_x']}*Q_ay - {c['I_xy']}*Q_ax)**2)/"
+               f"({c['I_x']}*{c['I_y']} - {c['I_xy']}**2)",
+               "Largest force in the added member per unit moment over all directions (unsymmetric bending; the force "
+               "is the integral of the bending stress over the added member)", unit="1/in", ref="unsymmetric bending, common practice")
+else:
+    after.step("k_Q", f"sqrt((Q_ax/{c['I_x']})**2 + (Q_ay/{c['I_y']})**2)",
+               "Largest force in the added member per unit moment over all directions", unit="1/in", ref="common practice")
 after.heading("Intermittent welds, added member to leg")
-after.assume("Two lines of fillet welds join the added member to the leg; shear flow from the x-axis properties (load "
-             "parallel to the face the member is welded across).")
+after.assume("Two lines of fillet welds join the added member to the leg; shear flow q = V k_Q for the worst direction.")
 after.step("V", "P", "Shear along the leg", unit="lbf", ref="cantilever, statics")
-after.step("Q_a", f"{c['A_2']}*abs({c['y_2']} - {c['y_bar']})", "First moment of the added member", unit="in^3",
-           ref="common practice")
 t_leg = leg_shape.t
 t_add = getattr(add_shape_, "t", None) or min(add_shape_.width, add_shape_.depth)
 thin = f"{min(t_leg, t_add):.4f} in"
 base_metal = [{"label": "existing leg", "t": f"{t_leg:.4f} in", "F_y": f"{leg_mat.Fy} ksi", "F_u": f"{leg_mat.Fu} ksi"},
               {"label": "added member", "t": f"{t_add:.4f} in", "F_y": f"{add_mat.Fy} ksi", "F_u": f"{add_mat.Fu} ksi"}]
-built_up = {"t": f"{t_add:.4f} in", "F_y": f"{add_mat.Fy} ksi"} if after["N"].to("lbf").magnitude > 0 else None
-add_stitch_weld_check(after, V="V", Q="Q_a", I=c["I_x"], w=weld_size, L_seg=weld_length, s=weld_pitch, n=2, F_EXX=F_EXX,
+compression = after["N"].to("lbf").magnitude > 0  # a compression member (the leg carries the unit): E6 applies
+built_up = {"t": f"{t_add:.4f} in", "F_y": f"{add_mat.Fy} ksi"} if compression else None
+add_stitch_weld_check(after, V="V", Q_over_I="k_Q", w=weld_size, L_seg=weld_length, s=weld_pitch, n=2, F_EXX=F_EXX,
                       t_p=thin, t_e=f"{t_add:.4f} in", base=base_metal, compression=built_up)
 after.heading("End welds of the added member")
-after.step("F_end", f"M*Q_a/{c['I_x']}", "Force the added member picks up at its lower end (M·Q/I, base moment: "
-           "conservative)", unit="kip", ref="flexure of the composite section, common practice")
+after.step("F_end", "M*k_Q", "Force the added member picks up at its lower end (M·Q/I for the worst direction, base moment)",
+           unit="kip", ref="flexure of the composite section, common practice")
 add_fillet_weld_check(after, R="F_end", w=weld_size, L=end_weld, t_p=thin, t_e=f"{t_add:.4f} in", F_EXX=F_EXX, n=2,
                       base_t=f"{t_add:.4f} in", base_Fy=f"{add_mat.Fy} ksi", base_Fu=f"{add_mat.Fu} ksi", suffix="end")
-after.note("E6.2: at the base the added member and the leg bear on the base plate: weld both to it (or to each other) "
-           "over a length not less than the larger width of the built-up member (AISC 360-16 E6.2(a)); the slenderness of "
-           "the added member between stitches is limited by E6.1 (a/r_i <= 0.75 of the member's); check both at detailing.")
+if compression:
+    after.heading("Built-up compression member: end connection and components between stitches (AISC 360-16 E6)")
+    after.given("L_end", end_weld, "Length of each end weld line of the added member at the base")
+    after.step("b_max", f"max({c['x_right']} - {c['x_left']}, {c['y_top']} - {c['y_bot']})", "Largest width of the built-up member",
+               unit="in", ref="outline")
+    after.check("End weld length, built-up member bearing on the base plate", demand="b_max", capacity="L_end",
+                ref="AISC 360-16 E6.2(a) (each weld line at least the largest width; from memory)")
+    after.given("K_b", 2.1, "Effective length factor of the built-up leg (fixed base, free top)",
+                source="AISC 360-16 Commentary Table C-A-7.1")
+    after.step("I_min", f"({c['I_x']} + {c['I_y']})/2 - sqrt((({c['I_x']} - {c['I_y']})/2)**2" +
+               (f" + {c['I_xy']}**2" if unsym else "") + ")", "Least principal moment of inertia of the built-up member",
+               unit="in^4", ref="Mohr's circle, common practice")
+    after.step("r_min", f"sqrt(I_min/{c['A']})", "Least radius of gyration of the built-up member", unit="in")
+    after.step("KL_r", "K_b*L/r_min", "Governing slenderness of the built-up member", ref="AISC 360-16 E2")
+    after.given("r_i", Q_(add_shape_.props.value("r_min"), "in"), "Least radius of gyration of the added member",
+                source=f"{added} (computed from dimensions)")
+    after.given("a_s", weld_pitch, "Distance between the stitch welds (the pitch, conservative)")
+    after.step("a_r", "a_s/r_i", "Slenderness of the added member between stitches")
+    after.step("a_rmax", "0.75*KL_r", "Limit: three quarters of the governing slenderness of the built-up member",
+               ref="AISC 360-16 E6.1 (from memory)")
+    after.check("Added member slenderness between stitches", demand="a_r", capacity="a_rmax", ref="AISC 360-16 E6.1")
+else:
+    after.note("No axial compression given: the built-up compression member rules of AISC 360-16 E6 do not apply.")
 after.note("Caution on straightening: cold straightening of HSS may crack the cold-formed corners; heat straightening "
            "is done with controlled temperatures (about 1100 to 1200 °F at most for carbon steel, common practice) "
            "and no quenching. After straightening, inspect the corners and the bent region for cracks (magnetic "

@@ -267,3 +267,15 @@ def test_stitch_pitch_of_a_built_up_compression_member_e6_2():
     assert not res["ratio_smax"].ok
     _, res = _stitch(s="5 in", compression={"t": "0.25 in", "F_y": "36 ksi"})
     assert res["ratio_smax"].ok
+
+
+def test_stitch_shear_flow_from_a_given_q_over_i() -> None:
+    # q = V k_Q with k_Q = Q/I given directly (the worst-direction factor of an unsymmetric section);
+    # q = 6 kip x 0.08 /in = 0.48 kip/in, by hand; pattern 2 x 0.707 x 3/16 x 42 ksi / 2 x 2/6 (AISC 360-16 Eq. J2-4, J2-5)
+    sh = Sheet("k_Q", method="ASD")
+    add_stitch_weld_check(sh, V="6 kip", Q_over_I="0.08 in^-1", w="0.1875 in", L_seg="2 in", s="6 in", n=2)
+    assert sh["q"].to("kip/in").magnitude == pytest.approx(0.48)
+    assert sh["q_c"].to("kip/in").magnitude == pytest.approx(2 * 0.707 * 0.1875 * 42 / 2 * 2 / 6)
+    for bad in ({"Q": "4 in^3", "I": "50 in^4", "Q_over_I": "0.08 1/in"}, {"Q": "4 in^3"}, {}):
+        with pytest.raises(CheckInputError):
+            add_stitch_weld_check(Sheet("bad"), V="6 kip", w="0.1875 in", L_seg="2 in", s="6 in", **bad)

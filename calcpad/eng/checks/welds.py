@@ -243,8 +243,8 @@ def add_stitch_weld_check(
     sh: Sheet,
     *,
     V: Any,
-    Q: Any,
-    I: Any,
+    Q: Any = None,
+    I: Any = None,
     w: Any,
     L_seg: Any,
     s: Any,
@@ -254,13 +254,16 @@ def add_stitch_weld_check(
     t_e: Any = None,
     base: Any = (),
     compression: Any = None,
+    Q_over_I: Any = None,
     suffix: str = "",
 ) -> list[str]:
     """Add a stitch-weld check for a reinforcing member welded alongside an existing one.
 
     The shear flow at the interface q = V·Q/I (Q of the added part about the neutral axis of
     the combined section, I of the combined section) is carried by ``n`` lines of intermittent
-    fillet welds, segments ``L_seg`` long at pitch ``s`` (centre to centre).
+    fillet welds, segments ``L_seg`` long at pitch ``s`` (centre to centre). Instead of ``Q``
+    and ``I``, ``Q_over_I`` may give the factor k_Q (1/length) with q = V·k_Q, e.g. the largest
+    over all load directions of an unsymmetric section.
 
     Optional (each adds its checks):
         t_p: Thinner part joined: minimum fillet size, AISC 360-16 Table J2.4.
@@ -282,11 +285,18 @@ def add_stitch_weld_check(
         raise CheckInputError("base", base, "a list of {'label', 't', 'F_y', 'F_u'} mappings, one per member along the weld")
     if compression is not None and not (isinstance(compression, dict) and {"t", "F_y"} <= set(compression)):
         raise CheckInputError("compression", compression, "None, or {'t', 'F_y'[, 'E']} of the thinner outside component")
+    if (Q_over_I is None) == (Q is None or I is None) or (Q_over_I is not None and (Q is not None or I is not None)):
+        raise CheckInputError("Q, I / Q_over_I", (Q, I, Q_over_I), "either Q and I, or Q_over_I alone")
     calc = Calc(sh, suffix)
     sh.heading(f"Stitch welds by shear flow{f' [{suffix}]' if suffix else ''}", 2)
     calc.given("V_r", V, "Required shear at the section", dim="lbf", allow_negative=True, allow_zero=True)
-    calc.given("Q_a", Q, "First moment of the added part about the neutral axis", dim="in**3")
-    calc.given("I_c", I, "Moment of inertia of the combined section", dim="in**4")
+    if Q_over_I is None:
+        calc.given("Q_a", Q, "First moment of the added part about the neutral axis", dim="in**3")
+        calc.given("I_c", I, "Moment of inertia of the combined section", dim="in**4")
+        calc.step("q", "abs(V_r)*Q_a/I_c", "Shear flow at the interface", unit="kip/in", ref="q = V*Q/I, common practice")
+    else:
+        calc.given("k_Qc", Q_over_I, "Shear flow per unit shear, k_Q = q/V", dim="1/in")
+        calc.step("q", "abs(V_r)*k_Qc", "Shear flow at the interface", unit="kip/in", ref="q = V*k_Q, common practice")
     calc.given("w", w, "Fillet weld leg size", dim="[length]")
     lseg = check_length(calc, "L_seg", L_seg, "Length of each weld segment")
     pitch = check_length(calc, "s", s, "Pitch of the segments (centre to centre)")
@@ -295,7 +305,6 @@ def add_stitch_weld_check(
     calc.given("n_l", n, "Number of weld lines", dim="")
     calc.given("F_EXX", F_EXX, "Filler metal classification strength", "AWS A5.1 E70XX: 70 ksi", dim="ksi")
     calc.given("L_abs", "1.5 in", "Absolute minimum segment length", "AISC 360-16 J2.2b(e)", dim="[length]")
-    calc.step("q", "abs(V_r)*Q_a/I_c", "Shear flow at the interface", unit="kip/in", ref="q = V*Q/I, common practice")
     calc.step("F_nw", "0.60*F_EXX", "Nominal weld stress (longitudinal, theta = 0)", unit="ksi", ref="AISC 360-16 Eq. J2-5")
     calc.step("r_n", "0.707*w*F_nw", "Nominal strength per unit length of one weld line", unit="kip/in", ref="AISC 360-16 Eq. J2-4")
     calc.available("r_c", "r_n", "weld", "w", "Available strength per unit length", unit="kip/in")
