@@ -10,7 +10,10 @@
 # yield, checks the governing leg to AISC 360-16 (compression, flexure, shear and their
 # interaction, ASD, with B2 of Appendix 8) for wind and seismic in x, in y and on the corner leg under both
 # directions at once (wind diagonal; seismic 100 %/30 % and diagonal), and checks the
-# stand for sway.
+# stand for sway. A second sheet checks the stand base at strength level: the leg base plate
+# under uplift with biaxial moment (four rods) and under compression with moment (AISC Design
+# Guide 1), and the anchorage to the concrete pad (ACI 318-19 Chapter 17, with 17.10 and
+# ASCE 7-16 13.4 for the seismic case).
 #
 # *For review by a qualified, licensed engineer. Local building codes and the authority having
 # jurisdiction govern. The first leg check is a yield-based screening check (combined axial and
@@ -38,6 +41,16 @@ S_DS = 0.5  # design spectral response acceleration, short periods (site, ASCE 7
 a_p = 2.5  # component amplification factor (ASCE 7-16 Table 13.6-1); 1.0 to 2.5
 R_p = 6.0  # component response modification factor (ASCE 7-16 Table 13.6-1); 1.0 to 12
 I_p = 1.0  # component importance factor (ASCE 7-16 Sec. 13.1.3); 1.0 to 1.5
+Omega_0p = 2.0  # overstrength factor of the component for its anchorage (ASCE 7-16 Table 13.6-1); 1.0 to 3.0
+plate_B = "8 in"  # leg base plate, square, B x B; 4 in to 24 in
+plate_t = "1/2 in"  # leg base plate thickness; 1/4 in to 2 in
+plate_grade = "A36"  # base plate steel, materials catalog name
+rod_d = "1/2 in"  # anchor rod diameter (four cast-in headed rods per leg, ASTM F1554 Gr 36); 1/2 in to 1-1/2 in
+rod_f = "2.75 in"  # plate centre to each rod line (square pattern 2f x 2f); 1 in to plate_B
+anchor_h_ef = "6 in"  # anchor rod embedment h_ef (heavy hex nut); 2 in to 25 in
+f_c = "3000 psi"  # concrete compressive strength f'c of the pad; 2500 psi to 10000 psi
+pad_edge = "6 in"  # anchor rods to each face of the concrete pad; 1.5 in to 48 in
+pad_depth = "10 in"  # thickness of the concrete pad; 4 in to 60 in
 member_mark = ""  # member mark (the runner fills it from the job)
 calc_title = ""  # calc title (the runner fills it from the job)
 
@@ -51,7 +64,8 @@ from calcpad.core.units import parse_quantity
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
-from calcpad.eng.checks import add_second_order, check_frame_member, check_member
+from calcpad.eng.checks import (add_anchorage_check, add_base_plate_check, add_leg_base_uplift_check, add_second_order,
+                                check_frame_member, check_member)
 from calcpad.eng.loads.combinations import basic_combinations
 from calcpad.eng.loads.seismic import add_component_seismic
 from calcpad.eng.loads.wind import add_velocity_pressure, add_wind_force, gcr_uplift
@@ -261,6 +275,75 @@ sh.heading("Sway of the stand")
 add_result_given(sh, "Delta_s", sway, "Top rail sway under D + 0.6W (larger direction)", "frame analysis, AC5+")
 add_deflection_check(sh, "Delta_s", "H", "H/100", title="Stand sway H/100")
 sh
+
+# %% [markdown]
+# ## Stand base: leg base plate and anchorage to the concrete pad
+#
+# ACI 318-19 Chapter 17 is strength design, so the leg base forces are taken from the strength
+# combinations of ASCE 7-16 Sec. 2.3 (the same two frame analyses, superposed per combination)
+# for wind and seismic in x, in y and on the diagonal. The leg whose corner rod is pulled hardest
+# governs: once for the wind and gravity combinations, once for the seismic ones (ASCE 7-16
+# 13.4, ACI 318-19 17.10 with the component's Ω_0p).
+
+# %%
+base = Sheet(calc_heading("Rooftop stand: leg base plate and anchorage", calc_title, member_mark, "stand base"), method="LRFD",
+             meta={"member": member_mark})
+base.assume("Each leg stands on a square base plate with four cast-in headed anchor rods (square pattern) in a concrete pad; "
+            "the pad is thick and wide enough for the edge distances and thickness stated.")
+base.assume("Strength-level forces (ASCE 7-16 Sec. 2.3, LRFD) from the frame analyses of the stand sheet; the corner leg takes "
+            "both frame lines' moments at once.")
+base.assume("Anchor rods: rigid plate on four rods without bearing for the rod forces (conservative when the leg is in "
+            "tension); every rod of the group taken at the corner rod's force for the concrete checks (ψ_ec,N = 1, conservative).")
+lrfd = basic_combinations("LRFD", ["D", "W", "E"], S_DS=S_DS)
+BASE_SPLITS = {"W": [("wind x", 1.0, 0.0), ("wind y", 0.0, 1.0)] + DIRECTIONS["W"],
+               "E": [("seismic x", 1.0, 0.0), ("seismic y", 0.0, 1.0)] + DIRECTIONS["E"]}
+f_in = parse_quantity(rod_f, "rod_f").to("in").magnitude
+rows = []  # (T_1 lbf, kind, combination, direction, leg, N_t, M_x, M_y, V)
+for c in lrfd:
+    lateral = "E" if c.factors.get("E", 0.0) else "W"
+    splits = BASE_SPLITS[lateral] if c.factors.get(lateral, 0.0) else [("gravity", 0.0, 0.0)]
+    for label, kx, ky in splits:
+        for m in ("windward", "leeward"):
+            M_r, V_r, P_r, Mx, My = corner_forces(c, m, lateral, kx, ky)
+            rows.append((-P_r / 4 + (abs(Mx) + abs(My)) / (4 * f_in), "seismic" if lateral == "E" and c.factors.get("E") else
+                         "wind and gravity", c.name, label, m, -P_r, Mx, My, V_r))
+base.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c in lrfd))
+gov = {kind: max((r for r in rows if r[1] == kind), key=lambda r: r[0]) for kind in ("wind and gravity", "seismic")}
+comp = max(rows, key=lambda r: (-r[5]) + (r[6]**2 + r[7]**2) ** 0.5 / parse_quantity(plate_B, "plate_B").to("in").magnitude * 6)
+base.table("Leg base forces of the governing rows (strength level)", [
+    [why, r[2], r[3], r[4], Q_(r[5], "lbf"), Q_(r[6], "lbf*in").to("kip*in"), Q_(r[7], "lbf*in").to("kip*in"), Q_(r[8], "lbf"),
+     Q_(r[0], "lbf")] for why, r in (("largest rod tension, wind and gravity", gov["wind and gravity"]),
+                                     ("largest rod tension, seismic", gov["seismic"]), ("bearing: compression with moment", comp))],
+    columns=["governs", "combination", "direction", "leg", "N_t (uplift +)", "M_x", "M_y", "V", "corner rod T_1"],
+    note="Every combination of ASCE 7-16 Sec. 2.3 with W or E in each direction (x, y, diagonal; seismic also 100 %/30 %) "
+         "and both legs of each frame line were computed; these rows govern.")
+base.heading("Leg base plate")
+base.given("D_leg", D_o, "Leg outside diameter")
+for key, r in (("w", gov["wind and gravity"]), ("e", gov["seismic"])):
+    src = f"frame analyses x and y, {r[2]}, {r[3]}"
+    add_result_given(base, f"N_t{key}", Q_(r[5], "lbf"), f"Axial tension in the {r[4]} leg (uplift +), {r[1]}", src)
+    add_result_given(base, f"M_x{key}", Q_(r[6], "lbf*in"), f"Base moment about x, {r[1]}", src)
+    add_result_given(base, f"M_y{key}", Q_(r[7], "lbf*in"), f"Base moment about y, {r[1]}", src)
+    add_result_given(base, f"V_{key}", Q_(r[8], "lbf"), f"Resultant base shear, {r[1]}", src)
+    add_leg_base_uplift_check(base, N_t=f"N_t{key}", M_x=f"M_x{key}", M_y=f"M_y{key}", f=rod_f, t_p=plate_t, D_leg="D_leg",
+                              material=plate_grade, suffix=key)
+src = f"frame analyses x and y, {comp[2]}, {comp[3]}"
+add_result_given(base, "P_c", Q_(max(-comp[5], 0.0), "lbf"), f"Axial compression in the {comp[4]} leg", src)
+add_result_given(base, "M_c", Q_((comp[6]**2 + comp[7]**2) ** 0.5, "lbf*in"), "Resultant base moment (taken about one plate axis: "
+                 "approximate for a biaxial moment)", src)
+add_base_plate_check(base, leg_shape, P="P_c", M="M_c", B=plate_B, N=plate_B, t_p=plate_t, f_c=f_c, f=rod_f, n_rods=2,
+                     d_rod=rod_d, material=plate_grade, suffix="plate")
+base.step("s_rods", "2*f_a_plate", "Anchor rod spacing (square pattern)", unit="in")
+for key, seismic in (("w", False), ("e", True)):
+    base.step(f"N_g{key}", f"4*T_r_{key}", "Tension on the group, every rod at the corner rod's force (conservative)", unit="kip",
+              ref="elastic rod group, common practice")
+    add_anchorage_check(base, d_a=rod_d, h_ef=anchor_h_ef, f_c="f_c_plate", c_x1=pad_edge, c_x2=pad_edge, c_y1=pad_edge,
+                        c_y2=pad_edge, h_a=pad_depth, N_ua=f"N_g{key}", V_ua=f"V_{key}", n_x=2, n_y=2, s_x="s_rods", s_y="s_rods",
+                        seismic=seismic, Omega_0=Omega_0p if seismic else None, suffix=f"anchor{key}")
+base.note("Component anchorage, ASCE 7-16 13.4: the attachment force comes from F_p with R_p <= 6 (13.4.1); anchors in "
+          "concrete per ACI 318-19 Chapter 17 (13.4.2.1, from memory), here with Ω_0p on the whole seismic combination "
+          "(17.10.5.3(d), 17.10.6.3(c)); the 20 % exemptions are not taken.")
+base
 
 # %% [markdown]
 # The frame line with its loads and deflected shape, and the bending moments, for the governing

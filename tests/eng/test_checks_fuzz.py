@@ -24,6 +24,7 @@ from calcpad.eng.checks import (
     add_compression_check,
     add_fillet_weld_check,
     add_flexure_check,
+    add_leg_base_uplift_check,
     add_second_order,
     add_torsion_check,
     add_weld_group_check,
@@ -71,6 +72,9 @@ CASES = {
                    "tension_rows": 1, "anchor": "cast-in headed", "grade": "F1554 Gr 36", "condition": "B"}),
     "second order": (lambda **k: add_second_order(Sheet("f"), HSS, **k), {"P_nt": "5 kip", "M_lt": "3 kip*ft", "L": "10 ft",
                                                                            "sway": "cantilever", "K1": 1.0, "stiffness": "nominal"}),
+    "leg base uplift": (lambda **k: add_leg_base_uplift_check(Sheet("f", method="LRFD"), **k),
+                        {"N_t": "400 lbf", "M_x": "1.5 kip*in", "M_y": "-2 kip*in", "f": "2.75 in", "t_p": "1/2 in",
+                         "D_leg": "2.375 in", "F_y": "36 ksi"}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 

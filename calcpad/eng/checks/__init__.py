@@ -28,6 +28,7 @@ from calcpad.eng.checks.combined import add_interaction_check
 from calcpad.eng.checks.compression import add_compression_check
 from calcpad.eng.checks.flexure import add_flexure_check
 from calcpad.eng.checks.frame_member import MemberForces, check_frame_member, frame_member_forces
+from calcpad.eng.checks.leg_base import add_leg_base_uplift_check
 from calcpad.eng.checks.member import MemberChecks, check_member
 from calcpad.eng.checks.shear import add_shear_check
 from calcpad.eng.checks.stability import add_second_order
@@ -58,6 +59,7 @@ __all__ = [
     "add_fillet_weld_check",
     "add_flexure_check",
     "add_interaction_check",
+    "add_leg_base_uplift_check",
     "add_second_order",
     "add_shear_check",
     "add_stitch_weld_check",
