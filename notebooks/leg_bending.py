@@ -20,6 +20,7 @@ F_y = "35 ksi"  # specified minimum yield stress of the tube (ASTM A53 Gr B: 35 
 FS_req = 1.67  # required factor of safety against yield; 1.0 to 5.0
 member_mark = ""  # member mark (the runner fills it from the job)
 calc_title = ""  # calc title (the runner fills it from the job)
+calc_note = ""  # the job's note on this calc, printed on its sheets (the runner fills it from the job)
 
 # %%
 from calcpad import Sheet, calc_heading
@@ -32,6 +33,8 @@ sh = Sheet(calc_heading("Leg bending at base", calc_title, member_mark), meta={"
 sh.assume("The leg is a cantilever fixed at its base and loaded sideways at its top.")
 sh.assume("Service-level (ASD) loads; yield-based check of the extreme fibre with the required factor of safety; "
           "second-order effects by AISC 360-16 Appendix 8 (B2 of the fixed-free leg).")
+if calc_note.strip():
+    sh.note(calc_note.strip())
 sh.heading("Inputs")
 sh.given("P", P, "Lateral load at top of leg (service level)")
 sh.given("N_ax", N, "Axial compression in the leg (service level)")

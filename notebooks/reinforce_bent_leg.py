@@ -26,6 +26,7 @@ e0 = "1/8 in"  # residual bow of the leg measured after straightening; 0 in to 2
 end_weld = "3 in"  # length of each of the two end welds of the added member at the base; 1 in to 24 in
 member_mark = ""  # member mark (the runner fills it from the job)
 calc_title = ""  # calc title (the runner fills it from the job)
+calc_note = ""  # the job's note on this calc, printed on its sheets (the runner fills it from the job)
 
 # %%
 import io
@@ -73,6 +74,8 @@ Image(png.getvalue())
 before = Sheet(calc_heading("Reinforcement of a bent leg", calc_title, member_mark, "existing section"), meta={"member": member_mark})
 for text in ASSUMPTIONS:
     before.assume(text)
+if calc_note.strip():
+    before.note(calc_note.strip())
 before.heading("Section properties")
 s = add_section_steps(before, leg_shape, source=f"{leg} (design wall)")
 S_name = s["S_x"]
@@ -99,6 +102,8 @@ before
 after = Sheet(calc_heading("Reinforcement of a bent leg", calc_title, member_mark, "reinforced section"), meta={"member": member_mark})
 for text in ASSUMPTIONS:
     after.assume(text)
+if calc_note.strip():
+    after.note(calc_note.strip())
 after.figure("Existing and reinforced sections", fig)
 after.heading("Added member")
 a = add_shape_props(after, add_shape_, suffix="a", names=["A", "I_x", "I_y"])

@@ -118,7 +118,7 @@ def _close_figures() -> None:
 
 def _values(calc: Calc) -> dict[str, Any]:
     values: dict[str, Any] = dict(calc.inputs)
-    context = {"member_mark": calc.member if calc.member != "-" else "", "calc_title": calc.title}
+    context = {"member_mark": calc.member if calc.member != "-" else "", "calc_title": calc.title, "calc_note": calc.note}
     for name in CONTEXT_PARAMETERS:
         if name in calc.template.parameters:
             values[name] = context[name]

@@ -23,13 +23,15 @@
     template = "leg_bending"     # a name from `calcpad templates` (never a path: templates are code)
     members = ["L1", "L3"]       # or member = "L1"
     title = "Legs L1 and L3"     # optional
+    note = "Why these legs differ from the others"   # optional, printed on the calc's sheets
     [calcs.inputs]
     P = "85 lbf"                 # "value unit", { value = 85, unit = "lbf" }, a number or a text
     ...
 
 Every parameter of the template must be given (the job file is the complete record of what was
-assumed; `calcpad new` writes them all). Template parameters named ``member_mark`` and
-``calc_title`` are filled by the runner with the member mark and the calc's ``title``. ``[job]``
+assumed; `calcpad new` writes them all). Template parameters named ``member_mark``,
+``calc_title`` and ``calc_note`` are filled by the runner with the member mark, the calc's
+``title`` and its ``note`` (an engineer's note printed on the sheets of templates that declare it). ``[job]``
 may carry ``basis``: a text or a list of texts stating the design basis (load sources, the
 owner's criteria), printed in the submittal's design criteria. The job file is data only:
 nothing in it is executed, and a template is named, never pointed at: it is looked up in the
@@ -76,9 +78,9 @@ JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revisio
 PAPERS = ("letter", "a4")
 REVISION_KEYS = ("rev", "date", "description", "by")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
-CALC_KEYS = ("template", "member", "members", "title", "inputs")
+CALC_KEYS = ("template", "member", "members", "title", "note", "inputs")
 #: Template parameters the runner fills from the job: the member mark and the calc's title.
-CONTEXT_PARAMETERS = ("member_mark", "calc_title")
+CONTEXT_PARAMETERS = ("member_mark", "calc_title", "calc_note")
 _OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions", "basis")
 _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
@@ -130,6 +132,7 @@ class Calc:
     inputs: dict[str, str | float]  # values as they go into the template
     title: str = ""
     typed: dict[str, Any] = field(default_factory=dict)  # inputs as written in the job (TOML value or --set text)
+    note: str = ""  # the job's note for this calc (printed by templates that declare calc_note)
 
     @property
     def input_digest(self) -> str:
@@ -311,7 +314,7 @@ def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], 
             bad = True
             continue
         if name in CONTEXT_PARAMETERS:
-            problems.append((where, f"{name!r} is filled in by the runner from the member mark; remove it from inputs"))
+            problems.append((where, f"{name!r} is filled in by the runner from the calc's member, title or note; remove it from inputs"))
             continue
         try:
             values[name] = tpl.parameters[name].coerce(value, where)
@@ -370,6 +373,10 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
         if not isinstance(title, str):
             problems.append((f"{loc}.title", f"{title!r}; expected a text"))
             title = ""
+        note = c.get("note", "")
+        if not isinstance(note, str):
+            problems.append((f"{loc}.note", f"{note!r}; expected a text"))
+            note = ""
         name = c.get("template")
         if not isinstance(name, str) or not name.strip():
             problems.append((f"{loc}.template", f"{name!r}; expected a template name such as 'leg_bending'"))
@@ -387,7 +394,7 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
                 continue
             seen[key] = loc
             typed = {n: v for n, v in (c.get("inputs") or {}).items() if n in inputs}
-            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed))
+            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed, note))
     mode = print_mode(info.print)
     if calcs and mode is not None and mode[0] == "calc" and mode[1] not in {c.member for c in calcs}:
         marks = list(dict.fromkeys(c.member for c in calcs))

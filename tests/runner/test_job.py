@@ -79,3 +79,22 @@ def test_job_values_are_never_executed(tiny_env: Path, tmp_path: Path) -> None:
     got = dict(problems(JOB_HEAD + tiny_calc(P=f"'{payload}'", mode=f"'{payload}'")))
     assert "calcs[1].inputs.P" in got and "calcs[1].inputs.mode" in got
     assert not marker.exists()
+
+
+def test_a_calc_note_is_kept_and_printed_by_templates_that_declare_it(tiny_env: Path) -> None:
+    calc = tiny_calc().replace('member = "M1"\n', 'member = "M1"\nnote = "Replacement leg, owner\'s records"\n')
+    job = parse_job(JOB_HEAD + calc)
+    assert job.calcs[0].note == "Replacement leg, owner's records"
+    assert problems(JOB_HEAD + tiny_calc().replace('member = "M1"\n', 'member = "M1"\nnote = 3\n')) == [("calcs[1].note", "3; expected a text")]
+
+
+def test_example_job_notes_reach_the_sheets() -> None:
+    from calcpad.runner.execute import run_calc_inprocess
+
+    job = load_job(EXAMPLE)
+    leg = next(c for c in job.calcs if c.member == "L2")
+    assert "HSS3x3x3/16" in leg.note
+    outcome = run_calc_inprocess(leg)
+    assert outcome.error is None
+    fragment = "HSS3x3x3/16 fitted after an earlier impact"
+    assert sum(fragment in sheet["html"] for sheet in outcome.sheets) == 2  # both sheets (existing and reinforced)
