@@ -58,6 +58,7 @@ calc_title = ""  # calc title (the runner fills it from the job)
 from IPython.display import Image, display
 
 from calcpad import Q_, Sheet, calc_heading
+from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity
 from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, png_bytes
 from calcpad.eng.analysis.frame import Frame, add_frame_results
@@ -73,7 +74,7 @@ def marks(text, n, field):
     """The job's marks, in order (``"C1, C2"``)."""
     out = [m.strip() for m in str(text).split(",") if m.strip()]
     if len(out) != n:
-        raise ValueError(f"{field}: got {text!r}; expected {n} marks separated by commas")
+        raise InputError(f"{field}: got {text!r}; expected {n} marks separated by commas")
     return out
 
 
@@ -113,7 +114,7 @@ sh.given("H_W", H_W, "Wind: lateral force at the windward post top (nominal)")
 sh.given("w_Wu", w_Wup, "Wind: uplift on the beam (nominal)")
 if not (0 < sh["a_v"].to("in").magnitude < sh["H"].to("in").magnitude and 0 < 2 * sh["a_h"].to("in").magnitude
         < sh["L_s"].to("in").magnitude):
-    raise ValueError("kb_v / kb_h: the knee brace points must lie on the post below its top and on the beam short of midspan")
+    raise InputError("kb_v / kb_h: the knee brace points must lie on the post below its top and on the beam short of midspan")
 
 # %% [markdown]
 # The frame model: nodes at the bases, the brace points, the post tops and midspan; the beam in
@@ -160,7 +161,10 @@ res = fr.solve()
 sh.heading(f"Frame analysis ({method} combinations of ASCE 7-16 Sec. {'2.4.1' if method == 'ASD' else '2.3.1'})")
 sh.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c in combos))
 M_gov, case_gov, _ = max((res.envelope(m, "M", cases=names) for m in posts[post_l] + posts[post_r]), key=lambda t: abs(t[0]))
-add_frame_results(sh, res, names, figure_case=case_gov, members=posts[post_l] + posts[post_r] + beam_parts + [kb_l, kb_r])
+shown = [case_gov]
+sh.note(f"Reaction and member-force tables for {case_gov}, the combination governing the posts; every combination is "
+        "checked below (tables of the governing ratio per combination).")
+add_frame_results(sh, res, shown, figure_case=case_gov, members=posts[post_l] + posts[post_r] + beam_parts + [kb_l, kb_r])
 
 sh.heading("Second-order effects: story stiffness of the frame")
 sh.given("E_s", E_s, "Modulus of elasticity", source="AISC 360-16 B3 (common practice)")

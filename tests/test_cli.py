@@ -38,7 +38,7 @@ def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.Mo
     for text in ("HRM-2417", "Northgate Cold Storage Co.", "R. Lindqvist, P.E.", "AISC 360-16", "CAUTION", "Contents", "Summary of checks"):
         assert text in html
     assert "<script" not in html
-    assert html.count('<section class="calc"') == 7  # one per [[calcs]] table: members of a table share inputs (typical)
+    assert html.count('<section class="calc"') == 6  # one per [[calcs]] table: members of a table share inputs (typical)
     assert f"submittal written: {out / 'submittal.html'}" in capsys.readouterr().err
 
 

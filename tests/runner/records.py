@@ -68,6 +68,16 @@ S_DS = 0.42
 a_p = 2.5
 R_p = 6.0
 I_p = 1.0
+Omega_0p = 2.0
+plate_B = "8 in"
+plate_t = "1/2 in"
+plate_grade = "A36"
+rod_d = "1/2 in"
+rod_f = "2.75 in"
+anchor_h_ef = "6 in"
+f_c = "3000 psi"
+pad_edge = "6 in"
+pad_depth = "10 in"
 """
 
 

@@ -27,7 +27,7 @@ def test_percent_reader_matches_jupytext(path: Path) -> None:
 def test_leg_bending_parameters() -> None:
     tpl = load_template(ROOT / "notebooks" / "leg_bending.py")
     assert tpl.parameters_cell == 2
-    assert list(tpl.parameters) == ["P", "N", "L", "leg", "D_o", "t", "F_y", "FS_req", "member_mark", "calc_title"]
+    assert list(tpl.parameters) == ["P", "N", "L", "leg", "D_o", "t", "F_y", "FS_req", "member_mark", "calc_title", "calc_note"]
     L = tpl.parameters["L"]
     assert (L.default, L.kind, L.unit, L.description) == ("42 in", "quantity", "in", "leg length from base to load")
     assert L.lower.value == parse_quantity("6 in") and L.upper.value == parse_quantity("30 ft")
