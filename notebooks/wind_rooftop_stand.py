@@ -225,12 +225,12 @@ DIRECTIONS = {"W": [("wind diagonal, 0.75 x + 0.75 y", 0.75, 0.75)],
                     ("seismic diagonal, 0.707 x + 0.707 y", 0.5**0.5, 0.5**0.5)]}
 
 
-def corner_forces(c, m, lateral, kx, ky):
-    """Base forces of leg m of both frame lines under combination c with the lateral load split kx, ky."""
+def corner_forces(factors, m, lateral, kx, ky):
+    """Base forces of leg m of both frame lines under the combination factors with the lateral load split kx, ky."""
     def base(r, case):
         dg = r.diagram(m, case)
         return dg.N[0], dg.M[0], dg.V[0]
-    fD, fL = c.factors.get("D", 0.0), c.factors.get(lateral, 0.0)
+    fD, fL = factors.get("D", 0.0), factors.get(lateral, 0.0)
     case_h = "Wh" if lateral == "W" else "E"
     Dx, Dy, Hx, Hy = base(res, "D"), base(res_y, "D"), base(res, case_h), base(res_y, case_h)
     Vv = base(res, "Wv") if lateral == "W" else (0.0, 0.0, 0.0)
@@ -249,7 +249,7 @@ for c in combos:
             continue
         for label, kx, ky in splits:
             for m in ("windward", "leeward"):
-                M_r, V_r, P_r, Mx, My = corner_forces(c, m, lateral, kx, ky)
+                M_r, V_r, P_r, Mx, My = corner_forces(c.factors, m, lateral, kx, ky)
                 corner.append((M_r, V_r, P_r, m, c.name, label, Mx, My))
 per_direction = {}
 for row in corner:
@@ -298,13 +298,18 @@ lrfd = basic_combinations("LRFD", ["D", "W", "E"], S_DS=S_DS)
 BASE_SPLITS = {"W": [("wind x", 1.0, 0.0), ("wind y", 0.0, 1.0)] + DIRECTIONS["W"],
                "E": [("seismic x", 1.0, 0.0), ("seismic y", 0.0, 1.0)] + DIRECTIONS["E"]}
 f_in = parse_quantity(rod_f, "rod_f").to("in").magnitude
+k_att = max(float(R_p) / 6.0, 1.0)  # ASCE 7-16 13.4.1: R_p at most 6 for the attachment force
+if k_att > 1.0:
+    base.note(f"R_p = {float(R_p):g} > 6: the seismic forces on the attachment are multiplied by R_p/6 = {k_att:.3g} "
+              "(ASCE 7-16 13.4.1, R_p not larger than 6 for the attachment).")
 rows = []  # (T_1 lbf, kind, combination, direction, leg, N_t, M_x, M_y, V)
 for c in lrfd:
     lateral = "E" if c.factors.get("E", 0.0) else "W"
     splits = BASE_SPLITS[lateral] if c.factors.get(lateral, 0.0) else [("gravity", 0.0, 0.0)]
     for label, kx, ky in splits:
         for m in ("windward", "leeward"):
-            M_r, V_r, P_r, Mx, My = corner_forces(c, m, lateral, kx, ky)
+            factors = {k: v * (k_att if k == "E" else 1.0) for k, v in c.factors.items()}
+            M_r, V_r, P_r, Mx, My = corner_forces(factors, m, lateral, kx, ky)
             rows.append((-P_r / 4 + (abs(Mx) + abs(My)) / (4 * f_in), "seismic" if lateral == "E" and c.factors.get("E") else
                          "wind and gravity", c.name, label, m, -P_r, Mx, My, V_r))
 base.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c in lrfd))
