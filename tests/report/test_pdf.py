@@ -111,7 +111,7 @@ def test_page_count_falls_and_calc_titles_on_their_pages(printed: dict[str, Any]
     assert pages / checks < PAGES_BEFORE / CHECKS_BEFORE, f"{pages} pages for {checks} checks now, {PAGES_BEFORE} for {CHECKS_BEFORE} before"
     joined = "\n".join(printed["texts"])
     assert "typical for L1, L3, L4" in joined and "typical for SP1, SP2, SP3" in joined
-    for mark in ("CS-2", "L1", "L2", "L3", "L4", "SP1", "SP2", "SP3", "C1", "C2", "B1", "KB1", "KB2"):
+    for mark in ("CS-2", "L1", "L2", "L3", "L4", "SP1", "SP2", "SP3", "CF-1", "KB1", "KB2"):
         assert re.search(rf"\b\d+ {re.escape(mark)} ", "".join(printed["texts"][1:5])), mark  # summary rows
 
 
