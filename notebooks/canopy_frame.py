@@ -89,7 +89,6 @@ def steel_of(grade, shape):
 
 
 post_steel, beam_steel = steel_of(post_grade, post_shape), steel_of(beam_grade, beam_shape)
-brace_steel = get_material("A36")
 pinned = beam_to_post.strip().lower().startswith("pinned")
 
 sh = Sheet(calc_heading("Knee-braced canopy frame: analysis, posts and beam", calc_title, member_mark), method=method,
