@@ -306,10 +306,10 @@ def read_shop_table(data: bytes | str, name: str = "shop table") -> ShopTable:
     if len(raw) > MAX_BYTES:
         raise ShopTableError(name, [("", f"{len(raw)} bytes; a shop table is limited to {MAX_BYTES} bytes")])
     try:
-        text = raw.decode("utf-8-sig")
+        text = raw.decode("utf-8")  # kept as read (a BOM too), so the text's digest is the file's
     except UnicodeDecodeError as exc:
         raise ShopTableError(name, [("", f"not UTF-8 text (byte {exc.start}); save the table as CSV UTF-8")]) from None
-    lines = text.splitlines()
+    lines = text.removeprefix("\ufeff").splitlines()
     source_note = ""
     header: dict[int, tuple[str, Any]] | None = None
     header_line = 0
