@@ -226,7 +226,7 @@ def _header(cells: list[str], line: int, problems: list[tuple[str, str]]) -> dic
             problems.append((where, f"unit of {name!r}: {_short(exc)}"))
             continue
         if not _unit_kind_ok(name, Q_(1.0, unit)):
-            problems.append((where, f"unit [{unit_text.strip()}] of {name!r} is not a {kind.strip('[]')} unit; expected e.g. "
+            problems.append((where, f"unit [{unit_text.strip()}] of {name!r} is not {_a(_kind_word(name))} unit; expected e.g. "
                                     f"[{_example_unit(name)}]"))
             continue
         out[i] = (name, unit)
@@ -234,6 +234,14 @@ def _header(cells: list[str], line: int, problems: list[tuple[str, str]]) -> dic
         if req not in seen:
             problems.append((f"row {line}", f"missing column {req!r}" + (f" (write '{req} [{_example_unit(req)}]')" if req in COLUMNS else "")))
     return out
+
+
+def _a(word: str) -> str:
+    return f"an {word}" if word[0] in "aeiou" else f"a {word}"
+
+
+def _kind_word(name: str) -> str:
+    return {"A": "area", "weight": "weight per length"}.get(name, "length")
 
 
 def _example_unit(name: str) -> str:
@@ -264,7 +272,7 @@ def _cell_value(name: str, unit: Any, text: str, where: str) -> float:
             raise ValueError(f"{text!r}; expected a plain number")
         return float(q.magnitude)
     if not _unit_kind_ok(name, q):
-        raise ValueError(f"{text!r} is not a {COLUMNS[name][0].strip('[]')} value")
+        raise ValueError(f"{text!r} is not {_a(_kind_word(name))} value")
     if name == "weight" and q.check("[mass]/[length]"):
         q = (q * Q_(1.0, "standard_gravity")).to("lbf/ft")
     return float(q.to(COLUMNS[name][1]).magnitude)
