@@ -22,6 +22,7 @@ from calcpad.eng.checks import (
     add_block_shear_check,
     add_bolt_line_check,
     add_compression_check,
+    add_euler_load,
     add_fillet_weld_check,
     add_flexure_check,
     add_second_order,
@@ -71,6 +72,7 @@ CASES = {
                    "tension_rows": 1, "anchor": "cast-in headed", "grade": "F1554 Gr 36", "condition": "B"}),
     "second order": (lambda **k: add_second_order(Sheet("f"), HSS, **k), {"P_nt": "5 kip", "M_lt": "3 kip*ft", "L": "10 ft",
                                                                            "sway": "cantilever", "K1": 1.0, "stiffness": "nominal"}),
+    "euler": (lambda **k: add_euler_load(Sheet("f"), L3, **k), {"L": "6 ft", "K": 1.0, "axis": "min", "E": "29000 ksi"}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 
