@@ -105,6 +105,8 @@ def _run(args: argparse.Namespace) -> int:
             out_dir = Path(args.out) if args.out else None
         protect.append(Path(args.target))
     protect += [c.template.path for c in job.calcs]
+    if job.shop_path:
+        protect.append(Path(job.shop_path))  # the shop table is an input too
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
     if args.print is not None:
         check_print_mark(job, args.print, "--print")

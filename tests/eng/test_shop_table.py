@@ -152,7 +152,7 @@ def test_lookup_in_use_and_the_note_on_the_sheet():
         add_compression_check(sh, shape, P="2 kip", L="4 ft", material="ASTM A36", connected_leg="long")
         notes = [s.text for s in sh.steps if getattr(s, "kind", None) == "note" and "shop table" in s.text]
         assert notes == [f"Section L3x3x1/4 KYF: from shop table kyf_sections.csv, row 3 (sha256 {table.sha256[:12]}); the "
-                         "fabricator's own data, not a published table: computed from the row's dimensions."]
+                         "shop's own data, not a published table: computed from the row's dimensions."]
         assert get_section("L3x3x1/4").name == "L3x3x1/4"  # the catalog is still there
     with pytest.raises(Exception, match="not in the catalog"):
         get_section("L3x3x1/4 KYF")

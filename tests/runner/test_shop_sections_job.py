@@ -96,3 +96,13 @@ def test_a_missing_shop_table_file_is_a_job_problem(tmp_path: Path) -> None:
     job.write_text(JOB_HEAD + 'shop_sections = "nowhere.csv"\n' + BRACE, encoding="utf-8")
     with pytest.raises(JobError, match=r"job.shop_sections \(nowhere.csv\): cannot read"):
         load_job(job)
+
+
+def test_the_output_folder_may_not_hold_the_shop_table(tmp_path: Path) -> None:
+    data = tmp_path / "data"
+    data.mkdir()
+    (data / "kyf_sections.csv").write_text(SHOP, encoding="utf-8")
+    job = tmp_path / "job.toml"
+    job.write_text(JOB_HEAD + 'shop_sections = "data/kyf_sections.csv"\n' + BRACE, encoding="utf-8")
+    assert main(["run", str(job), "--out", str(data), "--no-pdf"]) == 2
+    assert sorted(p.name for p in data.iterdir()) == ["kyf_sections.csv"]

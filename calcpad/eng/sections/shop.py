@@ -175,7 +175,7 @@ class ShopTable:
     def note(self, row: ShopRow) -> str:
         """The note a sheet prints where the row is used."""
         return (f"Section {row.designation}: from shop table {self.name}, row {row.row} (sha256 {self.sha256[:12]}); "
-                "the fabricator's own data, not a published table: computed from the row's dimensions.")
+                "the shop's own data, not a published table: computed from the row's dimensions.")
 
 
 def _norm(text: str) -> str:
