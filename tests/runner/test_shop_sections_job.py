@@ -106,3 +106,16 @@ def test_the_output_folder_may_not_hold_the_shop_table(tmp_path: Path) -> None:
     job.write_text(JOB_HEAD + 'shop_sections = "data/kyf_sections.csv"\n' + BRACE, encoding="utf-8")
     assert main(["run", str(job), "--out", str(data), "--no-pdf"]) == 2
     assert sorted(p.name for p in data.iterdir()) == ["kyf_sections.csv"]
+
+
+def test_diff_names_a_changed_shop_table(tmp_path: Path) -> None:
+    from calcpad.runner.diff import diff_records
+
+    job = _job(tmp_path)
+    main(["run", str(job), "--out", str(tmp_path / "a"), "--no-pdf"])
+    (tmp_path / "kyf_sections.csv").write_text(SHOP.replace("1.19,4.1", "1.18,4.0"), encoding="utf-8")
+    main(["run", str(job), "--out", str(tmp_path / "b"), "--no-pdf"])
+    old = json.loads((tmp_path / "a" / "rev-0" / "record.json").read_text(encoding="utf-8"))
+    new = json.loads((tmp_path / "b" / "rev-0" / "record.json").read_text(encoding="utf-8"))
+    d = diff_records(old, new)
+    assert [c.item for c in d.data] == ["shop table kyf_sections.csv"]
