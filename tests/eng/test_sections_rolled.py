@@ -23,6 +23,7 @@ import importlib.resources
 import math
 import sqlite3
 
+import numpy as np
 import pytest
 
 from calcpad.core.errors import InputError
@@ -209,3 +210,27 @@ def test_radii_that_do_not_fit_are_refused():
         RolledChannel(6.0, 1.92, 0.343, 0.2, slope=1 / 6, r2=0.5)
     with pytest.raises(InputError, match="negative"):
         RolledAngle(3.0, 3.0, 0.25, -0.1)
+
+
+@pytest.mark.parametrize("key", list(ORACLE_CASES))
+def test_convex_pieces_tile_the_rolled_outline(key):
+    from calcpad.eng.sections._polygons import N_QUARTER, ring_moments
+
+    shape, _ = ORACLE_CASES[key]
+    pieces = shape.convex_pieces()
+    area = sum(abs(ring_moments(p).A) for p in pieces)
+    outline = ring_moments(shape.regions(N_QUARTER)[0].outer).A
+    assert area == pytest.approx(outline, rel=1e-9)
+    for p in pieces:  # convex and counter-clockwise: every turn is a left turn (or straight)
+        e = np.roll(p, -1, axis=0) - p
+        e_next = np.roll(e, -1, axis=0)
+        assert (e[:, 0] * e_next[:, 1] - e[:, 1] * e_next[:, 0] >= -1e-12).all()
+
+
+def test_a_rolled_angle_in_a_built_up_section():
+    from calcpad.eng.sections import BuiltUp, get_section
+
+    tube = get_section("HSS3x3x3/16")
+    angle = RolledAngle(3.0, 3.0, 0.25)
+    bu = BuiltUp("leg + rolled angle").add(tube, label="leg").add(angle, at=(3.25, 3.25), rotate=180, label="angle")
+    assert bu.props.A == pytest.approx(tube.props.A + angle.props.A, rel=1e-12)
