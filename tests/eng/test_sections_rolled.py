@@ -13,8 +13,11 @@
    (W: r = k_des - tf; C: r1 = half the flange thickness at the web face, r2 = half that at the
    toe; L: r1 = t/2, r2 = t/4). A, I, S, r and Z must agree within 1 % plus half a unit of the
    table's third figure. Rows where our model does not reach 1 % are strict xfails naming the
-   measured deviation, so an improvement shows as XPASS. J is reported, not asserted, against
-   the table: see the module docstring of rolled.py and the report of this branch.
+   measured deviation, so an improvement shows as XPASS. J is not asserted against the table;
+   measured on this branch with the default radii (all rows of each family): W -1.0 .. +8.2 %
+   (107 of 274 within 1 %; light W above the table), C -16.1 .. +1.6 % (1 of 31), L -15.5 ..
+   -4.6 % (0 of 127). Against the finite-element J of the same outline (item 1) ours is within
+   J_BANDS.
 """
 
 from __future__ import annotations
@@ -59,7 +62,7 @@ ORACLE_CASES = {
 }
 
 #: Our J / the oracle's J, as measured on this branch (low and high end of each family's band).
-J_BANDS = {"angle_unequal": (0.93, 1.0), "angle_equal_thin": (0.80, 1.0), "channel_sloped": (0.84, 0.90), "w_fillet": (0.99, 1.03)}
+J_BANDS = {"angle_unequal": (0.93, 1.0), "angle_equal_thin": (0.80, 1.0), "channel_sloped": (0.90, 1.0), "w_fillet": (0.99, 1.03)}
 
 
 @pytest.fixture(scope="module")

@@ -215,10 +215,14 @@ class RolledChannel(_OutlineProps, Channel):
     def _props(self) -> SectionProps:
         d, bf, tf, tw, r1 = self.d, self.bf, self.tf, self.tw, self.r1
         zx, zy = self._outline_z()
-        t = self.t_web
+        t, t_toe = self.t_web, self.t_toe
+        out = bf - tw
+        # each flange: the thin-strip integral (1/3) ∫ t(x)³ dx over its tapered outstand, less
+        # 0.105 t⁴ at the free toe (half the 0.21 t⁴ end correction of a rectangle)
+        flange = (out * (t**4 - t_toe**4) / (4.0 * (t - t_toe)) if t > t_toe else out * tf**3) / 3.0 - 0.105 * t_toe**4
         dia = 2.0 * ((3.0 * r1 + t + tw) - math.sqrt(2.0 * (2.0 * r1 + t) * (2.0 * r1 + tw)))
         alpha = 0.07 * min(t, tw) / max(t, tw)
-        J = 2.0 * rectangle_j(bf, tf) + (d - 2.0 * tf) * tw**3 / 3.0 + 2.0 * alpha * dia**4
+        J = 2.0 * flange + (d - 2.0 * t) * tw**3 / 3.0 + 2.0 * alpha * dia**4
         return self._base_props(
             Zx=zx,
             Zy=zy,
@@ -226,8 +230,8 @@ class RolledChannel(_OutlineProps, Channel):
             ratios={"b/t": bf / tf, "h/tw": (d - 2.0 * self.t_web) / tw},
             notes=[f"rolled outline: flange slope {self.slope:g}, root fillets r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
                    "h taken as d - 2*(flange thickness at the web face)",
-                   "J: flanges as rectangles, web (d - 2 tf) tw**3/3, plus 0.07 (t_min/t_max) D**4 per web-flange junction "
-                   "(El Darwish and Johnston)"],
+                   "J: tapered flanges (1/3)*integral(t**3 dx) - 0.105*t_toe**4, web (d - 2 t_web) tw**3/3, plus "
+                   "0.07 (t_min/t_max) D**4 per web-flange junction (El Darwish and Johnston)"],
         )
 
 
