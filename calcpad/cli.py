@@ -295,6 +295,7 @@ def starter_job(templates: list[str], extra: list[str] | None = None) -> str:
         "date = 2025-01-01",
         'codes = ["AISC 360-16", "ASCE 7-16"]',
         'units = "US"',
+        '# shop_sections = "shop_sections.csv"   # optional: the shop\'s own sections, checked row by row (README)',
     ]
     for name in templates:
         tpl = load_template(find_template(name, extra or []))

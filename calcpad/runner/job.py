@@ -12,6 +12,7 @@
     units = "US"                 # "US" or "SI": display units of sheets that do not fix their own
     paper = "letter"             # optional: "letter" (default) or "a4", the submittal's page size
     print = "full"               # optional: "full", "summary" or "calc:MARK" (what the submittal prints)
+    shop_sections = "shop.csv"   # optional: the shop's own sections (CSV beside the job file)
 
     [[job.revisions]]            # optional revision log, oldest first; must include `revision`
     rev = "A"
