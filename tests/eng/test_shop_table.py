@@ -10,7 +10,6 @@ Digests are computed here with hashlib over the bytes written.
 from __future__ import annotations
 
 import hashlib
-import os
 
 import pytest
 
@@ -38,14 +37,12 @@ C6x8.2 KYF,channel,6.00,,,1.92,0.343,0.200,1/6,2.39,8.2
 
 
 @pytest.fixture(autouse=True)
-def _no_table():
+def _no_table(monkeypatch):
     previous = use_shop_table(None)
-    saved = {k: os.environ.pop(k, None) for k in (ENV_PATH, ENV_SHA256)}
+    monkeypatch.delenv(ENV_PATH, raising=False)
+    monkeypatch.delenv(ENV_SHA256, raising=False)
     yield
     use_shop_table(previous)
-    for k, v in saved.items():
-        if v is not None:
-            os.environ[k] = v
 
 
 def _problems(text: str) -> list[tuple[str, str]]:
@@ -158,12 +155,12 @@ def test_lookup_in_use_and_the_note_on_the_sheet():
         get_section("L3x3x1/4 KYF")
 
 
-def test_a_kernel_reads_the_table_named_by_the_environment_and_checks_its_digest(tmp_path):
+def test_a_kernel_reads_the_table_named_by_the_environment_and_checks_its_digest(tmp_path, monkeypatch):
     f = tmp_path / "shop.csv"
     f.write_text(GOOD, encoding="utf-8")
-    os.environ[ENV_PATH] = str(f)
-    os.environ[ENV_SHA256] = hashlib.sha256(f.read_bytes()).hexdigest()
+    monkeypatch.setenv(ENV_PATH, str(f))
+    monkeypatch.setenv(ENV_SHA256, hashlib.sha256(f.read_bytes()).hexdigest())
     assert get_section("C6x8.2 KYF").name == "C6x8.2 KYF"
-    os.environ[ENV_SHA256] = "0" * 64
+    monkeypatch.setenv(ENV_SHA256, "0" * 64)
     with pytest.raises(ShopTableError, match="changed since the job was read"):
         get_section("C6x8.2 KYF")
