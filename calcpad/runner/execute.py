@@ -277,6 +277,8 @@ def run_job(
     outcomes: list[CalcOutcome] = []
     previous = os.environ.get(SYSTEM_ENV)
     os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
+    # only the job decides which shop table is used: none from the environment of this process
+    stray = {k: os.environ.pop(k) for k in (ENV_PATH, ENV_SHA256) if k in os.environ}
     try:
         shop_env = {ENV_PATH: job.shop_path, ENV_SHA256: job.shop_table.sha256} if job.shop_table is not None and job.shop_path else {}
         with shop_table_in_use(job.shop_table), _session(mode, timeout, job.info.units, shop_env) as session:
@@ -290,4 +292,5 @@ def run_job(
             os.environ.pop(SYSTEM_ENV, None)
         else:
             os.environ[SYSTEM_ENV] = previous
+        os.environ.update(stray)
     return outcomes

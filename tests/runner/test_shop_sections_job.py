@@ -119,3 +119,16 @@ def test_diff_names_a_changed_shop_table(tmp_path: Path) -> None:
     new = json.loads((tmp_path / "b" / "rev-0" / "record.json").read_text(encoding="utf-8"))
     d = diff_records(old, new)
     assert [c.item for c in d.data] == ["shop table kyf_sections.csv"]
+
+
+def test_a_job_without_shop_sections_ignores_a_table_named_in_the_environment(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256
+    from calcpad.runner.execute import run_job
+
+    (tmp_path / "stray.csv").write_text(SHOP, encoding="utf-8")
+    monkeypatch.setenv(ENV_PATH, str(tmp_path / "stray.csv"))
+    monkeypatch.setenv(ENV_SHA256, hashlib.sha256(SHOP.encode("utf-8")).hexdigest())
+    job = tmp_path / "job.toml"
+    job.write_text(JOB_HEAD + BRACE, encoding="utf-8")
+    (outcome,) = run_job(load_job(job))
+    assert outcome.error is not None and "is not in the catalog" in outcome.error["message"]
