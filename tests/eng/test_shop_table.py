@@ -68,6 +68,11 @@ def test_good_table_reads_rows_with_their_line_numbers_and_digest(tmp_path):
     assert chan.props.weight == pytest.approx(8.2, rel=0.02)
 
 
+def test_empty_spreadsheet_rows_are_skipped_and_rows_keep_their_line_numbers():
+    table = read_shop_table(GOOD.replace("\nC6x8.2", "\n,,,,,,,,,,\nC6x8.2"))
+    assert [r.row for r in table.rows] == [3, 5]
+
+
 def test_cells_with_their_own_unit_are_converted():
     text = GOOD.replace("L3x3x1/4 KYF,angle,3,3,1/4,", "L3x3x1/4 KYF,angle,76.2 mm,3,6.35 mm,")
     table = read_shop_table(text)

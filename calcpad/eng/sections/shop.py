@@ -332,6 +332,8 @@ def read_shop_table(data: bytes | str, name: str = "shop table") -> ShopTable:
                 source_note = c.split(":", 1)[1].strip()
             continue
         cells = next(csv.reader([line]))
+        if not any(c.strip() for c in cells):
+            continue  # an empty spreadsheet row (",,,,")
         if header is None:
             header_line = line_no
             header = _header(cells, line_no, problems)
