@@ -105,6 +105,8 @@ def _run(args: argparse.Namespace) -> int:
             out_dir = Path(args.out) if args.out else None
         protect.append(Path(args.target))
     protect += [c.template.path for c in job.calcs]
+    if job.shop_path:
+        protect.append(Path(job.shop_path))  # the shop table is an input too
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
     if args.print is not None:
         check_print_mark(job, args.print, "--print")
@@ -293,6 +295,7 @@ def starter_job(templates: list[str], extra: list[str] | None = None) -> str:
         "date = 2025-01-01",
         'codes = ["AISC 360-16", "ASCE 7-16"]',
         'units = "US"',
+        '# shop_sections = "shop_sections.csv"   # optional: the shop\'s own sections, checked row by row (README)',
     ]
     for name in templates:
         tpl = load_template(find_template(name, extra or []))

@@ -11,7 +11,8 @@
   relative tolerance ``rtol`` (values are compared in the new record's unit); givens that are a
   changed job input are listed once, under ``inputs``;
 - ``templates``: templates of the same name whose source digest changed;
-- ``data``: shipped data files (catalogs, materials) whose digest changed, appeared or went.
+- ``data``: shipped data files (catalogs, materials) and the job's shop table whose digest
+  changed, appeared or went.
 
 ``versions`` (calcpad, Python, libraries) are listed as notes and do not count as a change.
 :func:`diff_table` renders a diff for the terminal (rich), :func:`diff_html` as an HTML fragment
@@ -257,6 +258,15 @@ def _templates(rec: dict[str, Any]) -> dict[str, Any]:
     return out
 
 
+def _data(rec: dict[str, Any]) -> dict[str, Any]:
+    """Digests of the shipped data files and of the shop table the job named (if any)."""
+    out = dict(_mapping(rec.get("data")))
+    shop = _mapping(rec.get("shop_sections"))
+    if shop:
+        out[f"shop table {shop.get('file')}"] = shop.get("sha256")
+    return out
+
+
 def _revision_label(rec: dict[str, Any], fallback: str) -> str:
     rev = _mapping(rec.get("job")).get("revision")
     return str(rev) if rev not in (None, "") else fallback
@@ -276,7 +286,7 @@ def diff_records(old: dict[str, Any], new: dict[str, Any], rtol: float = 1e-6, o
         else:
             _compare_calc(d, olds[key], c)
     _compare_files(d.templates, _templates(old), _templates(new))
-    _compare_files(d.data, _mapping(old.get("data")), _mapping(new.get("data")))
+    _compare_files(d.data, _data(old), _data(new))
     ov, nv = _mapping(old.get("versions")), _mapping(new.get("versions"))
     for name in [*ov, *(n for n in nv if n not in ov)]:
         if ov.get(name) != nv.get(name):

@@ -31,6 +31,7 @@ from typing import Any
 
 from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
+from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 
 __all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
@@ -174,12 +175,15 @@ get_ipython().run_line_magic("reset", "-f")
 class _KernelSession:
     """One Jupyter kernel shared by the calcs of a run (reset between calcs)."""
 
-    def __init__(self, timeout: int, units: str = "US") -> None:
+    def __init__(self, timeout: int, units: str = "US", extra_env: dict[str, str] | None = None) -> None:
         from jupyter_client.manager import KernelManager
 
         self.timeout = timeout
         self.km = KernelManager(kernel_name=KERNEL, transport="ipc")  # local sockets, not TCP
-        env = dict(os.environ, MPLBACKEND="Agg", **{SYSTEM_ENV: units})
+        env = dict(os.environ, MPLBACKEND="Agg", **{SYSTEM_ENV: units}, **(extra_env or {}))
+        if not extra_env or ENV_PATH not in extra_env:
+            env.pop(ENV_PATH, None)
+            env.pop(ENV_SHA256, None)
         self.km.start_kernel(env=env, cwd=os.getcwd())
         self.kc = self.km.client()
         self.kc.start_channels()
@@ -250,11 +254,11 @@ class _KernelSession:
 
 
 @contextlib.contextmanager
-def _session(mode: str, timeout: int, units: str = "US") -> Iterator[_KernelSession | None]:
+def _session(mode: str, timeout: int, units: str = "US", extra_env: dict[str, str] | None = None) -> Iterator[_KernelSession | None]:
     if mode == "inprocess":
         yield None
         return
-    session = _KernelSession(timeout, units)
+    session = _KernelSession(timeout, units, extra_env)
     try:
         yield session
     finally:
@@ -273,8 +277,11 @@ def run_job(
     outcomes: list[CalcOutcome] = []
     previous = os.environ.get(SYSTEM_ENV)
     os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
+    # only the job decides which shop table is used: none from the environment of this process
+    stray = {k: os.environ.pop(k) for k in (ENV_PATH, ENV_SHA256) if k in os.environ}
     try:
-        with _session(mode, timeout, job.info.units) as session:
+        shop_env = {ENV_PATH: job.shop_path, ENV_SHA256: job.shop_table.sha256} if job.shop_table is not None and job.shop_path else {}
+        with shop_table_in_use(job.shop_table), _session(mode, timeout, job.info.units, shop_env) as session:
             for calc in job.calcs:
                 outcome = run_calc_inprocess(calc) if session is None else session.run(calc)
                 outcomes.append(outcome)
@@ -285,4 +292,5 @@ def run_job(
             os.environ.pop(SYSTEM_ENV, None)
         else:
             os.environ[SYSTEM_ENV] = previous
+        os.environ.update(stray)
     return outcomes

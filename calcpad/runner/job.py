@@ -12,6 +12,7 @@
     units = "US"                 # "US" or "SI": display units of sheets that do not fix their own
     paper = "letter"             # optional: "letter" (default) or "a4", the submittal's page size
     print = "full"               # optional: "full", "summary" or "calc:MARK" (what the submittal prints)
+    shop_sections = "shop.csv"   # optional: the shop's own sections (CSV beside the job file)
 
     [[job.revisions]]            # optional revision log, oldest first; must include `revision`
     rev = "A"
@@ -33,7 +34,9 @@ assumed; `calcpad new` writes them all). Template parameters named ``member_mark
 ``calc_title`` and ``calc_note`` are filled by the runner with the member mark, the calc's
 ``title`` and its ``note`` (an engineer's note printed on the sheets of templates that declare it). ``[job]``
 may carry ``basis``: a text or a list of texts stating the design basis (load sources, the
-owner's criteria), printed in the submittal's design criteria. The job file is data only:
+owner's criteria), printed in the submittal's design criteria, and ``shop_sections``: a CSV file
+(relative to the job file) of the shop's own sections, validated row by row
+(:mod:`calcpad.eng.sections.shop`); its problems are the job's problems. The job file is data only:
 nothing in it is executed, and a template is named, never pointed at: it is looked up in the
 template library folders (:func:`~calcpad.runner.template.find_template`), and names that are
 paths are refused. Validation
@@ -58,6 +61,7 @@ import pint
 
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
+from calcpad.eng.sections.shop import ShopTable, ShopTableError, load_shop_table
 from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
 
 __all__ = [
@@ -74,14 +78,15 @@ __all__ = [
     "single_template_job",
 ]
 
-JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "paper", "print", "revisions", "basis")
+JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revision", "date", "codes", "units", "paper", "print", "revisions",
+            "basis", "shop_sections")
 PAPERS = ("letter", "a4")
 REVISION_KEYS = ("rev", "date", "description", "by")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
 CALC_KEYS = ("template", "member", "members", "title", "note", "inputs")
 #: Template parameters the runner fills from the job: the member mark and the calc's title.
 CONTEXT_PARAMETERS = ("member_mark", "calc_title", "calc_note")
-_OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions", "basis")
+_OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions", "basis", "shop_sections")
 _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
 
@@ -150,6 +155,9 @@ class Job:
     source: str = ""
     text: str | None = None  # the job file text as read (None for a one-template --set run)
     library: tuple[str, ...] = ()  # extra template library folders (--templates) the job was read with
+    shop_table: ShopTable | None = None  # [job] shop_sections: the shop's own validated section table
+    shop_file: str = ""  # the shop_sections value as written in the job file
+    shop_path: str = ""  # its absolute path ("" when the table came from a record)
 
 
 def input_record(value: str | float, kind: str | None = None) -> dict[str, Any]:
@@ -340,10 +348,31 @@ def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], 
     return {n: full[n] for n in tpl.parameters if n not in CONTEXT_PARAMETERS}
 
 
-def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Path] = ()) -> Job:
+def _shop_sections(raw: Any, base_dir: Path, preloaded: ShopTable | None, problems: list[tuple[str, str]]) -> tuple[ShopTable | None, str, str]:
+    """The ``[job] shop_sections`` table: (table, value as written, absolute path)."""
+    where = "job.shop_sections"
+    if not isinstance(raw, str) or not raw.strip():
+        problems.append((where, f"{raw!r}; expected the path of a CSV file relative to the job file, e.g. \"shop_sections.csv\""))
+        return None, "", ""
+    value = raw.strip()
+    if preloaded is not None:
+        return preloaded, value, ""
+    path = (base_dir / value).resolve()
+    try:
+        return load_shop_table(path, value), value, str(path)
+    except ShopTableError as exc:
+        problems.extend((f"{where} ({value}){': ' + loc if loc else ''}", msg) for loc, msg in exc.problems)
+        return None, value, str(path)
+
+
+def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Path] = (), *, base_dir: str | Path | None = None,
+              shop_table: ShopTable | None = None) -> Job:
     """Validate job-file text. Raises JobError listing every problem found.
 
     ``templates``: extra template library folders (``--templates``), searched first.
+    ``base_dir``: folder that relative paths in the job (``shop_sections``) start from; default
+    the folder of ``source``. ``shop_table``: an already validated table to use for
+    ``shop_sections`` instead of reading the file (a re-run from a record).
     """
     try:
         raw = tomllib.loads(text)
@@ -357,6 +386,10 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
         if key not in ("job", "calcs"):
             problems.append((key, f"unknown top-level key{_suggest(key, ('job', 'calcs'))} (allowed: [job] and [[calcs]])"))
     info = _job_info(raw.get("job"), problems)
+    shop: tuple[ShopTable | None, str, str] = (None, "", "")
+    if isinstance(raw.get("job"), dict) and "shop_sections" in raw["job"]:
+        base = Path(base_dir) if base_dir is not None else Path(source).parent
+        shop = _shop_sections(raw["job"]["shop_sections"], base, shop_table, problems)
     calcs_raw = raw.get("calcs")
     calcs: list[Calc] = []
     if not isinstance(calcs_raw, list) or not calcs_raw or not all(isinstance(c, dict) for c in calcs_raw):
@@ -401,7 +434,7 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
         problems.append(("job.print", f"{info.print!r}: no member {mode[1]!r} in the job{_suggest(mode[1], marks)} (marks: {', '.join(marks)})"))
     if problems:
         raise JobError(source, problems)
-    return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates))
+    return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates), *shop)
 
 
 def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:

@@ -11,6 +11,7 @@ Record format ``"calcpad-job-record/2"``::
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
      "templates": [{"name", "file", "sha256"}],      # every template the calcs used
      "data": {"eng/sections/data/pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
+     "shop_sections": {"file", "sha256", "rows", "source", "text"},   # only when [job] shop_sections is set
      "summary": {"calcs", "checks", "ok", "ng", "errors", "status", "slender"},
      "calcs": [{"number", "location", "template", "template_title", "template_file",
                 "template_sha256", "member", "title",
@@ -28,7 +29,9 @@ Record format ``"calcpad-job-record/2"``::
 - Digests are SHA-256 in hex. ``sha256`` of a template is over its source file's bytes (the
   ``.py`` or ``.ipynb`` that ran). ``data`` digests every data file shipped with calcpad
   (section catalogs and materials): a catalog lookup reads the whole catalog, so all of them
-  count as used.
+  count as used. ``shop_sections`` is the shop's own table the job named: the file name as
+  written in the job, the SHA-256 of its bytes, its row count, its ``# source:`` line and its
+  text (so ``calcpad verify`` re-runs with exactly the rows that ran).
 - ``record_digest`` (:func:`record_digest`) is over ``json.dumps(sort_keys=True,
   separators=(",", ":"), ensure_ascii=False)`` of the record without ``run`` and without
   ``record_digest`` itself: a hand edit of any other field breaks it. Its first 12 hex digits
@@ -69,6 +72,7 @@ __all__ = [
     "package_versions",
     "record_digest",
     "seal",
+    "shop_sections_record",
     "short_digest",
     "template_list",
 ]
@@ -228,6 +232,13 @@ def _job_file(job: Job) -> dict[str, Any]:
     }
 
 
+def shop_sections_record(job: Job) -> dict[str, Any]:
+    """The record's ``shop_sections`` block of a job that names a shop table."""
+    t = job.shop_table
+    assert t is not None
+    return {"file": job.shop_file, "sha256": t.sha256, "rows": len(t.rows), "source": t.source_note, "text": t.text}
+
+
 def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float) -> dict[str, Any]:
     """Build the job record dictionary, sealed with its ``record_digest``."""
     template_shas: dict[Path, str] = {}
@@ -246,6 +257,7 @@ def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float)
         "versions": package_versions(),
         "templates": template_list(calcs),
         "data": data_digests(),
+        **({"shop_sections": shop_sections_record(job)} if job.shop_table is not None else {}),
         "summary": job_summary(calcs),
         "calcs": calcs,
         "run": {"mode": mode, "seconds": round(seconds, 3), "created": dt.datetime.now(dt.UTC).isoformat(timespec="seconds")},

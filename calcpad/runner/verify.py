@@ -94,7 +94,7 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
     library = [*templates, *(d for d in recorded if isinstance(d, str) and Path(d).is_dir())]
     text = jf.get("text")
     if isinstance(text, str):
-        job = parse_job(text, str(jf.get("source") or "job text in the record"), library)
+        job = parse_job(text, str(jf.get("source") or "job text in the record"), library, shop_table=recorded_shop_table(record))
     else:
         calcs = record.get("calcs") or []
         if len(calcs) != 1 or not isinstance(jf.get("source"), str):
@@ -106,6 +106,24 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
     start = time.perf_counter()
     outcomes = run_job(job, mode="inprocess")
     return job_record(job, outcomes, "inprocess", time.perf_counter() - start)
+
+
+def recorded_shop_table(record: dict[str, Any]) -> Any:
+    """The shop table held in the record (validated again from its text), or None.
+
+    Raises CalcpadError when the text no longer matches its digest or no longer validates.
+    """
+    block = record.get("shop_sections")
+    if block is None:
+        return None
+    from calcpad.eng.sections.shop import read_shop_table
+
+    text = block.get("text") if isinstance(block, dict) else None
+    if not isinstance(text, str):
+        raise CalcpadError("the record's shop_sections block holds no table text; cannot rebuild its sections")
+    if hashlib.sha256(text.encode("utf-8")).hexdigest() != block.get("sha256"):
+        raise CalcpadError("the shop table text in the record does not match its recorded digest (shop_sections.sha256)")
+    return read_shop_table(text, str(block.get("file") or "shop table in the record"))
 
 
 _RERUN_CALC_FIELDS = ("number", "location", "title", "template_title", "template_file", "member", "template")
@@ -183,6 +201,9 @@ def verify_record(record: dict[str, Any], rtol: float = DEFAULT_RTOL, path: Path
     text, sha = jf.get("text"), jf.get("sha256")
     if isinstance(text, str) and hashlib.sha256(text.encode("utf-8")).hexdigest() != sha:
         report.problems.append("the job file text does not match its recorded digest (job_file.sha256)")
+    shop = record.get("shop_sections")
+    if isinstance(shop, dict) and isinstance(shop.get("text"), str) and hashlib.sha256(shop["text"].encode("utf-8")).hexdigest() != shop.get("sha256"):
+        report.problems.append("the shop table text does not match its recorded digest (shop_sections.sha256)")
     report.fields = _derived_fields(record)
     try:
         new = rerun_record(record, templates)

@@ -22,6 +22,7 @@ from calcpad.eng.checks import (
     add_block_shear_check,
     add_bolt_line_check,
     add_compression_check,
+    add_euler_load,
     add_fillet_weld_check,
     add_flexure_check,
     add_leg_base_uplift_check,
@@ -75,6 +76,7 @@ CASES = {
     "leg base uplift": (lambda **k: add_leg_base_uplift_check(Sheet("f", method="LRFD"), **k),
                         {"N_t": "400 lbf", "M_x": "1.5 kip*in", "M_y": "-2 kip*in", "f": "2.75 in", "t_p": "1/2 in",
                          "D_leg": "2.375 in", "F_y": "36 ksi"}),
+    "euler": (lambda **k: add_euler_load(Sheet("f"), L3, **k), {"L": "6 ft", "K": 1.0, "axis": "min", "E": "29000 ksi"}),
     "member": (lambda **k: check_member(Sheet("f"), HSS, **k), {"L": "8 ft", "P": "5 kip", "M_x": "3 kip*ft", "V": "1 kip", "F_y": "50 ksi"}),
 }
 

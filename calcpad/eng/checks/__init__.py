@@ -26,6 +26,7 @@ from calcpad.eng.checks.bolts import BOLT_GRADES, add_bolt_line_check
 from calcpad.eng.checks.classify import add_classification
 from calcpad.eng.checks.combined import add_interaction_check
 from calcpad.eng.checks.compression import add_compression_check
+from calcpad.eng.checks.euler import EULER_AXES, add_euler_load
 from calcpad.eng.checks.flexure import add_flexure_check
 from calcpad.eng.checks.frame_member import MemberForces, check_frame_member, frame_member_forces
 from calcpad.eng.checks.leg_base import add_leg_base_uplift_check
@@ -41,6 +42,7 @@ from calcpad.eng.checks.welds import add_fillet_weld_check, add_stitch_weld_chec
 __all__ = [
     "ANCHOR_GRADES",
     "BOLT_GRADES",
+    "EULER_AXES",
     "KINDS",
     "PROPS",
     "RESISTANCE",
@@ -56,6 +58,7 @@ __all__ = [
     "add_bolt_line_check",
     "add_classification",
     "add_compression_check",
+    "add_euler_load",
     "add_fillet_weld_check",
     "add_flexure_check",
     "add_interaction_check",

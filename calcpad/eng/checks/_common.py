@@ -24,6 +24,7 @@ from calcpad.core.errors import InputError, NotCoveredError
 from calcpad.core.names import is_valid_name
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import Q_, parse_quantity
+from calcpad.eng.sections.shop import note_shop_section
 
 __all__ = ["RESISTANCE", "Calc", "CheckInputError", "CheckNotCoveredError", "CheckWarning"]
 
@@ -181,8 +182,9 @@ class Calc:
 
     def prop(self, base: str, value: float, unit: str, description: str, source: str, *, shared: bool = False) -> None:
         """Add a section property (float in ``unit``), shown to 4 significant figures in the
-        sheet's unit system."""
+        sheet's unit system. A section from the shop's own table gets its note once per sheet."""
         self.given(base, self.in_system(value, unit) if unit else float(value), description, source, sig=4, shared=shared)
+        note_shop_section(self.sh, source)
 
     def in_system(self, value: float, unit: str) -> str | pint.Quantity:
         """A catalog value (not one the engineer typed) in the sheet's unit system: as

@@ -84,6 +84,9 @@ _CLASS_KIND = {
     "RoundBar": "round_bar",
     "Tee": "tee",
     "Channel": "channel",
+    "RolledAngle": "angle",
+    "RolledChannel": "channel",
+    "RolledIShape": "i_shape",
 }
 
 

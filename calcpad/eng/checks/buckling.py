@@ -18,7 +18,7 @@ from typing import Any
 from calcpad.eng.checks._common import Calc, CheckInputError, CheckNotCoveredError, warn
 from calcpad.eng.checks._section import Sec
 
-__all__ = ["E5_CASES", "validate_angle_e5", "write_elastic_buckling"]
+__all__ = ["E5_CASES", "validate_angle_e5", "write_e3_transition", "write_elastic_buckling"]
 
 #: Single-angle E5 cases: truss kind -> (limit, (a1, b1), (a2, b2), short-leg add, floor on L/r_z).
 E5_CASES: dict[str, tuple[float, tuple[float, float], tuple[float, float], float, float, str]] = {
@@ -79,6 +79,13 @@ def write_elastic_buckling(
         return True
     calc.step("F_e", "pi**2*E/KL_r**2", "Elastic buckling stress", unit="ksi", ref="AISC 360-16 Eq. E3-4")
     return False
+
+
+def write_e3_transition(calc: Calc) -> str:
+    """Write the slenderness where E3 changes from inelastic (E3-2) to elastic (E3-3) buckling,
+    4.71*sqrt(E/F_y) (``E`` and ``F_y`` must be on the sheet); returns its sheet name."""
+    return calc.step("KL_r_lim", "4.71*sqrt(E/F_y)", "Slenderness at the change from inelastic to elastic buckling",
+                     ref="AISC 360-16 E3(a)")
 
 
 def _two_axes(calc: Calc, sec: Sec, L_y: Any, K_y: Any) -> None:

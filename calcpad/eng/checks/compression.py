@@ -15,7 +15,7 @@ from calcpad.core.results import NOT_COVERED, OK_SLENDER
 from calcpad.core.sheet import Sheet
 from calcpad.eng.checks._common import Calc, CheckNotCoveredError, add_material, add_props, check_k, check_length
 from calcpad.eng.checks._section import Sec, resolve_section
-from calcpad.eng.checks.buckling import validate_angle_e5, write_elastic_buckling
+from calcpad.eng.checks.buckling import validate_angle_e5, write_e3_transition, write_elastic_buckling
 from calcpad.eng.checks.classify import write_elements
 
 __all__ = ["add_compression_check"]
@@ -97,7 +97,11 @@ def add_compression_check(
     write_elements(calc, sec, "compression")
 
     by_stress = write_elastic_buckling(calc, sec, L_y=L_y, K_y=K_y, L_z=L_z, K_z=K_z, r=r, connected_leg=connected_leg, truss=truss)
-    limit = "F_y/F_e <= 2.25" if by_stress else "KL_r <= 4.71*sqrt(E/F_y)"
+    if by_stress:
+        limit = "F_y/F_e <= 2.25"
+    else:
+        write_e3_transition(calc)
+        limit = "KL_r <= KL_r_lim"
     calc.branch(
         "F_cr",
         [(limit, "0.658**(F_y/F_e)*F_y", "inelastic buckling, Eq. E3-2"),

@@ -16,7 +16,9 @@ from calcpad.eng.sections.builtup import BuiltUp, OverlapWarning, compare_sectio
 from calcpad.eng.sections.catalog import FAMILIES, designations, find_sections, get_entry, get_section, section_table
 from calcpad.eng.sections.plot import draw_sections
 from calcpad.eng.sections.props import SectionProps
+from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, RectBar, RectTube, RoundBar, RoundTube, Shape, Tee
+from calcpad.eng.sections.shop import ShopTable, ShopTableError, load_shop_table, shop_table_in_use, use_shop_table
 from calcpad.eng.sections.steps import (
     add_builtup_steps,
     add_rect_tube_steps,
@@ -34,10 +36,15 @@ __all__ = [
     "OverlapWarning",
     "RectBar",
     "RectTube",
+    "RolledAngle",
+    "RolledChannel",
+    "RolledIShape",
     "RoundBar",
     "RoundTube",
     "SectionProps",
     "Shape",
+    "ShopTable",
+    "ShopTableError",
     "Tee",
     "add_builtup_steps",
     "add_rect_tube_steps",
@@ -50,5 +57,8 @@ __all__ = [
     "find_sections",
     "get_entry",
     "get_section",
+    "load_shop_table",
     "section_table",
+    "shop_table_in_use",
+    "use_shop_table",
 ]

@@ -359,6 +359,11 @@ def get_section(designation: str, wall: str = "design") -> Shape:
     """
     if wall not in _WALLS:
         raise InputError(f"wall: {wall!r}; expected 'design' (0.93 x nominal for ERW, AISC 360-16 B4.2) or 'nominal'")
+    from calcpad.eng.sections.shop import shop_section  # the shop's own table, when one is in use (names never clash)
+
+    own = shop_section(designation)
+    if own is not None:
+        return own
     try:
         return get_entry(designation).shape(wall)
     except InputError:

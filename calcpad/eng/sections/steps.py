@@ -16,6 +16,7 @@ from calcpad.core.units import Q_
 from calcpad.eng.sections.builtup import BuiltUp
 from calcpad.eng.sections.props import UNITS
 from calcpad.eng.sections.shapes import RectTube, RoundTube, Shape
+from calcpad.eng.sections.shop import note_shop_section
 
 __all__ = ["add_builtup_steps", "add_rect_tube_steps", "add_round_tube_steps", "add_shape_props"]
 
@@ -131,6 +132,7 @@ def add_shape_props(sheet: Any, shape: Shape | BuiltUp, suffix: str = "", *, nam
         name = _n(step_name, suffix)
         sheet.given(name, Q_(p.value(prop), UNITS[prop]), desc, source=src)
         out[step_name] = name
+    note_shop_section(sheet, shape.name)
     return out
 
 
@@ -230,6 +232,7 @@ def add_section_steps(sheet: Any, shape: Shape, suffix: str = "", *, source: str
     same step names for x and y).
     """
     src = source if source is not None else shape.name
+    note_shop_section(sheet, shape.name)
     if isinstance(shape, RoundTube):
         n = add_round_tube_steps(sheet, shape.D, shape.t, suffix, source=src)
         return {**n, "I_x": n["I"], "S_x": n["S"], "Z_x": n["Z"], "r_x": n["r"],

@@ -1,0 +1,255 @@
+"""Hot-rolled shapes with their fillets and toe radii: angles, channels and I-shapes.
+
+The closed-form shapes of :mod:`calcpad.eng.sections.shapes` model angles as two rectangles
+and channels without fillets; the classes here draw the rolled outline (root fillet between
+web and flange or between the legs, rounded toes, sloped flange faces) and take A, I, S, r
+and Z from that outline, so that a size the catalog does not list (a shop's own sizes, an old
+or foreign rolling) comes out as the published tables compute it. The outline is a polygon
+with the arcs drawn at :data:`ARC_SEGMENTS` segments per quarter circle (area of a fillet low
+by about 1e-4 of the fillet, far below the tables' three figures).
+
+The torsional constant J of a rolled shape is not a property of the outline that a closed form
+gives exactly; it is taken from the approximations of El Darwish and Johnston (1965) for the
+rectangles plus a term for each fillet junction, as AISC Design Guide 9 (Torsional Analysis of
+Structural Steel Members, 1997, Appendix A) gives them (from memory; the tests compare the
+results with the AISC Shapes Database and with a finite-element solution by sectionproperties).
+
+Frames are those of the plain shapes: heel (angles) or back of web (channels) at the origin,
+lower-left corner of the bounding box at (0, 0).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from calcpad.core.errors import InputError
+from calcpad.eng.sections._moments import Moments
+from calcpad.eng.sections._polygons import N_QUARTER, Region, plastic_modulus, ring_moments
+from calcpad.eng.sections.props import SectionProps, length_in
+from calcpad.eng.sections.shapes import Angle, Channel, IShape
+
+__all__ = ["ARC_SEGMENTS", "RolledAngle", "RolledChannel", "RolledIShape", "rectangle_j"]
+
+#: Segments per quarter circle of the outline the properties are integrated over.
+ARC_SEGMENTS = 64
+
+
+def rectangle_j(b: float, t: float) -> float:
+    """Torsional constant of a b x t rectangle (b >= t), b t³ (1/3 - 0.21 (t/b)(1 - t⁴/(12 b⁴)))."""
+    b, t = max(b, t), min(b, t)
+    return b * t**3 * (1.0 / 3.0 - 0.21 * (t / b) * (1.0 - t**4 / (12.0 * b**4)))
+
+
+def _round_corners(pts: list[tuple[float, float]], radii: list[float], n_quarter: int) -> np.ndarray:
+    """Ring of ``pts`` (CCW) with each corner ``i`` replaced by a tangent arc of radius ``radii[i]``.
+
+    The arc is tangent to both edges at a vertex (convex or re-entrant); ``radii[i] = 0`` keeps
+    the sharp corner. Segments per arc scale with its turning angle (``n_quarter`` per 90 deg).
+    """
+    p = np.asarray(pts, dtype=float)
+    n = len(p)
+    out: list[np.ndarray] = []
+    for i in range(n):
+        r = radii[i]
+        if r <= 0.0:
+            out.append(p[i][None, :])
+            continue
+        u = p[i - 1] - p[i]
+        v = p[(i + 1) % n] - p[i]
+        lu, lv = float(np.hypot(*u)), float(np.hypot(*v))
+        u, v = u / lu, v / lv
+        half = 0.5 * math.acos(max(-1.0, min(1.0, float(u @ v))))
+        tan_len = r / math.tan(half)
+        if tan_len > min(lu, lv) + 1e-12:
+            raise InputError(f"corner radius: {r:g} in does not fit on the edges at a corner of the outline "
+                             f"(needs {tan_len:g} in of straight edge, has {min(lu, lv):g} in)")
+        bis = (u + v) / float(np.hypot(*(u + v)))
+        c = p[i] + bis * (r / math.sin(half))
+        t1, t2 = p[i] + u * tan_len, p[i] + v * tan_len
+        a1 = math.atan2(t1[1] - c[1], t1[0] - c[0])
+        a2 = math.atan2(t2[1] - c[1], t2[0] - c[0])
+        sweep = (a2 - a1 + math.pi) % (2.0 * math.pi) - math.pi  # the short way round
+        k = max(2, math.ceil(abs(sweep) / (math.pi / 2.0) * n_quarter))
+        ang = a1 + sweep * np.linspace(0.0, 1.0, k + 1)
+        out.append(np.column_stack((c[0] + r * np.cos(ang), c[1] + r * np.sin(ang))))
+    return np.vstack(out)
+
+
+def _fan(corner: np.ndarray, arc_pts: np.ndarray) -> list[np.ndarray]:
+    """CCW triangles from a sharp corner to consecutive points of the arc that replaced it."""
+    tris = []
+    for i in range(len(arc_pts) - 1):
+        tri = np.array([corner, arc_pts[i], arc_pts[i + 1]])
+        x, y = tri[:, 0], tri[:, 1]
+        if float(np.sum(x * np.roll(y, -1) - np.roll(x, -1) * y)) < 0:
+            tri = tri[::-1]
+        tris.append(tri)
+    return tris
+
+
+class _OutlineProps:
+    """Mixin: A, I from the polygon outline; Z from its plastic neutral axes."""
+
+    def _outline(self, n_quarter: int) -> np.ndarray:
+        raise NotImplementedError
+
+    def moments(self) -> Moments:
+        """Area integrals of the outline (arcs at :data:`ARC_SEGMENTS` per quarter circle)."""
+        return ring_moments(self._outline(ARC_SEGMENTS))
+
+    def regions(self, n_quarter: int = N_QUARTER) -> list[Region]:
+        """Outline as one polygon."""
+        return [Region(self._outline(n_quarter))]
+
+    def _outline_z(self) -> tuple[float, float]:
+        ring = [self._outline(ARC_SEGMENTS)]
+        return plastic_modulus(ring, "x")[0], plastic_modulus(ring, "y")[0]
+
+
+class RolledAngle(_OutlineProps, Angle):
+    """Rolled angle with a root fillet ``r1`` at the inside corner and toe radii ``r2``.
+
+    Legs and frame as :class:`~calcpad.eng.sections.shapes.Angle` (long leg ``d`` up the y
+    axis). Without radii, ``r1 = t/2`` and ``r2 = t/4`` (our default: among the simple rules we
+    scanned it brought the most AISC Shapes Database angles within 1 % on A, I, S, Z, r and the
+    centroid, 73 of 127; no single rule reaches all of them, light angles differ most, see
+    ``tests/eng/test_sections_rolled.py``); give the mill's radii where known.
+    """
+
+    kind = "angle"
+
+    def __init__(self, d: object, b: object, t: object, r1: object = None, r2: object = None, *, name: str | None = None,
+                 **kw: object) -> None:
+        super().__init__(d, b, t, name=name, **kw)  # type: ignore[arg-type]
+        self.r1 = self.t / 2.0 if r1 is None else length_in(r1, "r1 (root fillet radius)", allow_zero=True)
+        self.r2 = self.t / 4.0 if r2 is None else length_in(r2, "r2 (toe radius)", allow_zero=True)
+        if self.r2 > self.t:
+            raise InputError(f"r2 (toe radius): {self.r2:g} in; expected at most the thickness t = {self.t:g} in")
+        for leg, name_ in ((self.d, "d"), (self.b, "b")):
+            if self.t + self.r1 + self.r2 > leg:
+                raise InputError(f"r1 (root fillet radius): {self.r1:g} in; expected t + r1 + r2 to fit on leg {name_} = {leg:g} in")
+
+    def _default_name(self) -> str:
+        return f"Rolled angle {self.d:g} x {self.b:g} x {self.t:g}"
+
+    def _outline(self, n_quarter: int) -> np.ndarray:
+        b, d, t = self.b, self.d, self.t
+        pts = [(0.0, 0.0), (b, 0.0), (b, t), (t, t), (t, d), (0.0, d)]
+        return _round_corners(pts, [0.0, 0.0, self.r2, self.r1, self.r2, 0.0], n_quarter)
+
+    def convex_pieces(self, n_quarter: int = N_QUARTER) -> list[np.ndarray]:
+        """Legs with their rounded toes and the root fillet as a fan of triangles."""
+        b, d, t, r1, r2 = self.b, self.d, self.t, self.r1, self.r2
+        horiz = _round_corners([(0.0, 0.0), (b, 0.0), (b, t), (0.0, t)], [0.0, 0.0, r2, 0.0], n_quarter)
+        vert = _round_corners([(0.0, t), (t, t), (t, d), (0.0, d)], [0.0, 0.0, r2, 0.0], n_quarter)
+        pieces = [horiz, vert]
+        if r1 > 0.0:
+            corner = np.array([t, t])
+            fil = _round_corners([(t + r1, t), (t, t), (t, t + r1)], [0.0, r1, 0.0], n_quarter)
+            pieces += _fan(corner, fil[1:-1])
+        return pieces
+
+    def _props(self) -> SectionProps:
+        b, d, t, r1 = self.b, self.d, self.t, self.r1
+        zx, zy = self._outline_z()
+        # L-junction of equal thicknesses (El Darwish & Johnston; AISC Design Guide 9, from memory)
+        dia = 2.0 * ((3.0 * r1 + 2.0 * t) - math.sqrt(2.0 * (2.0 * r1 + t) ** 2))
+        J = rectangle_j(b, t) + rectangle_j(d - t, t) + 0.07 * dia**4
+        return self._base_props(
+            Zx=zx,
+            Zy=zy,
+            J=J,
+            ratios={"b/t": b / t, "d/t": d / t},
+            notes=[f"rolled outline: root fillet r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
+                   "J: rectangles b*t**3*(1/3 - 0.21*(t/b)*(1 - t**4/(12*b**4))) plus 0.07*D**4 for the heel "
+                   "(El Darwish and Johnston)",
+                   "principal axes: I_max, I_min (= I_z), r_min (= r_z), theta_p"],
+        )
+
+
+class RolledChannel(_OutlineProps, Channel):
+    """Rolled channel: sloped inner flange faces, root fillets ``r1`` and toe radii ``r2``.
+
+    Dimensions and frame as :class:`~calcpad.eng.sections.shapes.Channel` (``tf`` at the middle
+    of the outstand, ``slope`` 1/6 for C; MC slopes vary by series). Without radii, ``r1`` is
+    half the flange thickness at the web face and ``r2`` three quarters of the flange thickness
+    at the toe (our default: the simple fractions that brought the most AISC Shapes Database C
+    rows within 1 %, 26 of 31, when we scanned them; see ``tests/eng/test_sections_rolled.py``);
+    give the mill's radii where known.
+    """
+
+    kind = "channel"
+
+    def __init__(self, d: object, bf: object, tf: object, tw: object, *, slope: float = 0.0, r1: object = None,
+                 r2: object = None, name: str | None = None, **kw: object) -> None:
+        super().__init__(d, bf, tf, tw, slope=slope, name=name, **kw)  # type: ignore[arg-type]
+        self.r1 = self.t_web / 2.0 if r1 is None else length_in(r1, "r1 (root fillet radius)", allow_zero=True)
+        self.r2 = 0.75 * self.t_toe if r2 is None else length_in(r2, "r2 (toe radius)", allow_zero=True)
+        if self.r2 > self.t_toe:
+            raise InputError(f"r2 (toe radius): {self.r2:g} in; expected at most the flange thickness at the toe, {self.t_toe:g} in")
+        if 2.0 * (self.t_web + self.r1) > self.d:
+            raise InputError(f"r1 (root fillet radius): {self.r1:g} in; expected fillets that fit between the flanges "
+                             f"(d = {self.d:g} in)")
+        self._outline(4)  # raises when a radius does not fit on its edges
+
+    def _default_name(self) -> str:
+        return f"Rolled channel {self.d:g} x {self.bf:g}"
+
+    def _outline(self, n_quarter: int) -> np.ndarray:
+        r1, r2 = self.r1, self.r2
+        return _round_corners([tuple(p) for p in self._ring()], [0.0, 0.0, r2, r1, r1, r2, 0.0, 0.0], n_quarter)
+
+    def convex_pieces(self, n_quarter: int = N_QUARTER) -> list[np.ndarray]:
+        """Flanges with rounded toes, the web, and each root fillet as a fan of triangles."""
+        d, bf, tw, t0, t1, r1, r2 = self.d, self.bf, self.tw, self.t_web, self.t_toe, self.r1, self.r2
+        bot = _round_corners([(0, 0), (bf, 0), (bf, t1), (tw, t0), (0, t0)], [0, 0, r2, 0, 0], n_quarter)
+        top = _round_corners([(0, d - t0), (tw, d - t0), (bf, d - t1), (bf, d), (0, d)], [0, 0, r2, 0, 0], n_quarter)
+        web = np.array([[0, t0], [tw, t0], [tw, d - t0], [0, d - t0]], dtype=float)
+        pieces = [bot, top, web]
+        if r1 > 0.0:
+            for corner, a, b in (((tw, t0), (bf, t1), (tw, d / 2.0)), ((tw, d - t0), (tw, d / 2.0), (bf, d - t1))):
+                fil = _round_corners([a, corner, b], [0.0, r1, 0.0], n_quarter)
+                pieces += _fan(np.array(corner, dtype=float), fil[1:-1])
+        return pieces
+
+    def _props(self) -> SectionProps:
+        d, bf, tf, tw, r1 = self.d, self.bf, self.tf, self.tw, self.r1
+        zx, zy = self._outline_z()
+        t, t_toe = self.t_web, self.t_toe
+        out = bf - tw
+        # each flange: the thin-strip integral (1/3) ∫ t(x)³ dx over its tapered outstand, less
+        # 0.105 t⁴ at the free toe (half the 0.21 t⁴ end correction of a rectangle)
+        flange = (out * (t**4 - t_toe**4) / (4.0 * (t - t_toe)) if t > t_toe else out * tf**3) / 3.0 - 0.105 * t_toe**4
+        dia = 2.0 * ((3.0 * r1 + t + tw) - math.sqrt(2.0 * (2.0 * r1 + t) * (2.0 * r1 + tw)))
+        alpha = 0.07 * min(t, tw) / max(t, tw)
+        J = 2.0 * flange + (d - 2.0 * t) * tw**3 / 3.0 + 2.0 * alpha * dia**4
+        return self._base_props(
+            Zx=zx,
+            Zy=zy,
+            J=J,
+            ratios={"b/t": bf / tf, "h/tw": (d - 2.0 * self.t_web) / tw},
+            notes=[f"rolled outline: flange slope {self.slope:g}, root fillets r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
+                   "h taken as d - 2*(flange thickness at the web face)",
+                   "J: tapered flanges (1/3)*integral(t**3 dx) - 0.105*t_toe**4, web (d - 2 t_web) tw**3/3, plus "
+                   "0.07 (t_min/t_max) D**4 per web-flange junction (El Darwish and Johnston)"],
+        )
+
+
+class RolledIShape(IShape):
+    """Rolled I-shape (W, M, S, HP): :class:`~calcpad.eng.sections.shapes.IShape` with the
+    torsional constant of El Darwish and Johnston (flanges, web and the two fillet junctions)
+    instead of the thin-wall sum. ``r`` is the fillet radius, ``k_des - tf`` for W-shapes."""
+
+    def _props(self) -> SectionProps:
+        p = super()._props()
+        d, bf, tf, tw, r = self.d, self.bf, self.tf, self.tw, self.r
+        dia = ((tf + r) ** 2 + tw * (r + tw / 4.0)) / (2.0 * r + tf)
+        t_min, t_max = min(tf, tw), max(tf, tw)
+        alpha = (t_min / t_max) * (0.15 + 0.10 * r / t_max)
+        p.J = 2.0 * rectangle_j(bf, tf) + (d - 2.0 * tf) * tw**3 / 3.0 + 2.0 * alpha * dia**4
+        p.notes = [n for n in p.notes if not n.startswith("J =")] + [
+            "J: flanges as rectangles, web (d - 2 tf) tw**3/3, plus 2 alpha D**4 for the web-flange junctions "
+            "(El Darwish and Johnston)"]
+        return p

@@ -1,0 +1,238 @@
+"""Rolled shapes with fillets and toe radii (calcpad/eng/sections/rolled.py) against two oracles.
+
+1. sectionproperties (finite-element section library, dev dependency) builds the same rolled
+   geometry with its own library functions (``angle_section`` with root and toe radii,
+   ``tapered_flange_channel`` with root and flange-toe radii and the flange angle, ``i_section``
+   with the root radius). Area, centroid, moments of inertia, principal axes and plastic moduli
+   of our outline must agree to GEOMETRY_REL_TOL; J (our El Darwish and Johnston approximation,
+   not a property of the outline in closed form) is compared with the oracle's warping analysis
+   within the band each family shows (J_BANDS, measured and pinned here).
+2. The AISC Shapes Database in the registry package ``aiscpy`` (GPL-3.0, read with sqlite3, never
+   at run time; v14 column layout, edition not confirmed in the package): a sample of every
+   family (every SAMPLE_STEP-th row) with the dimensions of the row and our default radii
+   (W: r = k_des - tf; C: r1 = half the flange thickness at the web face, r2 = three quarters of
+   the flange thickness at the toe; L: r1 = t/2, r2 = t/4; the C and L defaults are the simple fractions that brought the
+   most rows within 1 % when we scanned the whole family, so this sample is not independent of
+   that choice). A, I, S, r and Z must agree within 1 % plus half a unit of the
+   table's third figure. Rows where our model does not reach 1 % are strict xfails naming the
+   measured deviation, so an improvement shows as XPASS. J is not asserted against the table;
+   measured on this branch with the default radii (all rows of each family): W -1.0 .. +8.2 %
+   (107 of 274 within 1 %; light W above the table), C -16.1 .. +1.6 % (1 of 31), L -15.5 ..
+   -4.6 % (0 of 127). Against the finite-element J of the same outline (item 1) ours is within
+   J_BANDS.
+"""
+
+from __future__ import annotations
+
+import importlib.resources
+import math
+import sqlite3
+
+import numpy as np
+import pytest
+
+from calcpad.core.errors import InputError
+from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape, rectangle_j
+
+sp_lib = pytest.importorskip("sectionproperties.pre.library")
+sp_analysis = pytest.importorskip("sectionproperties.analysis")
+aiscpy = pytest.importorskip("aiscpy", reason="dev dependency aiscpy (AISC Shapes Database) not installed")
+
+GEOMETRY_REL_TOL = 2e-4  # both integrate polygons of the same arcs (64 and 32 segments per quarter)
+TABLE_REL_TOL = 0.01
+SAMPLE_STEP = {"W": 9, "C": 3, "L": 5}
+
+
+def _analyse(geom):
+    geom.create_mesh(mesh_sizes=[geom.calculate_area() / 400.0])
+    sec = sp_analysis.Section(geom)
+    sec.calculate_geometric_properties()
+    sec.calculate_plastic_properties()
+    sec.calculate_warping_properties()
+    return sec
+
+
+ORACLE_CASES = {
+    "angle_unequal": (RolledAngle(4.0, 3.0, 0.375, 0.25, 0.125),
+                      lambda: sp_lib.angle_section(d=4.0, b=3.0, t=0.375, r_r=0.25, r_t=0.125, n_r=32)),
+    "angle_equal_thin": (RolledAngle(3.0, 3.0, 0.1875, 0.3, 0.1875),
+                         lambda: sp_lib.angle_section(d=3.0, b=3.0, t=0.1875, r_r=0.3, r_t=0.1875, n_r=32)),
+    "channel_sloped": (RolledChannel(6.0, 1.92, 0.343, 0.2, slope=1 / 6, r1=0.2, r2=0.1),
+                       lambda: sp_lib.tapered_flange_channel(d=6.0, b=1.92, t_f=0.343, t_w=0.2, r_r=0.2, r_f=0.1,
+                                                             alpha=math.degrees(math.atan(1 / 6)), n_r=32)),
+    "w_fillet": (RolledIShape(8.14, 5.25, 0.33, 0.23, 0.3), lambda: sp_lib.i_section(d=8.14, b=5.25, t_f=0.33, t_w=0.23, r=0.3, n_r=32)),
+}
+
+#: Our J / the oracle's J, as measured on this branch (low and high end of each family's band).
+J_BANDS = {"angle_unequal": (0.94, 0.98), "angle_equal_thin": (0.92, 0.96), "channel_sloped": (0.95, 0.99), "w_fillet": (1.0, 1.04)}
+
+
+@pytest.fixture(scope="module")
+def oracle():
+    return {k: _analyse(make()) for k, (_, make) in ORACLE_CASES.items()}
+
+
+@pytest.mark.parametrize("key", list(ORACLE_CASES))
+def test_rolled_outline_matches_sectionproperties(key, oracle):
+    shape, _ = ORACLE_CASES[key]
+    sec = oracle[key]
+    p = shape.props
+    x0, _x1, y0, _y1 = sec.geometry.calculate_extents()
+    cx, cy = sec.get_c()
+    ixx, iyy, ixy = sec.get_ic()
+    sxx, syy = sec.get_s()
+    pairs = {"A": (p.A, sec.get_area()), "xc": (p.xc, cx - x0), "yc": (p.yc, cy - y0), "Ix": (p.Ix, ixx), "Iy": (p.Iy, iyy),
+             "Zx": (p.Zx, sxx), "Zy": (p.Zy, syy)}
+    for name, (ours, theirs) in pairs.items():
+        assert ours == pytest.approx(theirs, rel=GEOMETRY_REL_TOL), name
+    assert p.Ixy == pytest.approx(ixy, rel=GEOMETRY_REL_TOL, abs=GEOMETRY_REL_TOL * ixx)
+    if shape.kind == "angle":
+        i11, i22 = sec.get_ip()
+        assert p.I_max == pytest.approx(i11, rel=GEOMETRY_REL_TOL)
+        assert p.I_min == pytest.approx(i22, rel=GEOMETRY_REL_TOL)
+
+
+@pytest.mark.parametrize("key", list(ORACLE_CASES))
+def test_rolled_torsion_constant_within_its_band(key, oracle):
+    shape, _ = ORACLE_CASES[key]
+    low, high = J_BANDS[key]
+    ratio = shape.props.J / oracle[key].get_j()
+    assert low <= ratio <= high, f"J ratio {ratio:.3f} outside the measured band {low}..{high}"
+
+
+def test_rectangle_j_against_the_thick_plate_series():
+    # Timoshenko & Goodier, Theory of Elasticity, torsion of a rectangle: k1 = 0.229 at b/t = 3
+    # and 0.263 at b/t = 6 (J = k1 b t^3; table values from memory)
+    assert rectangle_j(3.0, 1.0) / 3.0 == pytest.approx(0.263, rel=0.01)
+    assert rectangle_j(6.0, 1.0) / 6.0 == pytest.approx(0.299, rel=0.01)
+
+
+# --------------------------------------------------------------------------- AISC Shapes Database
+
+
+def _db_rows(table: str, types: tuple[str, ...]) -> list[dict]:
+    con = sqlite3.connect(str(importlib.resources.files("aiscpy") / "shapes_AISC.db"))
+    try:
+        cur = con.execute(f'select * from "{table}"')
+        cols = [d[0] for d in cur.description]
+        return [dict(zip(cols, r, strict=True)) for r in cur if r[0] in types]
+    finally:
+        con.close()
+
+
+def _sample(table: str, types: tuple[str, ...], fam: str) -> list[dict]:
+    rows = _db_rows(table, types)
+    return rows[:: SAMPLE_STEP[fam]]
+
+
+def _close(ours: float, printed: float) -> bool:
+    half_unit = 0.5 * 10.0 ** (math.floor(math.log10(abs(printed))) - 2)
+    return abs(ours - printed) <= half_unit + TABLE_REL_TOL * abs(printed)
+
+
+def _deviations(p, row: dict, pairs: dict[str, str]) -> list[str]:
+    bad = []
+    for ours, col in pairs.items():
+        v = row.get(col)
+        if v in (None, "", 0):
+            continue
+        got = getattr(p, ours)
+        if not _close(got, float(v)):
+            bad.append(f"{ours} {got:.4g} vs {float(v):g} ({(got / float(v) - 1) * 100:+.1f} %)")
+    return bad
+
+
+GEOM_PAIRS = {"A": "A", "Ix": "Ix", "Iy": "Iy", "Sx": "Sx", "Sy": "Sy", "Zx": "Zx", "Zy": "Zy", "rx": "rx", "ry": "ry"}
+ANGLE_PAIRS = {**GEOM_PAIRS, "I_min": "Iz", "r_min": "rz"}
+
+W_SAMPLE = _sample("W-M-S-HP_shapes_AISC", ("W",), "W")
+C_SAMPLE = _sample("C-MC_shapes_AISC", ("C",), "C")
+L_SAMPLE = _sample("L_shapes_AISC", ("L",), "L")
+
+#: Sample rows our default radii do not bring within 1 % (measured on this branch; the AISC values of
+#: light angles and small channels are not reproduced by one radius rule: see the report).
+KNOWN_MISSES: dict[str, str] = {
+    "C3X6": "Iy 0.3049 vs 0.3 (+1.6 %); Sy 0.2663 vs 0.263 (+1.2 %)",
+    "C3X3.5": "Iy 0.1718 vs 0.169 (+1.7 %); Sy 0.1852 vs 0.182 (+1.7 %); Zx 1.219 vs 1.24 (-1.7 %)",
+    "W24X104": "Iy 262.4 vs 259 (+1.3 %)",
+    "W10X100": "Iy 204.3 vs 207 (-1.3 %)",
+    "L7X4X3/8": "Zy 2.893 vs 2.84 (+1.9 %)",
+    "L6X4X7/16": "Zy 3.295 vs 3.24 (+1.7 %); I_min 3.187 vs 3.14 (+1.5 %)",
+    "L6X3-1/2X5/16": "Zy 1.845 vs 1.82 (+1.3 %)",
+    "L5X3X7/16": "Zy 1.853 vs 1.82 (+1.8 %); I_min 1.397 vs 1.37 (+1.9 %)",
+    "L4X4X1/4": "Zx 1.88 vs 1.82 (+3.3 %); Zy 1.88 vs 1.82 (+3.3 %); I_min 1.226 vs 1.18 (+3.9 %)",
+    "L4X3X5/8": "A 3.995 vs 3.89 (+2.7 %)",
+    "L3X3X7/16": "I_min 0.8301 vs 0.819 (+1.4 %)",
+    "L3X2-1/2X3/16": "Iy 0.5761 vs 0.568 (+1.4 %); Sx 0.4285 vs 0.423 (+1.3 %); Sy 0.3091 vs 0.303 (+2.0 %)",
+    "L3X2X3/16": "Zy 0.3558 vs 0.351 (+1.4 %); yc 0.9681 vs 0.952 (+1.7 %); xc 0.4692 vs 0.462 (+1.6 %)",
+    "L2-1/2X2-1/2X3/16": "Ix 0.5453 vs 0.535 (+1.9 %); Iy 0.5453 vs 0.535 (+1.9 %); Sx 0.3017 vs 0.295 (+2.3 %)",
+    "L2X2X3/16": "Zx 0.3422 vs 0.338 (+1.2 %); Zy 0.3422 vs 0.338 (+1.2 %); I_min 0.1108 vs 0.109 (+1.7 %)",
+}
+
+
+def _param(rows: list[dict]) -> list:
+    return [pytest.param(r, id=r["Shape"], marks=pytest.mark.xfail(strict=True, reason=KNOWN_MISSES[r["Shape"]]))
+            if r["Shape"] in KNOWN_MISSES else pytest.param(r, id=r["Shape"]) for r in rows]
+
+
+@pytest.mark.parametrize("row", _param(W_SAMPLE))
+def test_w_sample_matches_the_table(row):
+    d, bf, tf, tw, k = (float(row[c]) for c in ("d", "bf", "tf", "tw", "k(des)"))
+    p = RolledIShape(d, bf, tf, tw, max(k - tf, 0.0)).props
+    assert not _deviations(p, row, GEOM_PAIRS)
+
+
+@pytest.mark.parametrize("row", _param(C_SAMPLE))
+def test_c_sample_matches_the_table(row):
+    d, bf, tf, tw = (float(row[c]) for c in ("d", "bf", "tf", "tw"))
+    p = RolledChannel(d, bf, tf, tw, slope=1 / 6).props
+    assert not _deviations(p, row, {**GEOM_PAIRS, "xc": "x(bar)"})
+
+
+@pytest.mark.parametrize("row", _param(L_SAMPLE))
+def test_angle_sample_matches_the_table(row):
+    d, b, t = (float(row[c]) for c in ("d", "b", "t"))
+    p = RolledAngle(d, b, t).props
+    assert not _deviations(p, row, {**ANGLE_PAIRS, "yc": "y(bar)", "xc": "x(bar)"})
+
+
+def test_samples_cover_every_family():
+    assert len(W_SAMPLE) >= 20 and len(C_SAMPLE) >= 10 and len(L_SAMPLE) >= 20
+
+
+# --------------------------------------------------------------------------- input checks
+
+
+def test_radii_that_do_not_fit_are_refused():
+    with pytest.raises(InputError, match="r2"):
+        RolledAngle(3.0, 3.0, 0.25, 0.2, 0.3)
+    with pytest.raises(InputError, match="r1"):
+        RolledAngle(2.0, 1.0, 0.25, 0.8, 0.1)
+    with pytest.raises(InputError, match="r2"):
+        RolledChannel(6.0, 1.92, 0.343, 0.2, slope=1 / 6, r2=0.5)
+    with pytest.raises(InputError, match="negative"):
+        RolledAngle(3.0, 3.0, 0.25, -0.1)
+
+
+@pytest.mark.parametrize("key", list(ORACLE_CASES))
+def test_convex_pieces_tile_the_rolled_outline(key):
+    from calcpad.eng.sections._polygons import N_QUARTER, ring_moments
+
+    shape, _ = ORACLE_CASES[key]
+    pieces = shape.convex_pieces()
+    area = sum(abs(ring_moments(p).A) for p in pieces)
+    outline = ring_moments(shape.regions(N_QUARTER)[0].outer).A
+    assert area == pytest.approx(outline, rel=1e-9)
+    for p in pieces:  # convex and counter-clockwise: every turn is a left turn (or straight)
+        e = np.roll(p, -1, axis=0) - p
+        e_next = np.roll(e, -1, axis=0)
+        assert (e[:, 0] * e_next[:, 1] - e[:, 1] * e_next[:, 0] >= -1e-12).all()
+
+
+def test_a_rolled_angle_in_a_built_up_section():
+    from calcpad.eng.sections import BuiltUp, get_section
+
+    tube = get_section("HSS3x3x3/16")
+    angle = RolledAngle(3.0, 3.0, 0.25)
+    bu = BuiltUp("leg + rolled angle").add(tube, label="leg").add(angle, at=(3.25, 3.25), rotate=180, label="angle")
+    assert bu.props.A == pytest.approx(tube.props.A + angle.props.A, rel=1e-12)
