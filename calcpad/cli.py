@@ -130,7 +130,7 @@ def _run(args: argparse.Namespace) -> int:
                 failures.append(msg)
                 bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
 
-        outcomes = run_job(job, mode=mode, progress=tick)
+        outcomes = run_job(job, mode=mode, progress=tick, text=target is None)  # the hand calcs are printed only without an output folder
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None
