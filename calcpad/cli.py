@@ -81,6 +81,10 @@ def _is_template(target: str) -> bool:
     return target.endswith((".py", ".ipynb")) or (not target.endswith(".toml") and not Path(target).exists())
 
 
+#: Seconds a run goes before its progress bar appears (a run of a few calcs shows none).
+PROGRESS_AFTER = 2.0
+
+
 def _run(args: argparse.Namespace) -> int:
     from rich.console import Console
     from rich.markup import escape
@@ -112,25 +116,33 @@ def _run(args: argparse.Namespace) -> int:
     start = time.perf_counter()
     failures: list[str] = []
 
-    with Progress(
+    bar = Progress(
         TextColumn("[progress.description]{task.description}"),
         BarColumn(),
         MofNCompleteColumn(),
         TimeElapsedColumn(),
         console=err,
         transient=True,
-        disable=not err.is_terminal,  # no progress display in logs and pipes
-    ) as bar:
-        task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
+        disable=args.json or not err.is_terminal,  # no progress display in logs, pipes and JSON runs
+    )
+    task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
+    shown = False
 
-        def tick(o: Any) -> None:
-            bar.update(task, advance=1, description=f"{o.calc.template.name} {o.calc.member}")
-            if o.error is not None:
-                msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
-                failures.append(msg)
-                bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
+    def tick(o: Any) -> None:
+        nonlocal shown
+        bar.update(task, advance=1, description=f"{o.calc.template.name} {o.calc.member}")
+        if not shown and time.perf_counter() - start > PROGRESS_AFTER:  # a short run shows no bar
+            bar.start()
+            shown = True
+        if o.error is not None:
+            msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
+            failures.append(msg)
+            bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
 
+    try:
         outcomes = run_job(job, mode=mode, progress=tick, text=target is None)  # the hand calcs are printed only without an output folder
+    finally:
+        bar.stop()
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None
