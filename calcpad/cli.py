@@ -81,18 +81,14 @@ def _is_template(target: str) -> bool:
     return target.endswith((".py", ".ipynb")) or (not target.endswith(".toml") and not Path(target).exists())
 
 
-#: Seconds a run goes before its progress bar appears (a run of a few calcs shows none).
-PROGRESS_AFTER = 2.0
-
-
 def _run(args: argparse.Namespace) -> int:
     from rich.console import Console
     from rich.markup import escape
-    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     from calcpad.runner.execute import run_job
     from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.outfolder import check_target, write_outputs
+    from calcpad.runner.progress import RunProgress
     from calcpad.runner.record import job_record
 
     err = Console(stderr=True)
@@ -116,24 +112,11 @@ def _run(args: argparse.Namespace) -> int:
     start = time.perf_counter()
     failures: list[str] = []
 
-    bar = Progress(
-        TextColumn("[progress.description]{task.description}"),
-        BarColumn(),
-        MofNCompleteColumn(),
-        TimeElapsedColumn(),
-        console=err,
-        transient=True,
-        disable=args.json or not err.is_terminal,  # no progress display in logs, pipes and JSON runs
-    )
-    task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
-    shown = False
+    bar = RunProgress(len(job.calcs), console=err, enabled=not args.json and err.is_terminal,  # none in logs, pipes and JSON runs
+                      label="starting kernel" if mode == "kernel" else "running calcs")
 
     def tick(o: Any) -> None:
-        nonlocal shown
-        bar.update(task, advance=1, description=f"{o.calc.template.name} {o.calc.member}")
-        if not shown and time.perf_counter() - start > PROGRESS_AFTER:  # a short run shows no bar
-            bar.start()
-            shown = True
+        bar.advance(f"{o.calc.template.name} {o.calc.member}")
         if o.error is not None:
             msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
             failures.append(msg)
@@ -142,7 +125,7 @@ def _run(args: argparse.Namespace) -> int:
     try:
         outcomes = run_job(job, mode=mode, progress=tick, text=target is None)  # the hand calcs are printed only without an output folder
     finally:
-        bar.stop()
+        bar.close()
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None

@@ -32,6 +32,7 @@ from typing import Any
 from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
+from calcpad.runner.progress import RunProgress, in_notebook
 
 __all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
 
@@ -296,11 +297,16 @@ def run_job(
 ) -> list[CalcOutcome]:
     """Run every calc of ``job``; a failing calc is recorded and the others still run.
 
-    ``progress`` is called with each outcome as it is done; ``text=True`` adds each sheet's
+    ``progress`` is called with each outcome as it is done (without one, a run in a Jupyter
+    notebook shows a progress bar once it has gone on for 2 s); ``text=True`` adds each sheet's
     plain-text hand calc (``"text"``) to the collected sheets."""
     if mode not in MODES:
         raise ValueError(f"mode {mode!r}; expected one of {MODES}")
     outcomes: list[CalcOutcome] = []
+    bar = None
+    if progress is None and in_notebook():  # a batch run from a notebook gets a bar (after 2 s)
+        bar = RunProgress(len(job.calcs))
+        progress = lambda o: bar.advance(f"{o.calc.template.name} {o.calc.member}")  # noqa: E731
     previous = os.environ.get(SYSTEM_ENV)
     os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
     try:
@@ -311,6 +317,8 @@ def run_job(
                 if progress is not None:
                     progress(outcome)
     finally:
+        if bar is not None:
+            bar.close()
         if previous is None:
             os.environ.pop(SYSTEM_ENV, None)
         else:
