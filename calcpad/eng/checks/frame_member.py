@@ -126,7 +126,9 @@ class _Scratches:
         if entry is not None:
             scratch, out = entry
             scratch.set(**forces)
-            return self._governing(scratch, out)
+            with warnings.catch_warnings():  # as for a new scratch sheet: cautions come with the governing case
+                warnings.simplefilter("ignore")
+                return self._governing(scratch, out)
         scratch, out = self._build(P, M, V)
         if self._holds(scratch, forces):
             self.sheets[key] = (scratch, out)
