@@ -94,7 +94,7 @@ def main() -> None:
     ap.add_argument("--rounds", type=int, default=2, help="alternating rounds per measurement (best kept)")
     ap.add_argument("--mix", type=int, default=104, help="calcs in the example-mix job")
     ap.add_argument("--big", type=int, default=10_000, help="calcs in the large generated job")
-    ap.add_argument("--small", type=int, default=500, help="calcs in the generated job measured against the baseline")
+    ap.add_argument("--small", type=int, default=500, help="calcs in the generated job measured against the baseline (0: skip)")
     ap.add_argument("--no-kernel", action="store_true", help="skip the kernel-mode line")
     args = ap.parse_args()
     with tempfile.TemporaryDirectory(prefix="calcpad-baseline-") as tmp:
@@ -109,11 +109,12 @@ def main() -> None:
               f"ratio now/baseline = {per_n / per_b:.2f}   (goal <= 0.1)")
 
         small = args.small
-        b1 = measure(base, "big", small)
-        n1 = measure(ROOT, "big", small)
-        print(f"generated job, {small} calcs: baseline {b1['seconds']:.1f} s, peak {b1['rss_mib']:.0f} MiB; "
-              f"now {n1['seconds']:.1f} s, peak {n1['rss_mib']:.0f} MiB; time ratio now/baseline = {n1['seconds'] / b1['seconds']:.2f}")
-    if args.big > small:
+        if small > 0:
+            b1 = measure(base, "big", small)
+            n1 = measure(ROOT, "big", small)
+            print(f"generated job, {small} calcs: baseline {b1['seconds']:.1f} s, peak {b1['rss_mib']:.0f} MiB; "
+                  f"now {n1['seconds']:.1f} s, peak {n1['rss_mib']:.0f} MiB; time ratio now/baseline = {n1['seconds'] / b1['seconds']:.2f}")
+    if small > 0 and args.big > small:
         nb = measure(ROOT, "big", args.big)
         growth = (nb["rss_mib"] - n1["rss_mib"]) / (args.big - small) * 1024
         print(f"generated job, {args.big} calcs now: {nb['seconds']:.1f} s (goal < 60 s), peak {nb['rss_mib']:.0f} MiB; "
