@@ -1,60 +1,129 @@
-"""Runner speed: in-process vs kernel execution of the example job; calcs/s for a 200-calc job.
+"""Runner speed: this code against the baseline commit, side by side in one run.
 
-Run: ``.venv/bin/python benchmarks/bench_runner.py`` (2-core shared machine: read ratios, not absolutes).
+1. The example job's mix (its 13 calcs repeated to about 100, in-process, records and HTML
+   collected as `calcpad run` does): ms per calc now and at the baseline, and the ratio
+   (goal <= 0.1).
+2. A large generated job (leg_bending, one calc per member, loads varying): time and peak
+   memory now for 1,000 and 10,000 calcs, the baseline for 1,000 (goal: 10,000 in under a
+   minute, memory flat in the number of members: the growth per calc printed).
+3. Kernel mode vs in-process on the example job (now only).
+
+The baseline is the code of commit ``BASELINE`` (the runner before the speed work), taken with
+``git archive`` into a temporary folder and run in its own interpreter, alternating with the
+current code so machine noise hits both alike; the best of the rounds is kept. Each measurement
+runs in a fresh interpreter (peak memory is that process's ``ru_maxrss``).
+
+Run: ``.venv/bin/python benchmarks/bench_runner.py [--rounds 2] [--big 10000] [--no-kernel]``
+(2-core shared machine: read ratios, not absolutes).
 """
 
 from __future__ import annotations
 
-import statistics
+import argparse
+import json
+import subprocess
 import sys
-import time
+import tempfile
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(ROOT))
+BASELINE = "0944982"  # main before the runner speed work (issue 15, parts 5 and 6)
 
-from calcpad.runner.execute import run_job  # noqa: E402
-from calcpad.runner.job import load_job, parse_job  # noqa: E402
+#: Runs in a fresh interpreter with ``sys.path[0]`` = the code to measure; prints one JSON line.
+CHILD = r"""
+import dataclasses, json, resource, sys, time
+root, what, n = sys.argv[1], sys.argv[2], int(sys.argv[3])
+sys.path.insert(0, root)
+from calcpad.runner.execute import run_job
+from calcpad.runner.job import load_job, parse_job
 
-EXAMPLE = ROOT / "examples" / "harbor_ridge_condenser_stand.toml"
-
-
-def _time(fn, repeat: int) -> float:
-    times = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return statistics.median(times)
-
-
-def generated_job(n: int) -> str:
-    """A job of ``n`` leg_bending calcs with loads varying per member."""
-    head = (
-        '[job]\nnumber = "B-200"\ntitle = "Generated"\nclient = "c"\nsite = "s"\nengineer = "e"\n'
-        'revision = "0"\ndate = 2025-01-01\n'
-    )
+def mix(n):
+    job = load_job(root + "/examples/harbor_ridge_condenser_stand.toml")
     calcs = []
-    for i in range(n):
-        calcs.append(
-            f'[[calcs]]\ntemplate = "leg_bending"\nmember = "L{i + 1}"\n[calcs.inputs]\n'
-            f'P = "{60 + i} lbf"\nL = "42 in"\nD_o = "1.900 in"\nt = "0.145 in"\nF_y = "35 ksi"\nFS_req = 1.67\n'
-        )
-    return head + "\n".join(calcs)
+    while len(calcs) < n:
+        for c in job.calcs:
+            calcs.append(dataclasses.replace(c, number=len(calcs) + 1, member=f"{c.member}-{len(calcs)}"))
+    return dataclasses.replace(job, calcs=calcs[:n])
+
+def generated(n):
+    head = ('[job]\nnumber = "B-1"\ntitle = "Generated"\nclient = "c"\nsite = "s"\nengineer = "e"\n'
+            'revision = "0"\ndate = 2025-01-01\n')
+    calcs = [f'[[calcs]]\ntemplate = "leg_bending"\nmember = "L{i + 1}"\n[calcs.inputs]\nP = "{60 + i % 400} lbf"\n'
+             f'N = "{100 + i % 50} lbf"\nL = "{30 + i % 30} in"\nleg = "Pipe 1-1/2 Std"\nD_o = "1.900 in"\nt = "0.145 in"\n'
+             f'F_y = "35 ksi"\nFS_req = 1.67\n' for i in range(n)]
+    return parse_job(head + "\n".join(calcs), "generated.toml")
+
+warm = load_job(root + "/examples/harbor_ridge_condenser_stand.toml")
+run_job(warm)  # imports, template reads and first-use caches, for both codes alike
+job = mix(n) if what == "mix" else generated(n) if what == "big" else warm
+mode = "kernel" if what == "kernel" else "inprocess"
+rss0 = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+t = time.perf_counter()
+out = run_job(job, mode=mode)
+dt = time.perf_counter() - t
+errors = sum(o.error is not None for o in out)
+print(json.dumps({"seconds": dt, "calcs": len(out), "errors": errors,
+                  "rss_mib": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024, "rss0_mib": rss0 / 1024}))
+"""
+
+
+def measure(root: Path, what: str, n: int) -> dict[str, float]:
+    env_python = sys.executable
+    proc = subprocess.run([env_python, "-c", CHILD, str(root), what, str(n)], capture_output=True, text=True, cwd=root)
+    if proc.returncode != 0:
+        raise SystemExit(f"benchmark child failed ({root}, {what}):\n{proc.stderr[-2000:]}")
+    res = json.loads(proc.stdout.strip().splitlines()[-1])
+    if res["errors"]:
+        raise SystemExit(f"{res['errors']} calcs failed in {root} ({what})")
+    return res
+
+
+def baseline_tree(tmp: Path) -> Path:
+    """The baseline commit's calcpad, templates and examples, unpacked into ``tmp``."""
+    archive = subprocess.run(["git", "archive", BASELINE, "calcpad", "notebooks", "examples"], cwd=ROOT, capture_output=True, check=True)
+    subprocess.run(["tar", "-x", "-C", str(tmp)], input=archive.stdout, check=True)
+    return tmp
+
+
+def best(runs: list[dict[str, float]]) -> dict[str, float]:
+    return min(runs, key=lambda r: r["seconds"])
 
 
 def main() -> None:
-    job = load_job(EXAMPLE)
-    run_job(job)  # warm imports (sympy, pint, templates' modules)
-    t_in = _time(lambda: run_job(job, mode="inprocess"), 3)
-    t_k = _time(lambda: run_job(job, mode="kernel"), 2)
-    n = len(job.calcs)
-    print(f"example job ({n} calcs): in-process {t_in:.2f} s, kernel {t_k:.2f} s (one shared kernel), kernel/in-process = {t_k / t_in:.1f}x")
-    t = time.perf_counter()
-    big = parse_job(generated_job(200), "generated.toml")
-    t_val = time.perf_counter() - t
-    t_big = _time(lambda: run_job(big), 1)
-    print(f"generated job (200 leg_bending calcs): validate {t_val:.2f} s, run {t_big:.2f} s in-process = {200 / t_big:.0f} calcs/s")
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--rounds", type=int, default=2, help="alternating rounds per measurement (best kept)")
+    ap.add_argument("--mix", type=int, default=104, help="calcs in the example-mix job")
+    ap.add_argument("--big", type=int, default=10_000, help="calcs in the large generated job")
+    ap.add_argument("--small", type=int, default=500, help="calcs in the generated job measured against the baseline (0: skip)")
+    ap.add_argument("--no-kernel", action="store_true", help="skip the kernel-mode line")
+    args = ap.parse_args()
+    with tempfile.TemporaryDirectory(prefix="calcpad-baseline-") as tmp:
+        base = baseline_tree(Path(tmp))
+        now_runs, base_runs = [], []
+        for _ in range(args.rounds):
+            base_runs.append(measure(base, "mix", args.mix))
+            now_runs.append(measure(ROOT, "mix", args.mix))
+        b, n = best(base_runs), best(now_runs)
+        per_b, per_n = b["seconds"] / b["calcs"] * 1e3, n["seconds"] / n["calcs"] * 1e3
+        print(f"example mix, {n['calcs']} calcs in-process: baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, "
+              f"ratio now/baseline = {per_n / per_b:.2f}   (goal <= 0.1)")
+
+        small = args.small
+        if small > 0:
+            b1 = measure(base, "big", small)
+            n1 = measure(ROOT, "big", small)
+            print(f"generated job, {small} calcs: baseline {b1['seconds']:.1f} s, peak {b1['rss_mib']:.0f} MiB; "
+                  f"now {n1['seconds']:.1f} s, peak {n1['rss_mib']:.0f} MiB; time ratio now/baseline = {n1['seconds'] / b1['seconds']:.2f}")
+    if small > 0 and args.big > small:
+        nb = measure(ROOT, "big", args.big)
+        growth = (nb["rss_mib"] - n1["rss_mib"]) / (args.big - small) * 1024
+        print(f"generated job, {args.big} calcs now: {nb['seconds']:.1f} s (goal < 60 s), peak {nb['rss_mib']:.0f} MiB; "
+              f"growth {growth:.0f} KiB per calc between {small} and {args.big} calcs (the kept records and HTML)")
+    if not args.no_kernel:
+        k = measure(ROOT, "kernel", 0)
+        i = measure(ROOT, "example", 0)
+        print(f"example job ({i['calcs']} calcs): in-process {i['seconds']:.2f} s, kernel {k['seconds']:.2f} s, "
+              f"kernel/in-process = {k['seconds'] / i['seconds']:.1f}x")
 
 
 if __name__ == "__main__":

@@ -84,11 +84,11 @@ def _is_template(target: str) -> bool:
 def _run(args: argparse.Namespace) -> int:
     from rich.console import Console
     from rich.markup import escape
-    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     from calcpad.runner.execute import run_job
     from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.outfolder import check_target, write_outputs
+    from calcpad.runner.progress import RunProgress
     from calcpad.runner.record import job_record
 
     err = Console(stderr=True)
@@ -114,25 +114,20 @@ def _run(args: argparse.Namespace) -> int:
     start = time.perf_counter()
     failures: list[str] = []
 
-    with Progress(
-        TextColumn("[progress.description]{task.description}"),
-        BarColumn(),
-        MofNCompleteColumn(),
-        TimeElapsedColumn(),
-        console=err,
-        transient=True,
-        disable=not err.is_terminal,  # no progress display in logs and pipes
-    ) as bar:
-        task = bar.add_task("starting kernel" if mode == "kernel" else "running calcs", total=len(job.calcs))
+    bar = RunProgress(len(job.calcs), console=err, enabled=not args.json and err.is_terminal,  # none in logs, pipes and JSON runs
+                      label="starting kernel" if mode == "kernel" else "running calcs")
 
-        def tick(o: Any) -> None:
-            bar.update(task, advance=1, description=f"{o.calc.template.name} {o.calc.member}")
-            if o.error is not None:
-                msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
-                failures.append(msg)
-                bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
+    def tick(o: Any) -> None:
+        bar.advance(f"{o.calc.template.name} {o.calc.member}")
+        if o.error is not None:
+            msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
+            failures.append(msg)
+            bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
 
-        outcomes = run_job(job, mode=mode, progress=tick)
+    try:
+        outcomes = run_job(job, mode=mode, progress=tick, text=target is None)  # the hand calcs are printed only without an output folder
+    finally:
+        bar.close()
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None

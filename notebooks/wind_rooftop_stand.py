@@ -61,7 +61,7 @@ from IPython.display import Image, display
 
 from calcpad.core.units import parse_quantity
 
-from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, plot_member, png_bytes
+from calcpad.eng.analysis.diagrams import plot_member
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
 from calcpad.eng.checks import (add_anchorage_check, add_base_plate_check, add_leg_base_uplift_check, add_second_order,
@@ -355,8 +355,7 @@ base
 # combination (the same figures go into the submittal).
 
 # %%
-display(Image(png_bytes(draw_frame(fr_gov, res_gov, case_M))),
-        Image(png_bytes(draw_frame_diagram(res_gov, case_M, "M", members=["windward", "leeward", "R"]))))
+display(*(Image(f.png) for f in sh.evaluate().figures if f.title.startswith(("Frame model", "Bending moment"))))  # as drawn once for the sheet
 
 # %%
 sh.summary_frame()

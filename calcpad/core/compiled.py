@@ -40,50 +40,127 @@ def _base_factor(q: pint.Quantity) -> float:
 
 
 Fn = Callable[[dict[str, Any]], Any]
+#: A compiled part: returns its value and whether that value is an array this call made (and so
+#: may be overwritten in place by the next operation) — never an input or another step's array.
+Part = Callable[[dict[str, Any]], tuple[Any, bool]]
 
-_UFUNCS: dict[type, Callable[[Any], Any]] = {
+_UFUNCS: dict[type, Any] = {
     sp.sin: np.sin, sp.cos: np.cos, sp.tan: np.tan, sp.asin: np.arcsin, sp.acos: np.arccos,
     sp.atan: np.arctan, sp.exp: np.exp, sp.Abs: np.abs,
 }
 _COMPARE = {"<": np.less, "<=": np.less_equal, ">": np.greater, ">=": np.greater_equal}
+#: Integer powers written out as products (x**4 = (x*x)**2: two passes where np.power takes a
+#: general pow per element).
+_EXPAND_UP_TO = 4
 
 
-def _fold(parts: list[Fn], op: Callable[[Any, Any], Any]) -> Fn:
-    """Combine the values of ``parts`` left to right with a binary numpy function."""
+def _fits(out: Any, v: Any) -> bool:
+    """True when ``out op v`` can be written into ``out`` (a float array at least as large)."""
+    if not isinstance(out, np.ndarray) or out.dtype.kind != "f":
+        return False
+    shape = np.shape(v)
+    return shape == out.shape or not shape or np.broadcast_shapes(out.shape, shape) == out.shape
 
-    def run(env: dict[str, Any]) -> Any:
-        out = parts[0](env)
-        for f in parts[1:]:
-            out = op(out, f(env))
-        return out
+
+def _apply(op: Any, out: Any, own: bool, v: Any) -> tuple[Any, bool]:
+    """``op(out, v)``, in place when ``out`` is this call's own array and the result fits."""
+    if own and _fits(out, v):
+        op(out, v, out=out)
+        return out, True
+    res = op(out, v)
+    return res, isinstance(res, np.ndarray)
+
+
+def _unary(op: Any, arg: Part) -> Part:
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
+        v, own = arg(env)
+        if own and isinstance(v, np.ndarray) and v.dtype.kind == "f":
+            op(v, out=v)
+            return v, True
+        res = op(v)
+        return res, isinstance(res, np.ndarray)
 
     return run
 
 
-def _product(coef: float, num: list[Fn], den: list[Fn]) -> Fn:
-    """coef · Πnum / Πden, multiplying scalars first so arrays are touched as few times as possible."""
+def _fold(parts: list[Part], op: Any) -> Part:
+    """Combine the values of ``parts`` left to right with a binary numpy ufunc."""
 
-    def run(env: dict[str, Any]) -> Any:
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
+        out, own = parts[0](env)
+        for f in parts[1:]:
+            out, own = _apply(op, out, own, f(env)[0])
+        return out, own
+
+    return run
+
+
+def _sum(terms: list[tuple[bool, Part]]) -> Part:
+    """Σ ±term: subtracted terms are subtracted (no negated copy); the first array made is reused."""
+
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
+        neg, f = terms[0]
+        out, own = f(env)
+        if neg:  # a leading minus (rare): negate the first term
+            out, own = _unary(np.negative, lambda _env: (out, own))(env)
+        for neg, f in terms[1:]:
+            out, own = _apply(np.subtract if neg else np.add, out, own, f(env)[0])
+        return out, own
+
+    return run
+
+
+def _power(inner: Part, k: int) -> Part:
+    """``inner ** k`` for a whole k ≥ 1: written out as products up to ``_EXPAND_UP_TO``."""
+    if k == 1:
+        return inner
+
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
+        v, own = inner(env)
+        if np.ndim(v) == 0 or k > _EXPAND_UP_TO:
+            res = v**k
+            return res, isinstance(res, np.ndarray)
+        in_place = own and k != 3 and v.dtype.kind == "f"  # x**3 needs x after squaring it
+        sq = np.multiply(v, v, out=v) if in_place else v * v
+        if k == 3:
+            np.multiply(sq, v, out=sq)
+        elif k == 4:
+            np.multiply(sq, sq, out=sq)
+        return sq, True
+
+    return run
+
+
+def _product(coef: float, num: list[Part], den: list[Part]) -> Part:
+    """coef · Πnum / Πden: scalars multiplied first, the first array made is reused for the rest,
+    and the coefficient is applied once at the end (or not at all when it is 1)."""
+
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
         scal, arrs = coef, []
         for f in num:
-            v = f(env)
+            v, own = f(env)
             if np.ndim(v) == 0:
                 scal = scal * v
             else:
-                arrs.append((v, False))
+                arrs.append((v, own, False))
         for f in den:
-            v = f(env)
+            v, own = f(env)
             if np.ndim(v) == 0:
                 scal = scal / v
             else:
-                arrs.append((v, True))
+                arrs.append((v, own, True))
         if not arrs:
-            return scal
-        first, inv = arrs[0]
-        out = scal / first if inv else (first * scal if scal != 1.0 else first)
-        for v, inv in arrs[1:]:
-            out = out / v if inv else out * v
-        return out
+            return scal, False
+        v, own, inv = arrs[0]
+        if inv:
+            out, own, scal = np.divide(scal, v), True, 1.0
+        else:
+            out = v
+        for v, _vown, inv in arrs[1:]:
+            out, own = _apply(np.divide if inv else np.multiply, out, own, v)
+        if scal != 1.0:
+            out, own = _apply(np.multiply, out, own, scal)
+        return out, own
 
     return run
 
@@ -92,14 +169,22 @@ def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
     """Compile a parsed formula into a numpy closure over display-unit values.
 
     Unit factors of every name (display unit → SI base) are folded into one coefficient per
-    product, so no separate conversion passes run. Written by hand rather than with
+    product, and a sum takes the coefficient its terms share outside it (terms in one unit need
+    no scaling at all; the factor merges with the step's own factor back to its display unit), so
+    no separate conversion passes run. Subtracted terms are subtracted, whole powers up to 4 are
+    products, and each step allocates one array and works in it. Written by hand rather than with
     ``lambdify`` so constants and scalars are combined before any array is touched.
     """
+    part = _compile(expr, scale)
+    return lambda env: part(env)[0]
 
-    def term(e: sp.Basic) -> tuple[float, list[Fn], list[Fn]]:
+
+def _compile(expr: sp.Basic, scale: dict[str, float]) -> Part:
+
+    def term(e: sp.Basic) -> tuple[float, list[Part], list[Part]]:
         if isinstance(e, sp.Symbol):
             name = e.name
-            return scale.get(name, 1.0), [lambda env: env[name]], []
+            return scale.get(name, 1.0), [lambda env: (env[name], False)], []
         if e is sp.pi:
             return float(np.pi), [], []
         if isinstance(e, sp.Number):
@@ -113,47 +198,69 @@ def compile_expr(expr: sp.Basic, scale: dict[str, float]) -> Fn:
         if isinstance(e, sp.Pow) and e.args[1].is_Integer and e.args[1] != 0:
             k = int(e.args[1])
             c, n, d = term(e.args[0])
-            inner = _product(1.0, n, d) if (n or d) else None
-            if inner is None:
+            if not (n or d):
                 return c**k, [], []
-            kk = abs(k)
-            powered: Fn = inner if kk == 1 else (lambda env, f=inner, kk=kk: f(env) ** kk)
+            powered = _power(_product(1.0, n, d), abs(k))
             return (c**k, [], [powered]) if k < 0 else (c**k, [powered], [])
+        if isinstance(e, sp.Add):
+            parts = [term(a) for a in e.args]
+            common = next((abs(c) for c, n, d in parts if c != 0 and (n or d)), 1.0)
+            terms = []
+            for c, n, d in parts:
+                if not (n or d):
+                    terms.append((c < 0, _const(abs(c) / common)))
+                else:
+                    terms.append((c < 0, _product(abs(c) / common, n, d)))
+            return common, [_sum(terms)], []
         return 1.0, [build(e)], []
 
-    def build(e: sp.Basic) -> Fn:
-        if isinstance(e, (sp.Symbol, sp.Number, sp.Mul)) or e is sp.pi or (isinstance(e, sp.Pow) and e.args[1].is_Integer):
+    def build(e: sp.Basic) -> Part:
+        if isinstance(e, (sp.Symbol, sp.Number, sp.Mul, sp.Add)) or e is sp.pi or (isinstance(e, sp.Pow) and e.args[1].is_Integer):
             coef, num, den = term(e)
             return _product(coef, num, den)
-        if isinstance(e, sp.Add):
-            return _fold([build(a) for a in e.args], np.add)
         if isinstance(e, sp.Pow):
             base, exp = build(e.args[0]), build(e.args[1])
             if e.args[1] == sp.Rational(1, 2):
-                return lambda env: np.sqrt(base(env))
-            return lambda env: np.power(base(env), exp(env))
+                return _unary(np.sqrt, base)
+            return lambda env: _fresh(np.power(base(env)[0], exp(env)[0]))
         if isinstance(e, (sp.Min, sp.Max)):
             return _fold([build(a) for a in e.args], np.minimum if isinstance(e, sp.Min) else np.maximum)
         if type(e) in _UFUNCS:
-            func, arg = _UFUNCS[type(e)], build(e.args[0])
-            return lambda env: func(arg(env))
+            return _unary(_UFUNCS[type(e)], build(e.args[0]))
         if isinstance(e, sp.log):
             arg = build(e.args[0])
             if len(e.args) == 2:
                 div = float(np.log(float(e.args[1])))
-                return lambda env: np.log(arg(env)) / div
-            return lambda env: np.log(arg(env))
+                return lambda env: _fresh(np.log(arg(env)[0]) / div)
+            return _unary(np.log, arg)
         if isinstance(e, sp.core.relational.Relational):
             lhs, rhs, cmp = build(e.lhs), build(e.rhs), _COMPARE[e.rel_op]
-            return lambda env: cmp(lhs(env), rhs(env))
+            return lambda env: _fresh(cmp(lhs(env)[0], rhs(env)[0]))
         if isinstance(e, (sp.And, sp.Or)):
             return _fold([build(a) for a in e.args], np.logical_and if isinstance(e, sp.And) else np.logical_or)
         if isinstance(e, sp.Not):
             arg = build(e.args[0])
-            return lambda env: np.logical_not(arg(env))
+            return lambda env: _fresh(np.logical_not(arg(env)[0]))
         raise SheetError(f"cannot compile {type(e).__name__} in {e}")
 
     return build(expr)
+
+
+def _all_finite(v: Any) -> bool:
+    """True when every value is finite. A sum is NaN or infinite when any term is, so a finite sum
+    proves it in one reduction; otherwise (or on overflow) the values are looked at one by one."""
+    with np.errstate(all="ignore"):
+        total = float(np.sum(v))
+    return math.isfinite(total) or bool(np.isfinite(v).all())
+
+
+def _const(value: float) -> Part:
+    return lambda _env: (value, False)
+
+
+def _fresh(value: Any) -> tuple[Any, bool]:
+    """A value a numpy call just made (an array is this call's own)."""
+    return value, isinstance(value, np.ndarray)
 
 
 class CompiledResult(dict[str, Any]):
@@ -321,8 +428,8 @@ class CompiledSheet:
                 v = fn(env)
                 env[name] = v
                 cap = self._capacity.get(name)
-                if np.isfinite(v).all() and (cap is None or (np.asarray(env[cap]) > 0).all()):
-                    continue  # the common case: one cheap pass per step (about 1% of a 1e6-case chain)
+                if _all_finite(v) and (cap is None or float(np.min(env[cap])) > 0):
+                    continue  # the common case: one reduction per step, no mask array made
                 fails = ~np.isfinite(v)
                 if cap is not None:
                     fails = fails | ~(np.asarray(env[cap]) > 0)

@@ -238,6 +238,11 @@ class SheetResult:
         return [s for s in self.steps if isinstance(s, CheckResult)]
 
     @property
+    def figures(self) -> list[FigureResult]:
+        """All figures (rendered once, when added), in sheet order."""
+        return [s for s in self.steps if isinstance(s, FigureResult)]
+
+    @property
     def assumptions(self) -> list[str]:
         """The model assumptions the template declared (``Sheet.assume``), in sheet order."""
         return [s.text for s in self.steps if isinstance(s, TextResult) and s.kind == "assumption"]

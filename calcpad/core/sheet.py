@@ -159,6 +159,8 @@ class Sheet:
         self._shown: dict[str, pint.Quantity] = {}
         self._results: dict[str, Any] = {}
         self._result: SheetResult | None = None
+        self._order: list[str] | None = None  # evaluation order, until a step is added
+        self._digest: str | None = None  # digest of the givens, until one changes
         self.last_recomputed: list[str] = []
 
     # ------------------------------------------------------------------ building
@@ -190,6 +192,9 @@ class Sheet:
                 raise SheetError(f"sheet {self.title!r}: {name!r} is defined twice; every name in a sheet is unique")
             self._defs[name] = step
             self._dirty.add(name)
+            self._order = None
+            if isinstance(step, Given):
+                self._digest = None
         self._steps.append(step)
         self._result = None
 
@@ -429,6 +434,7 @@ class Sheet:
             step.value = q
             self._dirty.add(name)
             self._result = None
+            self._digest = None
 
     def _did_you_mean(self, name: str, given_only: bool = False) -> str:
         pool = [n for n, s in self._defs.items() if not given_only or isinstance(s, Given)]
@@ -439,6 +445,11 @@ class Sheet:
 
     def order(self) -> list[str]:
         """Names in evaluation order (dependencies first). Raises SheetError on cycles/unknowns."""
+        if self._order is None:
+            self._order = self._find_order()
+        return list(self._order)
+
+    def _find_order(self) -> list[str]:
         for step in self._steps:
             for dep in step.depends:
                 if dep not in self._defs:
@@ -466,8 +477,16 @@ class Sheet:
 
     def evaluate(self) -> SheetResult:
         """Evaluate (incrementally) and return the result model."""
-        if self._result is not None and not self._dirty:
-            return self._result
+        self._update()
+        if self._result is None:
+            self._result = self._assemble()
+        return self._result
+
+    def _update(self) -> None:
+        """Recompute what changed since the last run (the values; the result model is assembled
+        only when :meth:`evaluate` asks for it, so reading values while building stays cheap)."""
+        if not self._dirty:
+            return
         recomputed: set[str] = set()
         order = self.order()
         for name in order:
@@ -477,8 +496,6 @@ class Sheet:
                 recomputed.add(name)
         self._dirty.clear()
         self.last_recomputed = [n for n in order if n in recomputed]
-        self._result = self._assemble()
-        return self._result
 
     def _sig(self, step: Any) -> int:
         if getattr(step, "sig", None):
@@ -628,15 +645,17 @@ class Sheet:
 
     def digest(self) -> str:
         """SHA-256 over every given (name, magnitude, unit) — identifies the inputs of a run."""
-        h = hashlib.sha256()
-        for g in self.givens():
-            h.update(f"{g.name}={g.value.magnitude!r} {g.value.units}\n".encode())
-        return h.hexdigest()
+        if self._digest is None:
+            h = hashlib.sha256()
+            for g in self.givens():
+                h.update(f"{g.name}={g.value.magnitude!r} {g.value.units}\n".encode())
+            self._digest = h.hexdigest()
+        return self._digest
 
     # ------------------------------------------------------------------ reading
 
     def __getitem__(self, name: str) -> pint.Quantity:
-        self.evaluate()
+        self._update()
         if name not in self._shown:
             raise KeyError(f"{name!r} is not a name in sheet {self.title!r}{self._did_you_mean(name)}")
         return self._shown[name]

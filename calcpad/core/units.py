@@ -94,7 +94,20 @@ def parse_unit(text: str | None, field_name: str = "unit") -> pint.Unit:
         return ureg.dimensionless
     if not isinstance(text, str):
         raise UnitInputError(f"{field_name}: {text!r}; expected a unit string such as 'in', 'kip*ft', 'ksi'")
-    return read_unit(text, field_name)
+    unit = _UNITS_READ.get(text)
+    if unit is None:  # a refused text raises here every time, naming this call's field
+        unit = read_unit(text, field_name)
+        if len(_UNITS_READ) < _CACHE_LIMIT:
+            _UNITS_READ[text] = unit
+    return unit
+
+
+#: Units read from text, by the exact text (a template asks for the same few units thousands of
+#: times in a batch). Only successful reads are kept; pint units are immutable.
+_UNITS_READ: dict[str, pint.Unit] = {}
+#: Symbols of units by (units, style): pint's symbol lookup is slow and the same units recur.
+_SYMBOLS: dict[tuple[Any, str], str] = {}
+_CACHE_LIMIT = 4096
 
 
 def _require_dimension(q: pint.Quantity, expected: str, field_name: str, raw: Any) -> None:
@@ -281,6 +294,17 @@ def unit_symbol(unit: pint.Unit | str, style: str = "text") -> str:
 
     ``style`` is one of ``"text"`` (Unicode), ``"ascii"``, ``"latex"``.
     """
+    # the key keeps the units' order: kip·ft and ft·kip are equal units printed differently
+    key = (unit if isinstance(unit, str) else tuple(unit._units.items()), style)
+    cached = _SYMBOLS.get(key)
+    if cached is None:
+        cached = _unit_symbol(unit, style)
+        if len(_SYMBOLS) < _CACHE_LIMIT:
+            _SYMBOLS[key] = cached
+    return cached
+
+
+def _unit_symbol(unit: pint.Unit | str, style: str) -> str:
     if isinstance(unit, str):
         unit = ureg.parse_units(unit)
     parts: list[tuple[str, float]] = []

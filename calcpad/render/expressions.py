@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import html
 from collections.abc import Mapping
+from typing import Any
 
 import pint
 import sympy as sp
@@ -76,12 +77,25 @@ def quantity_text(q: pint.Quantity, sig: int = 4) -> str:
 
 
 def _unit_mathml(q: pint.Quantity) -> str:
+    key = tuple(q.units._units.items())  # in the units' own order (kip·ft is not ft·kip)
+    found = _UNIT_MATHML.get(key)
+    if found is None:
+        found = _unit_mathml_of(key)
+        if len(_UNIT_MATHML) < 4096:
+            _UNIT_MATHML[key] = found
+    return found
+
+
+#: MathML of units by their (name, power) items: a submittal prints the same few units thousands of times.
+_UNIT_MATHML: dict[tuple[tuple[str, Any], ...], str] = {}
+
+
+def _unit_mathml_of(units: tuple[tuple[str, Any], ...]) -> str:
     parts = []
-    units = q.units._units
     from calcpad.core.units import ureg
 
-    num = [(ureg.get_symbol(n), p) for n, p in units.items() if p > 0]
-    den = [(ureg.get_symbol(n), -p) for n, p in units.items() if p < 0]
+    num = [(ureg.get_symbol(n), p) for n, p in units if p > 0]
+    den = [(ureg.get_symbol(n), -p) for n, p in units if p < 0]
 
     def one(sym: str, p: float) -> str:
         sym = {"degree": "°", "percent": "%"}.get(sym, sym)

@@ -63,10 +63,24 @@ def _phrase(text: str, op: str = " ") -> list[Piece]:
 
 
 def _symbolic(expr: sp.Basic, op: str, budget: float) -> list[Piece]:
+    """The formula in names, split into pieces. Every calc of a template prints the same
+    formula objects (parsed once per text, :mod:`calcpad.core.formula`), so the pieces are kept
+    per expression object (by identity: sympy's equality may not see the author's term order)."""
+    key = (id(expr), op, budget)
+    hit = _SYMBOLIC.get(key)
+    if hit is not None and hit[0] is expr:
+        return list(hit[1])
+
     def printer(e: sp.Basic) -> tuple[str, str]:
         return symbolic_latex(e), symbolic_mathml(e)
 
-    return split_expr(expr, op, printer, estimate_width, budget, mul_op=".")
+    pieces = tuple(split_expr(expr, op, printer, estimate_width, budget, mul_op="."))
+    if len(_SYMBOLIC) < 8192:
+        _SYMBOLIC[key] = (expr, pieces)  # the entry keeps the expression alive, so its id stays its own
+    return list(pieces)
+
+
+_SYMBOLIC: dict[tuple[int, str, float], tuple[sp.Basic, tuple[Piece, ...]]] = {}
 
 
 def _substituted(f: FormulaResult, op: str, budget: float) -> list[Piece]:

@@ -33,6 +33,7 @@ from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
+from calcpad.runner.progress import RunProgress, in_notebook
 
 __all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
 
@@ -73,8 +74,9 @@ def _finite(obj: Any) -> Any:
     return obj
 
 
-def collect_sheets(namespace: dict[str, Any], template: str, member: str) -> list[dict[str, Any]]:
-    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel)."""
+def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> list[dict[str, Any]]:
+    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel);
+    with ``text=True`` also the plain-text hand calc (printed by a ``--set`` run)."""
     from calcpad.core.sheet import Sheet
     from calcpad.render.html import sheet_html_fragment
     from calcpad.render.record import sheet_record
@@ -100,15 +102,18 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str) -> lis
             result = sheet.evaluate()
             rec = sheet_record(result)
             rec["meta"] = {**rec["meta"], "template": template, "member": member}
-            out.append({"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3), "text": sheet_text(result)})
+            item = {"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)}
+            if text:
+                item["text"] = sheet_text(result)
+            out.append(item)
     return out
 
 
-def _emit(namespace: dict[str, Any], template: str, member: str) -> None:
+def _emit(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> None:
     """Kernel side: display the collected sheets as one JSON output."""
     from IPython.display import display
 
-    display({SHEETS_MIME: {"sheets": collect_sheets(namespace, template, member)}}, raw=True)
+    display({SHEETS_MIME: {"sheets": collect_sheets(namespace, template, member, text)}}, raw=True)
 
 
 def _close_figures() -> None:
@@ -129,8 +134,26 @@ def _values(calc: Calc) -> dict[str, Any]:
 # ----------------------------------------------------------------------------- in-process
 
 
-def run_calc_inprocess(calc: Calc) -> CalcOutcome:
-    """Run one calc's template cells in this process."""
+def _widget_ids() -> set[str]:
+    """Ids of the live ipywidgets (empty when ipywidgets was never imported)."""
+    mod = sys.modules.get("ipywidgets.widgets.widget")
+    return set(getattr(mod, "_instances", {})) if mod is not None else set()
+
+
+def _close_widgets(before: set[str]) -> None:
+    """Close the widgets a calc made (ipywidgets keeps every widget in a registry until closed)."""
+    mod = sys.modules.get("ipywidgets.widgets.widget")
+    if mod is None:
+        return
+    for key in set(getattr(mod, "_instances", {})) - before:
+        widget = mod._instances.get(key)
+        if widget is not None:
+            widget.close()
+
+
+def run_calc_inprocess(calc: Calc, text: bool = False) -> CalcOutcome:
+    """Run one calc in this process: the template's code cells after its parameters cell and
+    before its what-if cell (:meth:`Template.body`; the panel is for the notebook reader)."""
     os.environ.setdefault("MPLBACKEND", "Agg")
     start = time.perf_counter()
     tpl = calc.template
@@ -138,24 +161,24 @@ def run_calc_inprocess(calc: Calc) -> CalcOutcome:
     namespace.update(_values(calc))
     outcome = CalcOutcome(calc)
     sink = io.StringIO()
+    widgets = _widget_ids()
     try:
         with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink):
-            for cell in tpl.code_cells:
-                if cell.index == tpl.parameters_cell:
-                    continue
+            for index, code in tpl.body():
                 try:
-                    code = compile(cell.source, f"<template {tpl.name} cell {cell.index}>", "exec")
                     exec(code, namespace)  # template code (trusted); job values are data in `namespace`
                 except Exception as exc:
-                    outcome.error = {"cell": cell.index, "message": f"{type(exc).__name__}: {exc}"}
+                    outcome.error = {"cell": index, "message": f"{type(exc).__name__}: {exc}"}
                     break
             if outcome.error is None:
                 try:
-                    outcome.sheets = collect_sheets(namespace, tpl.name, calc.member)
+                    outcome.sheets = collect_sheets(namespace, tpl.name, calc.member, text)
                 except Exception as exc:
                     outcome.error = {"cell": None, "message": f"{type(exc).__name__}: {exc}"}
     finally:
         _close_figures()
+        _close_widgets(widgets)
+        namespace.clear()  # the calc's objects go now, not when a reference cycle is collected
     outcome.seconds = time.perf_counter() - start
     return outcome
 
@@ -168,6 +191,10 @@ import sys as _calcpad_sys
 _calcpad_plt = _calcpad_sys.modules.get("matplotlib.pyplot")
 if _calcpad_plt is not None:
     _calcpad_plt.close("all")
+_calcpad_w = _calcpad_sys.modules.get("ipywidgets.widgets.widget")
+if _calcpad_w is not None:  # the previous calc's what-if panel: ipywidgets keeps widgets until closed
+    for _calcpad_x in list(_calcpad_w._instances.values()):
+        _calcpad_x.close()
 get_ipython().run_line_magic("reset", "-f")
 """
 
@@ -194,7 +221,7 @@ class _KernelSession:
         self.kc.stop_channels()
         self.km.shutdown_kernel(now=True)
 
-    def notebook(self, calc: Calc) -> Any:
+    def notebook(self, calc: Calc, text: bool = False) -> Any:
         import nbformat
         from papermill.parameterize import parameterize_notebook
 
@@ -211,13 +238,13 @@ class _KernelSession:
         nb = parameterize_notebook(nb, _values(calc), comment="Parameters from the calcpad job", kernel_name=KERNEL, language="python")
         collect = nbformat.v4.new_code_cell(
             "from calcpad.runner.execute import _emit as _calcpad_emit\n"
-            f"_calcpad_emit(globals(), {tpl.name!r}, {calc.member!r})"
+            f"_calcpad_emit(globals(), {tpl.name!r}, {calc.member!r}, {text!r})"
         )
         collect.metadata["calcpad_cell"] = "collect"
         nb.cells.append(collect)
         return nb
 
-    def run(self, calc: Calc) -> CalcOutcome:
+    def run(self, calc: Calc, text: bool = False) -> CalcOutcome:
         from nbclient import NotebookClient
         from nbclient.exceptions import CellExecutionError
 
@@ -226,7 +253,7 @@ class _KernelSession:
         if self.used:
             self.kc.execute_interactive(_RESET, silent=True, store_history=False, timeout=self.timeout)
         self.used = True
-        nb = self.notebook(calc)
+        nb = self.notebook(calc, text)
         client = NotebookClient(nb, km=self.km, timeout=self.timeout, kernel_name=KERNEL, allow_errors=False)
         client.kc = self.kc
         try:
@@ -270,11 +297,20 @@ def run_job(
     mode: str = "inprocess",
     progress: Callable[[CalcOutcome], None] | None = None,
     timeout: int = 600,
+    text: bool = False,
 ) -> list[CalcOutcome]:
-    """Run every calc of ``job``; a failing calc is recorded and the others still run."""
+    """Run every calc of ``job``; a failing calc is recorded and the others still run.
+
+    ``progress`` is called with each outcome as it is done (without one, a run in a Jupyter
+    notebook shows a progress bar once it has gone on for 2 s); ``text=True`` adds each sheet's
+    plain-text hand calc (``"text"``) to the collected sheets."""
     if mode not in MODES:
         raise ValueError(f"mode {mode!r}; expected one of {MODES}")
     outcomes: list[CalcOutcome] = []
+    bar = None
+    if progress is None and in_notebook():  # a batch run from a notebook gets a bar (after 2 s)
+        bar = RunProgress(len(job.calcs))
+        progress = lambda o: bar.advance(f"{o.calc.template.name} {o.calc.member}")  # noqa: E731
     previous = os.environ.get(SYSTEM_ENV)
     os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
     # only the job decides which shop table is used: none from the environment of this process
@@ -283,11 +319,13 @@ def run_job(
         shop_env = {ENV_PATH: job.shop_path, ENV_SHA256: job.shop_table.sha256} if job.shop_table is not None and job.shop_path else {}
         with shop_table_in_use(job.shop_table), _session(mode, timeout, job.info.units, shop_env) as session:
             for calc in job.calcs:
-                outcome = run_calc_inprocess(calc) if session is None else session.run(calc)
+                outcome = run_calc_inprocess(calc, text) if session is None else session.run(calc, text)
                 outcomes.append(outcome)
                 if progress is not None:
                     progress(outcome)
     finally:
+        if bar is not None:
+            bar.close()
         if previous is None:
             os.environ.pop(SYSTEM_ENV, None)
         else:

@@ -41,6 +41,7 @@ __all__ = [
     "Template",
     "TemplateError",
     "find_template",
+    "is_what_if_cell",
     "library_template",
     "list_templates",
     "load_template",
@@ -179,6 +180,11 @@ class Parameter:
                 raise InputError(f"{where}: {value!r} is outside the stated range '{self.range_text}' (parameter {self.name!r})")
 
 
+def is_what_if_cell(source: str) -> bool:
+    """True for the cell that makes the what-if panel (batch runs and rebuilds stop before it)."""
+    return "what_if(" in source
+
+
 @dataclass
 class Template:
     """A template notebook read from disk (nothing executed)."""
@@ -189,11 +195,27 @@ class Template:
     cells: list[Cell]
     parameters: dict[str, Parameter]
     parameters_cell: int  # 1-based cell index of the parameters cell
+    _body: list[tuple[int, Any]] | None = field(default=None, init=False, repr=False, compare=False)
 
     @property
     def code_cells(self) -> list[Cell]:
         """Code cells in order."""
         return [c for c in self.cells if c.kind == "code"]
+
+    def body(self) -> list[tuple[int, Any]]:
+        """The calc: code cells after the parameters cell and before the first what-if cell, as
+        ``(cell index, code object)``, compiled once per template. The what-if cells are for the
+        notebook reader; a batch run and a what-if rebuild both stop before them."""
+        if self._body is None:
+            cells = []
+            for cell in self.code_cells:
+                if cell.index == self.parameters_cell:
+                    continue
+                if is_what_if_cell(cell.source):
+                    break
+                cells.append((cell.index, compile(cell.source, f"<template {self.name} cell {cell.index}>", "exec")))
+            self._body = cells
+        return self._body
 
     def suggest(self, name: str) -> str:
         """``"; did you mean 'L'?"`` for a misspelt parameter name (or "")."""

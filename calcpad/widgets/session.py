@@ -26,18 +26,13 @@ from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import parse_quantity
 from calcpad.runner.job import CONTEXT_PARAMETERS
-from calcpad.runner.template import Parameter, Template, find_template, load_template
+from calcpad.runner.template import Parameter, Template, find_template, is_what_if_cell, load_template
 from calcpad.widgets import live
 
 __all__ = ["CONTEXT_NAMES", "TemplateSession", "is_what_if_cell"]
 
 #: Parameters filled in by the runner, not by the engineer (no control, not exported).
 CONTEXT_NAMES = CONTEXT_PARAMETERS
-
-
-def is_what_if_cell(source: str) -> bool:
-    """True for the cell that makes the what-if panel (a rebuild stops before it)."""
-    return "what_if(" in source
 
 
 def _user_values(names: list[str]) -> dict[str, Any]:
@@ -66,7 +61,6 @@ class TemplateSession:
     def __init__(self, template: str | Path | Template, values: Mapping[str, Any] | None = None) -> None:
         self.template = template if isinstance(template, Template) else load_template(find_template(str(template)))
         self._parsed: dict[tuple[str, Any], pint.Quantity] = {}
-        self._code: list[Any] | None = None
         self.parameters: dict[str, Parameter] = {n: p for n, p in self.template.parameters.items() if n not in CONTEXT_NAMES}
         self.values: dict[str, str | float] = {n: p.default for n, p in self.template.parameters.items()}
         given = dict(values) if values is not None else _user_values(list(self.template.parameters))
@@ -105,17 +99,7 @@ class TemplateSession:
 
     def _compiled_cells(self) -> list[tuple[int, Any]]:
         """Code cells after the parameters cell and before the what-if cell, compiled once."""
-        if self._code is None:
-            tpl = self.template
-            cells = []
-            for cell in tpl.code_cells:
-                if cell.index == tpl.parameters_cell:
-                    continue
-                if is_what_if_cell(cell.source):
-                    break
-                cells.append((cell.index, compile(cell.source, f"<template {tpl.name} cell {cell.index}>", "exec")))
-            self._code = cells
-        return self._code
+        return self.template.body()
 
     def build(self, values: Mapping[str, Any] | None = None) -> list[Sheet]:
         """Run the template's code cells before its what-if cell; the sheets made, in order.

@@ -108,3 +108,32 @@ def test_sway_amplifier_multiplies_p_and_m_of_every_case():
     assert sh["P_fr2"].to("kip").magnitude == pytest.approx(1.25 * D_KIP, rel=1e-9)
     with pytest.raises(CalcpadError, match="B2"):
         check_frame_member(Sheet("x"), _post(), "AB", HSS, L="120 in", B2=0.9, F_y="50 ksi")
+
+
+def test_every_case_row_matches_its_own_direct_check():
+    # The per-case checks reuse one scratch sheet per pattern of force signs (values set, not
+    # rebuilt): each row must still equal check_member run on a fresh sheet with that case's
+    # forces (the governing-case oracle above, for every case), so no case shows another's result.
+    fr = Frame("kip", "in")
+    fr.node("A", 0, 0)
+    fr.node("B", 0, L_IN)
+    fr.member("AB", "A", "B", E="29000 ksi", A="3.37 in^2", I="7.80 in^4")
+    fr.support("A", "fixed")
+    fr.node_load("D", "B", Fy=f"{-D_KIP} kip")
+    fr.node_load("W", "B", Fx=f"{H_KIP} kip", Fy=f"{2.5 * D_KIP} kip")  # wind with uplift: some cases in tension
+    factors = {"C1": (1.0, 0.3), "C2": (1.0, 0.6), "C3": (1.0, 1.0), "C4": (0.6, 0.6), "C5": (0.6, 1.0), "C6": (0.9, 1.6), "C7": (1.2, 0.5)}
+    for name, (d, w) in factors.items():
+        fr.combination(name, {"D": d, "W": w})
+    res = fr.solve()
+    sh = Sheet("post", method="ASD")
+    check_frame_member(sh, res, "AB", HSS, L="10 ft", K=2.1, F_y="50 ksi", F_u="62 ksi", cases=list(factors))
+    table = next(s for s in sh.evaluate().steps if getattr(s, "title", "").startswith("Governing ratio per case"))
+    signs = set()
+    for row in table.rows:
+        f = frame_member_forces(res, "AB", row[1])
+        signs.add(f.P.magnitude > 0)
+        direct = check_member(Sheet("direct", method="ASD"), HSS, L="10 ft", K=2.1, F_y="50 ksi", F_u="62 ksi", P=f.P, M_x=f.M, V=f.V,
+                              table=False)
+        assert (row[5], row[6]) == (f"{direct.governing_ratio:.3f}", direct.governing), row[1]
+    assert signs == {True, False}  # both compression and tension cases were checked
+    assert len({row[5] for row in table.rows}) == len(factors)  # every case its own ratio

@@ -109,3 +109,42 @@ def test_job_units_set_sheet_display_system(tmp_path):
         else:
             os.environ[SYSTEM_ENV] = before
     assert Sheet("us").system == (before or "US")
+
+
+PANEL_TEMPLATE = '''\
+# %% tags=["parameters"]
+P = "100 lbf"  # load; 0 < P <= 1 kip
+
+# %%
+import ipywidgets
+from calcpad import Sheet
+
+sh = Sheet("Panel test")
+sh.given("P", P, "Load")
+sh.given("P_a", "500 lbf", "Allowable load")
+sh.check("Load", demand="P", capacity="P_a")
+helper = ipywidgets.FloatSlider(value=1.0)  # a widget made by the calc itself
+
+# %%
+from calcpad.widgets import what_if
+
+panel = what_if(sh)
+
+# %%
+raise RuntimeError("a cell after the what-if cell ran in a batch")
+'''
+
+
+def test_batch_stops_before_the_what_if_cell_and_leaves_no_widgets(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    import ipywidgets.widgets.widget as w
+
+    (tmp_path / "panel_test.py").write_text(PANEL_TEMPLATE, encoding="utf-8")
+    monkeypatch.setenv("CALCPAD_TEMPLATES", str(tmp_path))
+    calcs = "".join(f'\n[[calcs]]\ntemplate = "panel_test"\nmember = "M{i}"\n[calcs.inputs]\nP = "{100 + i} lbf"\n' for i in range(4))
+    job = parse_job(JOB_HEAD + calcs, "job.toml")
+    run_job(job)  # first use: imports and registries settle
+    before = len(w._instances)
+    outcomes = run_job(job)
+    assert [o.error for o in outcomes] == [None] * 4  # the failing cell after the panel is not run
+    assert [s["record"]["inputs"]["P"]["value"] for o in outcomes for s in o.sheets] == [100.0, 101.0, 102.0, 103.0]
+    assert len(w._instances) == before  # the widget registry does not grow per calc

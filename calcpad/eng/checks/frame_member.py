@@ -66,6 +66,75 @@ def _q(value: float, unit: str) -> pint.Quantity:
     return Q_(value + 0.0, unit)  # + 0.0: no negative zero in the sheet
 
 
+def _sign(q: pint.Quantity) -> int:
+    return int(np.sign(float(q.magnitude)))
+
+
+class _Scratches:
+    """The per-case member checks of :func:`check_frame_member`, on reused scratch sheets.
+
+    A scratch sheet is built once per pattern of force signs (which limit states apply and which
+    inputs are accepted depend only on the signs) and re-evaluated with each case's forces
+    through :meth:`Sheet.set`, which recomputes only what depends on them. Reuse needs the
+    forces as givens named as :func:`check_member` writes them (``P_r`` or ``T_r``, ``M_r``,
+    ``V_r``) holding the values passed; a sheet built otherwise is used for its own case only.
+    """
+
+    def __init__(self, sh: Sheet, section: Any, L: Any, options: dict[str, Any]) -> None:
+        self.sh, self.section, self.L, self.options = sh, section, L, options
+        self.sheets: dict[tuple[int, int, int], tuple[Sheet, MemberChecks]] = {}
+
+    def _build(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Sheet, MemberChecks]:
+        sh = self.sh
+        scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
+        with warnings.catch_warnings():  # cautions are raised again when the governing case is written
+            warnings.simplefilter("ignore")
+            out = check_member(scratch, self.section, L=self.L, P=P, M_x=M, V=V, table=False, **self.options)
+        return scratch, out
+
+    @staticmethod
+    def _forces(P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> dict[str, pint.Quantity]:
+        """The givens :func:`check_member` writes for the forces (tension as ``T_r = -P``)."""
+        out = {"M_r": M, "V_r": V}
+        if _sign(P) > 0:
+            out["P_r"] = P
+        elif _sign(P) < 0:
+            out["T_r"] = -P
+        return out
+
+    @staticmethod
+    def _holds(scratch: Sheet, forces: dict[str, pint.Quantity]) -> bool:
+        """True when the scratch sheet has each force as a given of that name and value."""
+        givens = {g.name: g.value for g in scratch.givens()}
+        for name, q in forces.items():
+            g = givens.get(name)
+            if g is None or g.dimensionality != q.dimensionality or float(g.to(q.units).magnitude) != float(q.magnitude):
+                return False
+        return True
+
+    @staticmethod
+    def _governing(scratch: Sheet, out: MemberChecks) -> tuple[str, float]:
+        checks = {c.key: c for c in scratch.evaluate().checks}
+        name, key = max(out.keys.items(), key=lambda kv: checks[kv[1]].ratio)
+        return name, checks[key].ratio
+
+    def check(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[str, float]:
+        """The governing limit state and its ratio for one case's forces."""
+        key = (_sign(P), _sign(M), _sign(V))
+        forces = self._forces(P, M, V)
+        entry = self.sheets.get(key)
+        if entry is not None:
+            scratch, out = entry
+            scratch.set(**forces)
+            with warnings.catch_warnings():  # as for a new scratch sheet: cautions come with the governing case
+                warnings.simplefilter("ignore")
+                return self._governing(scratch, out)
+        scratch, out = self._build(P, M, V)
+        if self._holds(scratch, forces):
+            self.sheets[key] = (scratch, out)
+        return out.governing, out.governing_ratio
+
+
 def check_frame_member(
     sh: Sheet,
     result: Any,
@@ -118,19 +187,17 @@ def check_frame_member(
     if not (np.isfinite(amp) and amp >= 1.0):
         raise CheckInputError("B2", B2, "a sway amplifier B2 >= 1 (AISC 360-16 Eq. A-8-6)")
     rows, best = [], None
+    scratches = _Scratches(sh, section, value(L), scratch_opts)
     for m in members:
         for c in names:
             f = frame_member_forces(result, m, c)
             if f.empty:
                 rows.append([m, f.case, f.P, f.M, f.V, "-", "no force"])
                 continue
-            scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
-            with warnings.catch_warnings():  # cautions are raised again when the governing case is written
-                warnings.simplefilter("ignore")
-                out = check_member(scratch, section, L=value(L), P=f.P * amp, M_x=f.M * amp, V=f.V, table=False, **scratch_opts)
-            rows.append([m, f.case, f.P, f.M, f.V, f"{out.governing_ratio:.3f}", out.governing])
-            if best is None or out.governing_ratio > best[0]:
-                best = (out.governing_ratio, m, f)
+            governing, ratio = scratches.check(f.P * amp, f.M * amp, f.V)
+            rows.append([m, f.case, f.P, f.M, f.V, f"{ratio:.3f}", governing])
+            if best is None or ratio > best[0]:
+                best = (ratio, m, f)
     if best is None:
         raise CheckInputError("cases", names, f"a case in which {', '.join(members)} carries force")
     _, gov_m, gov = best

@@ -1,0 +1,80 @@
+"""Caches of the engine (unit text, unit symbols, formulas, sheet values, digest, printed names):
+a cached answer is never stale — a changed input gives the new result — and refusals are
+never cached (each bad text is refused again, naming the field of that call).
+
+Expected values are unit facts (1 ft = 12 in, exact by definition) and the arithmetic of the
+formulas themselves.
+"""
+
+from __future__ import annotations
+
+import pytest
+
+from calcpad import Sheet
+from calcpad.core.errors import CalcpadError, FormulaError, UnitInputError
+from calcpad.core.formula import parse_formula
+from calcpad.core.units import parse_unit, unit_symbol, ureg
+from calcpad.render.html import sheet_html_fragment
+
+
+def test_unit_text_cache_gives_each_text_its_own_unit():
+    assert parse_unit("kip*ft") == ureg.kip * ureg.ft
+    assert parse_unit("kip*in") == ureg.kip * ureg.inch  # a different text after the first is read anew
+    assert parse_unit("kip*ft") == ureg.kip * ureg.ft
+
+
+def test_refused_unit_text_is_refused_every_time_with_its_own_field():
+    for field in ("step 'M' unit", "given 'P'"):
+        with pytest.raises(UnitInputError, match=field):
+            parse_unit("kip**ft", field)
+
+
+def test_unit_symbol_keeps_the_order_of_each_unit():
+    assert unit_symbol(ureg.kip * ureg.ft) == "kip·ft"
+    assert unit_symbol(ureg.ft * ureg.kip) == "ft·kip"  # equal units, printed in their own order
+    assert unit_symbol(ureg.kip * ureg.ft, "ascii") == "kip*ft"
+
+
+def test_formula_cache_returns_the_formula_of_the_text():
+    a, b = parse_formula("P*L"), parse_formula("P*L/2")
+    assert a.names == ("P", "L") and b.text == "P*L/2" and a is not b
+    for _ in range(2):
+        with pytest.raises(FormulaError):
+            parse_formula("P*__import__")
+
+
+def test_sheet_values_follow_changes_while_building_and_after_set():
+    sh = Sheet("cache")
+    sh.given("P", "100 lbf")
+    sh.given("L", "2 ft")
+    sh.step("M", "P*L", unit="lbf*in")
+    assert sh["M"].magnitude == pytest.approx(2400.0)  # 100 lbf x 24 in
+    first = sh.evaluate().digest
+    sh.set(L="3 ft")
+    assert sh["M"].magnitude == pytest.approx(3600.0)
+    assert sh.evaluate().digest != first  # the digest follows the givens
+    sh.step("M2", "2*M", unit="lbf*in")  # a step added after a read is in the order and evaluated
+    assert "M2" in sh.order() and sh["M2"].magnitude == pytest.approx(7200.0)
+    assert [c.name for c in sh.evaluate().steps if hasattr(c, "name")] == ["P", "L", "M", "M2"]
+
+
+def test_unknown_name_is_still_refused_after_the_order_was_kept():
+    sh = Sheet("cache")
+    sh.given("P", "1 lbf")
+    sh.order()
+    sh.step("Q", "P*X")
+    with pytest.raises(CalcpadError, match="unknown name 'X'"):
+        sh.evaluate()
+
+
+def test_printed_formula_keeps_each_authors_term_order():
+    html = []
+    for text in ("a*b", "b*a"):
+        sh = Sheet("order")
+        sh.given("a", "2 in")
+        sh.given("b", "3 in")
+        sh.step("c", text)
+        html.append(sheet_html_fragment(sh.evaluate()).split("<mi>c</mi>", 1)[1])  # the step's own line
+    assert html[0] != html[1]
+    assert html[0].index("<mi>a</mi>") < html[0].index("<mi>b</mi>")
+    assert html[1].index("<mi>b</mi>") < html[1].index("<mi>a</mi>")
