@@ -8,6 +8,7 @@ bracket a substituted base under a power, e.g. ``(1.900 in)^4``. Terms keep the 
 
 from __future__ import annotations
 
+import functools
 import html
 from collections.abc import Mapping
 
@@ -76,12 +77,17 @@ def quantity_text(q: pint.Quantity, sig: int = 4) -> str:
 
 
 def _unit_mathml(q: pint.Quantity) -> str:
+    return _units_mathml(tuple(q.units._units.items()))
+
+
+@functools.lru_cache(maxsize=4096)
+def _units_mathml(units: tuple[tuple[str, float], ...]) -> str:
+    """MathML of a unit's (name, power) pairs, in the author's order (cached: few units, printed often)."""
     parts = []
-    units = q.units._units
     from calcpad.core.units import ureg
 
-    num = [(ureg.get_symbol(n), p) for n, p in units.items() if p > 0]
-    den = [(ureg.get_symbol(n), -p) for n, p in units.items() if p < 0]
+    num = [(ureg.get_symbol(n), p) for n, p in units if p > 0]
+    den = [(ureg.get_symbol(n), -p) for n, p in units if p < 0]
 
     def one(sym: str, p: float) -> str:
         sym = {"degree": "°", "percent": "%"}.get(sym, sym)

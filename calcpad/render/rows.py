@@ -7,6 +7,7 @@ notes, tables and figures are not math rows; each printer prints them itself.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import pint
@@ -63,10 +64,19 @@ def _phrase(text: str, op: str = " ") -> list[Piece]:
 
 
 def _symbolic(expr: sp.Basic, op: str, budget: float) -> list[Piece]:
+    return list(_symbolic_pieces(expr, op, budget))
+
+
+@functools.lru_cache(maxsize=8192)
+def _symbolic_pieces(expr: sp.Basic, op: str, budget: float) -> tuple[Piece, ...]:
+    """The symbolic form depends on the formula only, not on the values: printed once per formula
+    (a what-if change re-prints rows whose values moved; their symbolic lines come from here).
+    Pieces are frozen, so sharing them is safe."""
+
     def printer(e: sp.Basic) -> tuple[str, str]:
         return symbolic_latex(e), symbolic_mathml(e)
 
-    return split_expr(expr, op, printer, estimate_width, budget, mul_op=".")
+    return tuple(split_expr(expr, op, printer, estimate_width, budget, mul_op="."))
 
 
 def _substituted(f: FormulaResult, op: str, budget: float) -> list[Piece]:
