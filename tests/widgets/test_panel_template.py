@@ -96,24 +96,53 @@ def test_a_post_without_lateral_load_is_now_accepted() -> None:
     assert panel.ratios["Flexure about x"] == 0.0  # no lateral load, no base moment
 
 
-@pytest.mark.parametrize(
-    ("name", "value", "default", "expected"),
-    [
-        # bound (sheet.set): P is inside "0 to 200 kip", but the base plate's tension-side
-        # thickness step cannot be evaluated (square root of a negative value)
-        ("P", "200 kip", 6.5, "t_t_plate"),
-        # re-run: rod_f is inside "1 in to 18 in", but the plate check refuses rods inside the wall
-        ("rod_f", "1 in", 3.75, "f > d/2 - t/2"),
-    ],
-)
-def test_a_value_the_sheet_cannot_take_rolls_back(name: str, value: str, default: float, expected: str) -> None:
+def test_a_value_the_template_refuses_rolls_back() -> None:
+    # re-run: rod_f is inside "1 in to 18 in", but the plate check refuses rods inside the wall
     panel = post_panel()
     before = dict(panel.ratios)
-    assert panel.set(name, value) is False
-    assert panel.last_error and expected in panel.last_error
+    assert panel.set("rod_f", "1 in") is False
+    assert panel.last_error and "f > d/2 - t/2" in panel.last_error
     assert "Not applied" in panel._message.value
     assert panel.ratios == before
-    assert panel.controls[name].value == pytest.approx(default)
+    assert panel.controls["rod_f"].value == pytest.approx(3.75)
+
+
+def test_a_value_the_sheet_cannot_evaluate_rolls_back() -> None:
+    """A given changed in place (the path of a bound parameter) that makes a step fail: a brace's
+    rise h = sqrt(L^2 - x^2) with its run x longer than the brace. x = 80 in is inside the given's
+    stated range, so only the evaluation can refuse it."""
+    sh = Sheet("Inclined brace")
+    sh.given("F", "2 kip", "Horizontal force")
+    sh.given("L_br", "60 in", "Brace length")
+    sh.given("x", "36 in", "Horizontal run", min="1 in", max="100 in")
+    sh.step("h", "sqrt(L_br**2 - x**2)", "Rise", unit="in")
+    sh.step("P_br", "F*L_br/x", "Brace force", unit="kip")
+    sh.given("P_a", "10 kip", "Allowable brace force")
+    sh.check("Brace force", demand="P_br", capacity="P_a")
+    panel = what_if(sh, ["x"])
+    before = dict(panel.ratios)
+    assert before["Brace force"] == pytest.approx(2 * 60 / 36 / 10, rel=1e-12)  # by hand
+    assert panel.set("x", "80 in") is False
+    assert panel.last_error and "'h'" in panel.last_error
+    assert "Not applied" in panel._message.value
+    assert panel.ratios == before and panel.sheet["x"].to("in").magnitude == 36.0
+    assert panel.controls["x"].value == pytest.approx(36.0)
+    assert panel.set("x", "48 in") is True and panel.sheet["h"].to("in").magnitude == pytest.approx(36.0, rel=1e-12)  # 3-4-5
+
+
+def test_every_axial_load_in_the_post_range_evaluates() -> None:
+    """P is stated "0 to 200 kip". At 200 kip the plate's bearing up to the rod line,
+    q_max (f + N/2) = (0.85·3 ksi/2.31)·10 in·8.75 in = 96.6 kip (AISC 360-16 J8, ASD), is
+    exceeded, so the bearing check is NG, at least P/(q_max·N) = 1.81 by vertical equilibrium
+    over the 10 in plate (statics), and the rod tension is not negative. This was once an error
+    (square root of a negative rod tension in the tension-side plate step)."""
+    panel = post_panel()
+    for value in ("0 kip", "50 kip", "100 kip", "150 kip", "200 kip"):
+        assert panel.set("P", value) is True, panel.last_error
+    q_max = 0.85 * 3 / 2.31 * 10
+    bearing = next(c for c in panel.sheet.summary() if c.key == "ratio_fp_plate")
+    assert bearing.status == "NG" and bearing.ratio >= 200 / (q_max * 10)
+    assert panel.sheet["T_a_plate"].to("kip").magnitude >= 0.0 and math.isfinite(panel.sheet["t_req_plate"].to("in").magnitude)
 
 
 def test_labels_are_words_with_the_symbol_and_units_follow_the_parameter() -> None:
