@@ -423,3 +423,23 @@ def test_an_unbound_parameter_re_runs_the_template() -> None:
     assert panel.set("FS_req", 2.0) is True  # FS_req goes into the check, not into a given
     assert panel.session.runs == runs + 1
     assert leg_check(panel).ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
+
+
+def test_the_leg_dropdown_offers_custom_dimensions() -> None:
+    """leg_bending's leg parameter says "... or custom for D_o and t": the dropdown lists
+    "custom", and choosing it in the control makes the sheet use D_o and t (hand ratio, module
+    docstring) while the catalog sizes stay listed."""
+    from calcpad.eng.sections.catalog import designations
+
+    panel = leg_panel()
+    leg = panel.controls["leg"]
+    assert "custom" in leg.options and set(designations("pipe")) <= set(leg.options)
+    assert panel.set("D_o", "2.375 in") is True and panel.set("t", "0.154 in") is True  # used by a custom leg only
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(), rel=1e-9)  # still Pipe 1-1/2 Std
+    leg.value = "custom"  # as a user picks it
+    assert panel.last_error is None and panel.session.values["leg"] == "custom"
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(D_o=2.375, t=0.154), rel=1e-9)
+    ans = panel.what_would_it_take("leg")  # the family is the dropdown's, though the value is custom
+    assert ans.status == "value" and ans.designation in designations("pipe")
+    post = post_panel()
+    assert "custom" not in post.controls["post"].options  # post_combined takes catalog sections only
