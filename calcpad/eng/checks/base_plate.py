@@ -170,31 +170,30 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
     calc.step("k_Y", "f_a + N_p/2", "f + N/2", unit="in")
     calc.step("Y_disc", "k_Y**2 - 2*(abs(M_r) + P_r*f_a)/q_max", "Discriminant, (f + N/2)^2 - 2P(e + f)/q_max (>= 0 when the "
               "bearing can balance the moment)", unit="in^2", ref="AISC Design Guide 1, Eq. 3.4.4")
-    # Four cases, the first that holds (P = 0, a pure moment, is large; at e = e_crit both give Y = P/q_max):
-    # small moment; large moment with the rods in tension (P <= q_max (f + N/2): the bearing block ends
-    # before the rod line, so T = q_max Y - P >= 0); a load the bearing up to the rod line cannot carry,
-    # P > q_max (f + N/2): the rods sit inside the bearing and take no tension, so with e < N/2 the
-    # bearing is uniform over N - 2e (q > q_max: NG), and with e >= N/2 it reaches the rod line,
-    # Y = f + N/2, at the intensity q that balances the moment about the rods (Y_disc < 0 there: NG).
-    small, rods, inside = "abs(M_r) < P_r*e_crit", "P_r <= q_max*k_Y", "abs(M_r) < P_r*N_p/2"
-    small_label, large_label = "small moment, e = M/P < e_crit", "large moment, e >= e_crit"
-    over = "P_r > q_max (f + N/2): the rods are inside the bearing and take no tension"
-    over_in, over_out = over + ", e < N/2; uniform bearing over N - 2e", "P_r > q_max (f + N/2), e >= N/2: bearing up to the rod line"
-    y_large = "k_Y*(1 - sqrt(max(Y_disc/k_Y**2, 0)))"
-    calc.branch("Y", [(small, "N_p - 2*abs(M_r)/P_r", small_label + ", Eq. 3.3.4"), (rods, y_large, large_label + ", Eq. 3.4.3"),
-                      (inside, "N_p - 2*abs(M_r)/P_r", over_in), (None, y_large, over_out)],
+    # The rods take tension once the eccentricity passes e_lim. Design Guide 1: e_lim = e_crit, the
+    # bearing block q_max Y = P + T ending before the rod line (P <= q_max (f + N/2), so T >= 0). A
+    # larger P puts the rods inside the bearing (statics): no rod tension while the resultant stays
+    # on the plate (e < N/2, uniform bearing over N - 2e at q > q_max: NG); beyond, the block reaches
+    # the rod line, Y = f + N/2, at the q that balances the moment about the rods (Y_disc < 0: NG).
+    rods = "P_r <= q_max*k_Y"
+    calc.branch("e_lim", [(rods, "e_crit", "the bearing block ends before the rod line: rods in tension once e >= e_crit"),
+                          (None, "N_p/2", "P_r > q_max (f + N/2): the rods lie inside the bearing; tension once e >= N/2")],
+                "Eccentricity at which the anchor rods take tension", unit="in", ref="AISC Design Guide 1, 3.3 and 3.4; statics")
+    small = "abs(M_r) < P_r*e_lim"  # P = 0 (pure moment) is large; at e = e_crit both cases give Y = P/q_max
+    small_label, large_label = "e = M/P < e_lim: no rod tension", "e >= e_lim: rods in tension"
+    calc.branch("Y", [(small, "N_p - 2*abs(M_r)/P_r", small_label + ", Eq. 3.3.4"),
+                      (None, "k_Y*(1 - sqrt(max(Y_disc/k_Y**2, 0)))", large_label + ", Eq. 3.4.3")],
                 "Bearing length", unit="in", ref="AISC Design Guide 1, 3.3 and 3.4")
-    q_rods = "2*(abs(M_r) + P_r*f_a)/k_Y**2"
-    calc.branch("q", [(small, "P_r/Y", small_label), (rods, q_rods, large_label +
-                       ": least bearing force per length that balances the moment about the rods (Y = f + N/2)"),
-                      (inside, "P_r/Y", over_in), (None, q_rods, over_out + ", balancing the moment about the rods")],
+    calc.branch("q", [(small, "P_r/Y", small_label), (None, "2*(abs(M_r) + P_r*f_a)/k_Y**2", large_label +
+                       ": least bearing force per length that balances the moment about the rods (Y = f + N/2)")],
                 "Bearing force per unit length needed", unit="kip/in", ref="AISC Design Guide 1, 3.3.1 and Eq. 3.4.4")
     keys.append(calc.check("Concrete bearing", "q", "q_max", key="ratio_fp", ref="AISC 360-16 J8"))
-    calc.branch("T_a", [(small, "0*P_r", small_label + ": no rod tension"), (rods, "q_max*Y - P_r", large_label + ", Eq. 3.4.2"),
-                        (inside, "0*P_r", over_in), (None, "q*Y - P_r", over_out + ", vertical equilibrium at q")],
+    beyond = "P_r > q_max (f + N/2): bearing up to the rod line at q (NG)"
+    calc.branch("T_a", [(small, "0*P_r", small_label), (rods, "q_max*Y - P_r", large_label + ", Eq. 3.4.2"),
+                        (None, "q*Y - P_r", beyond)],
                 "Anchor rod tension (all rods on the tension side)", unit="kip", ref="AISC Design Guide 1, 3.3 and 3.4")
     calc.branch("f_p", [(small, "q/B_p", small_label), (rods, "q_max/B_p", large_label + ": at the available limit"),
-                        (inside, "q/B_p", over_in), (None, "q/B_p", over_out)],
+                        (None, "q/B_p", beyond)],
                 "Bearing stress", unit="ksi", ref="AISC Design Guide 1, 3.3 and 3.4")
     _bearing_side(calc, "t_b", "Plate thickness, bearing side", "AISC Design Guide 1, 3.3.2 and 3.4")
     calc.step("x_t", "f_a - d_c/2 + t_c/2", "Rod line to the middle of the column's tension flange or wall", unit="in",
