@@ -498,7 +498,8 @@ class Sheet:
                 self._results[name] = self._evaluate_step(step)
                 recomputed.add(name)
         self._dirty.clear()
-        self._pending += [n for n in self._order if n in recomputed]
+        done = set(self._pending)
+        self._pending += [n for n in self._order if n in recomputed and n not in done]
 
     def _sig(self, step: Any) -> int:
         if getattr(step, "sig", None):

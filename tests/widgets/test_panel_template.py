@@ -443,3 +443,44 @@ def test_the_leg_dropdown_offers_custom_dimensions() -> None:
     assert ans.status == "value" and ans.designation in designations("pipe")
     post = post_panel()
     assert "custom" not in post.controls["post"].options  # post_combined takes catalog sections only
+
+
+def test_a_section_change_redraws_only_rows_that_print_differently(monkeypatch: pytest.MonkeyPatch) -> None:
+    """A section re-runs the template; the new sheet goes through the same in-place path: rows
+    that print as before (the loads, the base moment) are neither printed again nor redrawn, and
+    what is shown equals a print of the new sheet from scratch."""
+    import IPython.display as ipd
+
+    updated: list[str] = []
+    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
+    monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: None)
+    monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append(display_id))
+    sh = TemplateSession("post_combined").build()[0]
+    view = live.show(sh)
+    live.show_summary(sh)
+    panel = what_if(sh, template="post_combined", bind=POST_BIND, show="sheet")
+    names = [getattr(s, "name", getattr(s, "key", None)) for s in sh.evaluate().steps]
+    before = {n: view._bundles[1 + i] for i, n in enumerate(names) if n}
+    printed, n_steps = view.printed, len(names)
+    updated.clear()
+    assert panel.set("post", "HSS5x5x1/4") is True and "HSS5x5x1/4" in panel.sheet.title
+    assert live.view_for(panel.sheet) is view  # the display moved to the new sheet
+    new_names = [getattr(s, "name", getattr(s, "key", None)) for s in panel.sheet.evaluate().steps]
+    after = {n: view._bundles[1 + i] for i, n in enumerate(new_names) if n}
+    for same in ("P_top", "H_top", "L_post", "M_base", "V_base"):  # independent of the section
+        assert after[same] is before[same], same
+    assert after["A"] is not before["A"]  # the section's area changed (HSS4x4x1/4 -> HSS5x5x1/4)
+    assert 0 < view.printed - printed < n_steps
+    fresh = live.SheetView(panel.sheet)
+    assert fresh.bundles() == view.bundles()  # what is shown is what a full print gives
+    assert [o.outputs[0]["data"] for o in panel._sheet_outs] == fresh.bundles()  # the panel's copy too
+    assert updated  # sections with changed rows were redrawn in place
+
+
+def test_print_key_tells_apart_what_prints_differently() -> None:
+    from calcpad.core.units import Q_
+
+    assert live.print_key(Q_(1.0, "in")) == live.print_key(Q_(1.0, "in"))
+    assert live.print_key(Q_(1.0, "in")) != live.print_key(Q_(25.4, "mm"))  # equal lengths, printed differently
+    assert live.print_key(Q_(2.0, "kip*ft")) != live.print_key(Q_(2.0, "ft*kip"))  # unit order prints
+    assert live.print_key(Q_(2.0, "in")) != live.print_key(Q_(2.0000001, "in"))
