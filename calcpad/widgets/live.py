@@ -127,7 +127,7 @@ class _Entry:
     bundle: dict[str, str]
 
 
-@dataclass
+@dataclass(repr=False)
 class SheetView:
     """Printed steps of one sheet, re-printed only where a step changed.
 
@@ -148,6 +148,9 @@ class SheetView:
     _bundles: list[dict[str, str]] = field(default_factory=list)
     _printed: list[Printed] = field(default_factory=list)
     _entries: dict[Any, _Entry] = field(default_factory=dict)
+
+    def __repr__(self) -> str:
+        return f"<SheetView of {self.sheet.title!r}: {len(self._steps)} rows, {self.printed} printed>"
 
     def bundles(self) -> list[dict[str, str]]:
         """One bundle per step (the sheet title first), printing what is not cached yet."""
@@ -250,11 +253,12 @@ def view_for(sheet: Sheet) -> SheetView | None:
     return live.view if live is not None else None
 
 
-def show(sheet: Sheet) -> SheetView | None:
+def show(sheet: Sheet) -> None:
     """Display ``sheet`` in a notebook, one output per section, kept so :func:`refresh` can
-    redraw changed steps in place. Does nothing outside IPython. Returns the view (or None)."""
+    redraw changed steps in place. Does nothing outside IPython. Returns nothing, so a cell
+    ending with ``show(sh)`` prints no value (:func:`view_for` gives the view)."""
     if _shell() is None:
-        return None
+        return
     from IPython.display import display
 
     view = SheetView(sheet)
@@ -272,7 +276,6 @@ def show(sheet: Sheet) -> SheetView | None:
     if old is not None:
         live.summary_ids = old.summary_ids
     _LIVE[id(sheet)] = live
-    return view
 
 
 def show_summary(sheet: Sheet) -> None:

@@ -456,7 +456,8 @@ def test_a_section_change_redraws_only_rows_that_print_differently(monkeypatch: 
     monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: None)
     monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append(display_id))
     sh = TemplateSession("post_combined").build()[0]
-    view = live.show(sh)
+    live.show(sh)
+    view = live.view_for(sh)
     live.show_summary(sh)
     panel = what_if(sh, template="post_combined", bind=POST_BIND, show="sheet")
     names = [getattr(s, "name", getattr(s, "key", None)) for s in sh.evaluate().steps]
