@@ -14,11 +14,9 @@ import sys
 import tempfile
 from pathlib import Path
 
-__all__ = ["main", "refresh_notebook"]
-
 from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 
-__all__ += ["KERNEL"]  # the kernel stored templates ask for (defined in runner.kernel)
+__all__ = ["KERNEL", "main", "refresh_notebook"]  # KERNEL: the kernel stored templates ask for (runner.kernel)
 
 
 def refresh_notebook(source: Path, timeout: int = 600) -> Path:
