@@ -11,8 +11,9 @@ differently are printed and redrawn). In ``sheet`` mode the panel also keeps its
 Goal: refresh <= 0.3 x rebuild for a load change in every mode; the section rows are printed
 for the record (a section changes about a third of the rows and needs the template's cells run).
 
-Each row alternates between two values and takes the fastest of REPEAT runs (on a shared machine
-the minimum is the cost without interference).
+Each row alternates between two values; rebuilds and refreshes run in turn (so both see the same
+machine load) and each takes the fastest of REPEAT runs (on a shared machine the minimum is the
+cost without interference).
 
     .venv/bin/python benchmarks/bench_panel.py
 """
@@ -36,14 +37,17 @@ CASES = {
 REPEAT = 30
 
 
-def _best(fn: Callable[[int], None]) -> float:
-    fn(0)
-    times = []
+def _best_pair(rebuild: Callable[[int], None], refresh: Callable[[int], None]) -> tuple[float, float]:
+    """Fastest of REPEAT runs of each, the two taken in turn so both see the same machine load."""
+    rebuild(0)
+    refresh(0)
+    times: tuple[list[float], list[float]] = ([], [])
     for i in range(REPEAT):
-        t = time.perf_counter()
-        fn(i + 1)
-        times.append(time.perf_counter() - t)
-    return min(times)
+        for fn, out in ((rebuild, times[0]), (refresh, times[1])):
+            t = time.perf_counter()
+            fn(i + 1)
+            out.append(time.perf_counter() - t)
+    return min(times[0]), min(times[1])
 
 
 def main() -> None:
@@ -62,7 +66,6 @@ def main() -> None:
                 summary_html(result)
                 summary_text(result)
 
-            t_rebuild = _best(rebuild)
             for mode in ("checks", "sheet"):
                 sh = session.build()[0]
                 live.show(sh)
@@ -72,7 +75,7 @@ def main() -> None:
                 def refresh(i: int, panel=panel, param: str = param, values: tuple[str, str] = values) -> None:
                     assert panel.set(param, values[i % 2]), panel.last_error
 
-                t_refresh = _best(refresh)
+                t_rebuild, t_refresh = _best_pair(rebuild, refresh)
                 kind = "load" if panel._inputs[param].given else "re-run"
                 print(f"{name:15} {mode:7} {param:8} {t_rebuild * 1e3:10.2f} {t_refresh * 1e3:10.2f} {t_refresh / t_rebuild:6.2f}  ({kind})")
 
