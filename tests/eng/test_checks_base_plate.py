@@ -84,7 +84,10 @@ def test_large_moment_statics(method):
     ("kw", "field", "err"),
     [({"A2_A1": 5.0}, "A2_A1", CalcpadError), ({"P": "-5 kip"}, "P_r", CalcpadError),
      ({"M": "120 kip*in"}, "f / d_rod", CalcpadError), ({"n_rods": 0}, "n_rods", CalcpadError),
-     ({"M": "120 kip*in", "f": "1 in", "d_rod": "0.75 in"}, "f", CalcpadError)],
+     ({"M": "120 kip*in", "f": "1 in", "d_rod": "0.75 in"}, "f", CalcpadError),
+     # rods off a 10 in plate (f >= N/2 = 5 in): the statics of DG1 3.4 put them on the plate
+     ({"M": "120 kip*in", "f": "5 in", "d_rod": "0.75 in"}, "f", CalcpadError),
+     ({"M": "120 kip*in", "f": "18 in", "d_rod": "0.75 in"}, "f", CalcpadError)],
 )
 def test_bad_input(kw, field, err):
     with pytest.raises(err) as e:

@@ -485,3 +485,12 @@ def test_print_key_tells_apart_what_prints_differently() -> None:
     assert live.print_key(Q_(1.0, "in")) != live.print_key(Q_(25.4, "mm"))  # equal lengths, printed differently
     assert live.print_key(Q_(2.0, "kip*ft")) != live.print_key(Q_(2.0, "ft*kip"))  # unit order prints
     assert live.print_key(Q_(2.0, "in")) != live.print_key(Q_(2.0000001, "in"))
+
+
+def test_anchor_rods_must_sit_on_the_plate() -> None:
+    """post_combined states rod_f as "1 in <= rod_f < plate_N/2" (rods on the 10 in plate, common
+    practice); the bound follows the plate's current length."""
+    panel = post_panel()
+    assert panel.set("rod_f", "6 in") is False and "plate_N/2" in panel.last_error
+    assert panel.set("plate_N", "14 in") is True
+    assert panel.set("rod_f", "6 in") is True and panel.sheet["f_a_plate"].to("in").magnitude == 6.0

@@ -167,6 +167,8 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
                      "change that makes the moment large needs the rods (f, d_rod) and a rebuilt sheet.")
         return
     calc.given("f_a", f, "Plate centre to the anchor rods (tension side)", dim="[length]")
+    if calc.value("f_a", "in") >= calc.value("N_p", "in") / 2:
+        raise CheckInputError("f", f, f"anchor rods on the plate: f < N/2 = {calc.value('N_p', 'in') / 2:g} in (half the plate length N)")
     calc.step("k_Y", "f_a + N_p/2", "f + N/2", unit="in")
     calc.step("Y_disc", "k_Y**2 - 2*(abs(M_r) + P_r*f_a)/q_max", "Discriminant, (f + N/2)^2 - 2P(e + f)/q_max (>= 0 when the "
               "bearing can balance the moment)", unit="in^2", ref="AISC Design Guide 1, Eq. 3.4.4")
