@@ -408,7 +408,7 @@ def _lab(folder: Path, dry_run: bool) -> int:
     import shutil
     import subprocess
 
-    from calcpad.runner.store import KERNEL
+    from calcpad.runner.kernel import KERNEL
 
     if not folder.is_dir():
         print(f"calcpad: {folder} is not a folder; expected the template library (default notebooks/)", file=sys.stderr)

@@ -25,7 +25,7 @@ plate_t = "7/8 in"  # base plate thickness; 1/4 in to 3 in
 plate_grade = "A36"  # base plate steel, materials catalog name
 f_c = "3000 psi"  # concrete compressive strength f'c; 2500 psi to 8000 psi
 rod_d = "3/4 in"  # anchor rod diameter (ASTM F1554 Gr 36, two rods on the tension side); 1/2 in to 2 in
-rod_f = "3.75 in"  # plate centre to the anchor rod line (four rods, square pattern 2f x 2f); 1 in to 18 in
+rod_f = "3.75 in"  # plate centre to the anchor rod line (four rods, square pattern 2f x 2f); 1 in <= rod_f < plate_N/2
 anchor_h_ef = "12 in"  # anchor rod embedment h_ef, cast-in with a heavy hex nut; 4 in to 25 in
 pier_edge = "8 in"  # edge distance from the anchor rods to each face of the pier; 2 in to 48 in
 pier_depth = "36 in"  # depth of the concrete pier below the plate; 8 in to 120 in

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import ast
 import difflib
+import functools
 from collections.abc import Iterable
 from dataclasses import dataclass
 
@@ -248,6 +249,14 @@ def _parse(text: str, allow_compare: bool) -> Formula:
 def _parse_text(text: str, allow_compare: bool) -> Formula:
     if not isinstance(text, str):
         raise FormulaError(f"formula {text!r}: expected a formula string such as 'M*c/I'")
+    return _parse_text(text, allow_compare)
+
+
+@functools.lru_cache(maxsize=8192)
+def _parse_text(text: str, allow_compare: bool) -> Formula:
+    """Parse once per text: a template re-run (what-if panel) writes the same formulas again.
+    Formulas are frozen and sympy trees immutable, so sheets can share them; a refused text
+    raises every time (exceptions are not cached)."""
     if len(text) > MAX_LENGTH:
         raise FormulaError(f"formula is {len(text)} characters long; the limit is {MAX_LENGTH}")
     if not text.strip():

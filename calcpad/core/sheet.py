@@ -161,6 +161,7 @@ class Sheet:
         self._result: SheetResult | None = None
         self._order: list[str] | None = None  # evaluation order, until a step is added
         self._digest: str | None = None  # digest of the givens, until one changes
+        self._pending: list[str] = []  # computed since the last result model
         self.last_recomputed: list[str] = []
 
     # ------------------------------------------------------------------ building
@@ -190,9 +191,16 @@ class Sheet:
                 )
             if name in self._defs:
                 raise SheetError(f"sheet {self.title!r}: {name!r} is defined twice; every name in a sheet is unique")
+        # a step using only names defined already goes last in a valid order (nothing before it can use
+        # its name: a valid order has no unknown names); anything else re-sorts at the next evaluation
+        if self._order is not None and all(d in self._defs for d in step.depends):
+            if name is not None:
+                self._order.append(name)
+        else:
+            self._order = None
+        if name is not None:
             self._defs[name] = step
             self._dirty.add(name)
-            self._order = None
             if isinstance(step, Given):
                 self._digest = None
         self._steps.append(step)
@@ -477,25 +485,30 @@ class Sheet:
 
     def evaluate(self) -> SheetResult:
         """Evaluate (incrementally) and return the result model."""
-        self._update()
-        if self._result is None:
-            self._result = self._assemble()
+        if self._result is not None and not self._dirty:
+            return self._result
+        self._compute()
+        self.last_recomputed, self._pending = self._pending, []
+        self._result = self._assemble()
         return self._result
 
-    def _update(self) -> None:
-        """Recompute what changed since the last run (the values; the result model is assembled
-        only when :meth:`evaluate` asks for it, so reading values while building stays cheap)."""
+    def _compute(self) -> None:
+        """Evaluate the steps that changed, without assembling the result model (reading values
+        while a template builds a sheet needs only the values). :attr:`last_recomputed` lists
+        every step computed since the previous result model."""
         if not self._dirty:
             return
+        if self._order is None:
+            self._order = self.order()
         recomputed: set[str] = set()
-        order = self.order()
-        for name in order:
+        for name in self._order:
             step = self._defs[name]
             if name in self._dirty or name not in self._results or any(d in recomputed for d in step.depends):
                 self._results[name] = self._evaluate_step(step)
                 recomputed.add(name)
         self._dirty.clear()
-        self.last_recomputed = [n for n in order if n in recomputed]
+        done = set(self._pending)
+        self._pending += [n for n in self._order if n in recomputed and n not in done]
 
     def _sig(self, step: Any) -> int:
         if getattr(step, "sig", None):
@@ -655,7 +668,7 @@ class Sheet:
     # ------------------------------------------------------------------ reading
 
     def __getitem__(self, name: str) -> pint.Quantity:
-        self._update()
+        self._compute()
         if name not in self._shown:
             raise KeyError(f"{name!r} is not a name in sheet {self.title!r}{self._did_you_mean(name)}")
         return self._shown[name]

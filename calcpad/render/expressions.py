@@ -8,9 +8,9 @@ bracket a substituted base under a power, e.g. ``(1.900 in)^4``. Terms keep the 
 
 from __future__ import annotations
 
+import functools
 import html
 from collections.abc import Mapping
-from typing import Any
 
 import pint
 import sympy as sp
@@ -77,20 +77,12 @@ def quantity_text(q: pint.Quantity, sig: int = 4) -> str:
 
 
 def _unit_mathml(q: pint.Quantity) -> str:
-    key = tuple(q.units._units.items())  # in the units' own order (kip·ft is not ft·kip)
-    found = _UNIT_MATHML.get(key)
-    if found is None:
-        found = _unit_mathml_of(key)
-        if len(_UNIT_MATHML) < 4096:
-            _UNIT_MATHML[key] = found
-    return found
+    return _units_mathml(tuple(q.units._units.items()))
 
 
-#: MathML of units by their (name, power) items: a submittal prints the same few units thousands of times.
-_UNIT_MATHML: dict[tuple[tuple[str, Any], ...], str] = {}
-
-
-def _unit_mathml_of(units: tuple[tuple[str, Any], ...]) -> str:
+@functools.lru_cache(maxsize=4096)
+def _units_mathml(units: tuple[tuple[str, float], ...]) -> str:
+    """MathML of a unit's (name, power) pairs, in the author's order (cached: few units, printed often)."""
     parts = []
     from calcpad.core.units import ureg
 

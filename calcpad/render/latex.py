@@ -8,6 +8,8 @@ which the notebook's HTML layout places beside its wrapped label.
 
 from __future__ import annotations
 
+from typing import Any
+
 from calcpad.core.results import FigureResult, HeadingResult, SheetResult, TableResult, TextResult
 from calcpad.render.layout import latex_lines, tex_text
 from calcpad.render.rows import MathRow, math_rows
@@ -39,9 +41,10 @@ def row_math_latex(row: MathRow) -> str:
     return r"\begin{array}{l} " + r" \\ ".join(lines) + r" \end{array}"
 
 
-def step_latex(step: object) -> list[tuple[str, str, str]]:
-    """Rows ``(label, math, reference)`` of one step; label and reference as LaTeX text."""
-    rows = math_rows(step)
+def step_latex(step: object, rows: Any = ...) -> list[tuple[str, str, str]]:
+    """Rows ``(label, math, reference)`` of one step; label and reference as LaTeX text.
+    ``rows``: the step's ``math_rows(step)`` when the caller has them already."""
+    rows = math_rows(step) if rows is ... else rows
     if rows is not None:
         out = []
         for r in rows:
@@ -75,9 +78,9 @@ def title_block(title: str) -> str:
     return f"$$\n\\mathbf{{{tex_text(title)}}}\n$$"
 
 
-def step_blocks(step: object) -> str:
+def step_blocks(step: object, rows: Any = ...) -> str:
     """One step result as display blocks (one per row); empty for a step that prints nothing."""
-    return "\n".join(_block(label, math, ref) for label, math, ref in step_latex(step))
+    return "\n".join(_block(label, math, ref) for label, math, ref in step_latex(step, rows))
 
 
 def sheet_latex(result: SheetResult) -> str:

@@ -51,8 +51,8 @@ def _wide(content: str, text: bool = True) -> str:
     return f'<tr><td colspan="2" align="left" valign="top" style="{_LEFT}"{" " + _TEXT if text else ""}>{content}</td></tr>'
 
 
-def _step(step: object) -> str:
-    rows = math_rows(step)
+def _step(step: object, rows: Any = ...) -> str:
+    rows = math_rows(step) if rows is ... else rows
     if rows is not None:
         return "".join(_row(r) for r in rows)
     if isinstance(step, HeadingResult):
@@ -74,9 +74,10 @@ def title_notebook_row(title: str) -> str:
     return _wide(f"<b>{_e(title)}</b>")
 
 
-def step_notebook_rows(step: object) -> str:
-    """The table rows (``<tr>``) of one step result; empty for a step that prints nothing."""
-    return _step(step)
+def step_notebook_rows(step: object, rows: Any = ...) -> str:
+    """The table rows (``<tr>``) of one step result; empty for a step that prints nothing.
+    ``rows``: the step's ``math_rows(step)`` when the caller has them already."""
+    return _step(step, rows)
 
 
 def rows_notebook_html(rows: list[str]) -> str:

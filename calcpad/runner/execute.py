@@ -7,8 +7,9 @@ Two modes give the same sheets (and so the same record):
   values are placed in the namespace as plain Python strings/numbers — they are data, never code.
 - ``kernel``: papermill-style — the notebook gets a cell tagged ``injected-parameters`` after the
   ``parameters`` cell (papermill writes the values as string/number literals), and nbclient runs
-  it in one Jupyter kernel shared by all calcs of the run (namespace reset between calcs). The
-  executed notebooks are kept. nbclient/nbformat/papermill are imported only on this path.
+  it in one Jupyter kernel shared by all calcs of the run (namespace reset between calcs), the
+  ``calcpad`` kernel the set-up registers (``runner.kernel``; ``python3`` when it is missing). The
+  executed notebooks are kept and ask for that kernel, like the stored templates. nbclient/nbformat/papermill are imported only on this path.
 
 Sheets are the :class:`~calcpad.core.sheet.Sheet` objects bound to the template's global names
 (also inside top-level lists, tuples and dicts), in the order the names were first bound —
@@ -33,12 +34,12 @@ from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
+from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 from calcpad.runner.progress import RunProgress, in_notebook
 
 __all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
 
 MODES = ("inprocess", "kernel")
-KERNEL = "python3"
 SHEETS_MIME = "application/vnd.calcpad.sheets+json"
 _SKIP = {"In", "Out", "exit", "quit", "get_ipython"}
 
@@ -206,7 +207,8 @@ class _KernelSession:
         from jupyter_client.manager import KernelManager
 
         self.timeout = timeout
-        self.km = KernelManager(kernel_name=KERNEL, transport="ipc")  # local sockets, not TCP
+        self.kernel = kernel_to_run()
+        self.km = KernelManager(kernel_name=self.kernel, transport="ipc")  # local sockets, not TCP
         env = dict(os.environ, MPLBACKEND="Agg", **{SYSTEM_ENV: units}, **(extra_env or {}))
         if not extra_env or ENV_PATH not in extra_env:
             env.pop(ENV_PATH, None)
@@ -227,7 +229,7 @@ class _KernelSession:
 
         tpl = calc.template
         nb = nbformat.v4.new_notebook()
-        nb.metadata["kernelspec"] = {"name": KERNEL, "display_name": "Python 3", "language": "python"}
+        nb.metadata["kernelspec"] = kernelspec_metadata()
         nb.metadata["language_info"] = {"name": "python"}
         nb.metadata["papermill"] = {}
         for cell in tpl.cells:
@@ -254,7 +256,7 @@ class _KernelSession:
             self.kc.execute_interactive(_RESET, silent=True, store_history=False, timeout=self.timeout)
         self.used = True
         nb = self.notebook(calc, text)
-        client = NotebookClient(nb, km=self.km, timeout=self.timeout, kernel_name=KERNEL, allow_errors=False)
+        client = NotebookClient(nb, km=self.km, timeout=self.timeout, kernel_name=self.kernel, allow_errors=False)
         client.kc = self.kc
         try:
             client.execute(cleanup_kc=False)

@@ -14,19 +14,9 @@ import sys
 import tempfile
 from pathlib import Path
 
-__all__ = ["main", "refresh_notebook"]
+from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 
-#: The kernel stored templates ask for: the one the set-up registers in the venv
-#: (``python -m ipykernel install --sys-prefix --name calcpad``).
-KERNEL = "calcpad"
-KERNEL_DISPLAY = "calcpad (venv)"
-
-
-def _kernel_to_run() -> str:
-    """``calcpad`` when that kernelspec is installed, else ``python3`` (same interpreter in CI)."""
-    from jupyter_client.kernelspec import KernelSpecManager
-
-    return KERNEL if KERNEL in KernelSpecManager().find_kernel_specs() else "python3"
+__all__ = ["KERNEL", "main", "refresh_notebook"]  # KERNEL: the kernel stored templates ask for (runner.kernel)
 
 
 def refresh_notebook(source: Path, timeout: int = 600) -> Path:
@@ -36,10 +26,10 @@ def refresh_notebook(source: Path, timeout: int = 600) -> Path:
     from nbclient import NotebookClient
 
     nb = jupytext.read(source)
-    nb.metadata["kernelspec"] = {"name": KERNEL, "display_name": KERNEL_DISPLAY, "language": "python"}
+    nb.metadata["kernelspec"] = kernelspec_metadata()
     nb.metadata.pop("jupytext", None)
     client = NotebookClient(
-        nb, timeout=timeout, kernel_name=_kernel_to_run(), store_widget_state=False, resources={"metadata": {"path": str(source.parent)}}
+        nb, timeout=timeout, kernel_name=kernel_to_run(), store_widget_state=False, resources={"metadata": {"path": str(source.parent)}}
     )
     client.execute()
     _stabilise(nb)

@@ -218,20 +218,23 @@ def _weight_order(designations: list[str], family: str) -> list[str]:
     return sorted(designations, key=lambda d: (weight.get(d, math.inf), d))
 
 
-def lightest_passing(session: TemplateSession, name: str, pick: Callable[[list[Sheet]], Sheet], limit: int | None = None) -> Answer:
+def lightest_passing(session: TemplateSession, name: str, pick: Callable[[list[Sheet]], Sheet], limit: int | None = None,
+                     family: str | None = None) -> Answer:
     """The lightest size of the section parameter ``name``'s family with every check OK.
 
     Sizes are tried in order of weight per foot; each re-runs the template with the panel's
     other current values (``pick`` chooses the sheet of interest from those the template makes).
-    Sizes the checks do not cover (or that fail to build) are skipped.
+    Sizes the checks do not cover (or that fail to build) are skipped. ``family``: the catalog
+    family to search (default: the current value's, which must then be a catalog section).
     """
     from calcpad.eng.sections.catalog import designations, get_entry
 
     current = str(session.values[name])
-    try:
-        family = get_entry(current).family
-    except InputError:
-        raise InputError(f"what would it take: {name!r} = {current!r} is not a catalog section") from None
+    if family is None:
+        try:
+            family = get_entry(current).family
+        except InputError:
+            raise InputError(f"what would it take: {name!r} = {current!r} is not a catalog section") from None
     tried: list[str] = []
     for d in _weight_order(designations(family), family)[:limit]:
         tried.append(d)

@@ -21,15 +21,19 @@ This module imports IPython only when it displays; it never imports ipywidgets.
 from __future__ import annotations
 
 import contextlib
+import dataclasses
 import itertools
 from collections.abc import Iterator
 from dataclasses import dataclass, field
 from typing import Any
 
+import pint
+import sympy as sp
+
 from calcpad.core.results import CheckResult, HeadingResult, SheetResult
 from calcpad.core.sheet import Sheet
 
-__all__ = ["SheetView", "quiet", "refresh", "show", "show_summary", "step_bundle", "summary_bundle", "transfer", "view_for"]
+__all__ = ["SheetView", "print_key", "quiet", "refresh", "show", "show_summary", "step_bundle", "summary_bundle", "transfer", "view_for"]
 
 _EMPTY: dict[str, str] = {"text/plain": ""}
 #: Most outputs one sheet display uses (JupyterLab shows 50 per cell before folding).
@@ -44,11 +48,13 @@ def _printed(step: Any) -> Printed:
     """One step result printed by the notebook printers (the same rows the whole sheet shows)."""
     from calcpad.render.latex import step_blocks, title_block  # lazy: printers load sympy printing
     from calcpad.render.notebook import step_notebook_rows, title_notebook_row
+    from calcpad.render.rows import math_rows
     from calcpad.render.text import step_text
 
     if isinstance(step, HeadingResult) and step.level == 0:  # the sheet title
         return title_notebook_row(step.text), title_block(step.text), step.text
-    return step_notebook_rows(step), step_blocks(step), "\n".join(step_text(step))
+    rows = math_rows(step)  # laid out once for both the HTML table and the LaTeX blocks
+    return step_notebook_rows(step, rows), step_blocks(step, rows), "\n".join(step_text(step))
 
 
 def _bundle(printed: list[Printed]) -> dict[str, str]:
@@ -75,9 +81,61 @@ def summary_bundle(result: SheetResult) -> dict[str, str]:
     return {"text/html": summary_html(result), "text/plain": summary_text(result)}
 
 
+def print_key(value: Any) -> Any:
+    """A hashable fingerprint of everything a printer reads from a step result: two results
+    with equal keys print the same. Quantities count by magnitude *and* unit in their order
+    (``1 in`` and ``25.4 mm`` are equal quantities but print differently); formulas by their
+    sympy tree (structural equality: the same text gives the same tree)."""
+    if isinstance(value, (str, int, float, bool, bytes, type(None), sp.Basic)):
+        return value
+    if isinstance(value, pint.Quantity):
+        mag = value._magnitude  # the attributes themselves: .units builds a new Unit on every call
+        return ("Q", mag if isinstance(mag, (int, float)) else repr(mag), tuple(value._units.items()))
+    if isinstance(value, dict):
+        return tuple((k, print_key(v)) for k, v in value.items())
+    if isinstance(value, (list, tuple)):
+        return tuple(print_key(v) for v in value)
+    names = _FIELDS.get(type(value))
+    if names is None and dataclasses.is_dataclass(value):
+        names = _FIELDS[type(value)] = tuple(f.name for f in dataclasses.fields(value))
+    if names is not None:
+        return (type(value).__name__, *(print_key(getattr(value, n)) for n in names))
+    return ("id", id(value))  # unknown: never equal to another object's key
+
+
+_FIELDS: dict[type, tuple[str, ...]] = {}
+
+
+def _ident(step: Any, seen: dict[Any, int]) -> Any:
+    """Which step a result belongs to across evaluations and rebuilds: a named step by its name, a
+    check by its key, anything else (headings, notes, tables, figures) by its content and count."""
+    if isinstance(step, CheckResult):
+        base: Any = ("check", step.key)
+    elif getattr(step, "name", None) is not None:
+        base = ("name", step.name)
+    else:
+        base = ("content", print_key(step))
+    seen[base] = seen.get(base, 0) + 1
+    return base, seen[base]
+
+
 @dataclass
+class _Entry:
+    step: Any
+    key: Any  # print_key(step), computed when first needed (None: not yet)
+    printed: Printed
+    bundle: dict[str, str]
+
+
+@dataclass(repr=False)
 class SheetView:
     """Printed steps of one sheet, re-printed only where a step changed.
+
+    A step is printed again only when its result object is new *and* prints differently from
+    the last time (:func:`print_key`): after an incremental evaluation the sheet keeps the
+    result objects of steps it did not recompute; after a rebuild (another section, a grade)
+    every object is new, and only the rows whose printed content differs are printed, matched by
+    step name, so rows that move (a step added before them) are not printed again either.
 
     Attributes:
         sheet: The sheet shown (may be swapped for a rebuilt one with :meth:`rebind`).
@@ -89,6 +147,10 @@ class SheetView:
     _steps: list[Any] = field(default_factory=list)
     _bundles: list[dict[str, str]] = field(default_factory=list)
     _printed: list[Printed] = field(default_factory=list)
+    _entries: dict[Any, _Entry] = field(default_factory=dict)
+
+    def __repr__(self) -> str:
+        return f"<SheetView of {self.sheet.title!r}: {len(self._steps)} rows, {self.printed} printed>"
 
     def bundles(self) -> list[dict[str, str]]:
         """One bundle per step (the sheet title first), printing what is not cached yet."""
@@ -103,32 +165,29 @@ class SheetView:
         """Evaluate the sheet and re-print changed steps; returns the positions whose display changed."""
         result = self.sheet.evaluate()
         items: list[Any] = [HeadingResult(result.title, 0), *result.steps]
-        changed: list[int] = []
-        for i, step in enumerate(items):
-            if i < len(self._steps):
-                old = self._steps[i]
-                if old is step or (not hasattr(step, "name") and not isinstance(step, CheckResult) and old == step):
-                    self._steps[i] = step
-                    continue
-            self.printed += 1
-            printed = _printed(step)
-            bundle = _bundle([printed])
-            if i < len(self._bundles):
-                self._steps[i] = step
-                if bundle != self._bundles[i]:
-                    self._bundles[i] = bundle
-                    self._printed[i] = printed
-                    changed.append(i)
-            else:
-                self._steps.append(step)
-                self._bundles.append(bundle)
-                self._printed.append(printed)
-                changed.append(i)
-        if len(self._steps) > len(items):
-            changed.extend(range(len(items), len(self._steps)))
-            del self._steps[len(items) :]
-            del self._bundles[len(items) :]
-            del self._printed[len(items) :]
+        seen: dict[Any, int] = {}
+        entries: dict[Any, _Entry] = {}
+        steps, bundles, printed = [], [], []
+        for step in items:
+            ident = _ident(step, seen)
+            entry = self._entries.get(ident)
+            if entry is not None and entry.step is not step:
+                key = print_key(step)
+                if entry.key is None:
+                    entry.key = print_key(entry.step)
+                entry = _Entry(step, key, entry.printed, entry.bundle) if entry.key == key else None
+            if entry is None:
+                self.printed += 1
+                out = _printed(step)
+                entry = _Entry(step, None, out, _bundle([out]))
+            entries[ident] = entry
+            steps.append(step)
+            bundles.append(entry.bundle)
+            printed.append(entry.printed)
+        old = self._bundles
+        changed = [i for i, b in enumerate(bundles) if i >= len(old) or (b is not old[i] and b != old[i])]
+        changed += range(len(bundles), len(old))
+        self._entries, self._steps, self._bundles, self._printed = entries, steps, bundles, printed
         return changed
 
     def groups(self, slots: int) -> list[tuple[int, int]]:
@@ -194,11 +253,12 @@ def view_for(sheet: Sheet) -> SheetView | None:
     return live.view if live is not None else None
 
 
-def show(sheet: Sheet) -> SheetView | None:
+def show(sheet: Sheet) -> None:
     """Display ``sheet`` in a notebook, one output per section, kept so :func:`refresh` can
-    redraw changed steps in place. Does nothing outside IPython. Returns the view (or None)."""
+    redraw changed steps in place. Does nothing outside IPython. Returns nothing, so a cell
+    ending with ``show(sh)`` prints no value (:func:`view_for` gives the view)."""
     if _shell() is None:
-        return None
+        return
     from IPython.display import display
 
     view = SheetView(sheet)
@@ -216,7 +276,6 @@ def show(sheet: Sheet) -> SheetView | None:
     if old is not None:
         live.summary_ids = old.summary_ids
     _LIVE[id(sheet)] = live
-    return view
 
 
 def show_summary(sheet: Sheet) -> None:

@@ -32,6 +32,7 @@ from __future__ import annotations
 import difflib
 import html
 import io
+import re
 from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any
@@ -84,6 +85,16 @@ def _catalog_family(value: Any) -> str | None:
         return get_entry(value).family
     except CalcpadError:
         return None
+
+
+#: The entry a section dropdown offers for explicit dimensions when the template takes them.
+CUSTOM = "custom"
+
+
+def _offers_custom(description: str) -> bool:
+    """A section parameter whose description offers ``custom`` (as leg_bending's "..., or custom
+    for D_o and t") takes explicit dimensions from other parameters: its dropdown lists it."""
+    return re.search(r"\bcustom\b", description, re.IGNORECASE) is not None
 
 
 def _grade_kind(name: str) -> str:
@@ -229,7 +240,8 @@ class WhatIfPanel:
                 elif family:
                     from calcpad.eng.sections.catalog import designations
 
-                    out[name] = _Input(name, label, "section", None, None, designations(family))
+                    extra = [CUSTOM] if _offers_custom(p.description) else []
+                    out[name] = _Input(name, label, "section", None, None, [*extra, *designations(family)])
                 elif grades:
                     out[name] = _Input(name, label, "grade", None, None, grades)
                 else:
@@ -526,7 +538,8 @@ class WhatIfPanel:
             raise InputError(f"what would it take: {name!r} has no control")
         inp = self._inputs[key]
         if inp.kind == "section" and self.session is not None:
-            return lightest_passing(self.session, key, self._pick)
+            family = next((f for o in inp.options or [] if o != CUSTOM and (f := _catalog_family(o))), None)
+            return lightest_passing(self.session, key, self._pick, family=family)
         if inp.given is None:
             return Answer("none", f"{inp.label}: not a given of the sheet; try values in the control")
         lower, upper, lo_inc, hi_inc = inp.lower, inp.upper, True, True

@@ -5,7 +5,7 @@ For each stored template: open a copy, run all cells in the ``calcpad`` kernel, 
 no cell fails (no error or stderr output), MathJax shows no error, and the page raises no
 uncaught error; measure whether every math row fits its output area at 1280 px. Then, in the
 leg template, type a new load into the panel's control and check that the sheet and the summary
-above redraw and show NG (ratio 1.84 at 300 lbf by hand, see tests/widgets). Screenshots go to
+above redraw and show NG (ratio 1.95 at 300 lbf by hand, see tests/widgets). Screenshots go to
 ``build/browser-artifacts/``.
 
 Run alone with ``pytest -m browser``. Skipped only when /usr/bin/chromium is absent.

@@ -79,3 +79,30 @@ def test_heading_note_reference_table_kept_in_order():
     assert kinds == ["heading", "note", "assumption", "reference", "table"]
     text = sheet_text(sh.evaluate())
     assert "Assumption: Base plate is rigid." in text and "2.250" in text
+
+
+def test_steps_added_after_an_evaluation_are_ordered_and_read() -> None:
+    """The sheet keeps its evaluation order while steps are appended (a template reads values as
+    it builds); a step using a name defined later still sorts after it. Values by hand."""
+    from calcpad import Sheet
+
+    sh = Sheet("order")
+    sh.given("a", "2 in")
+    sh.step("b", "3*a", "b")
+    assert sh["b"].to("in").magnitude == 6.0
+    sh.step("c", "b + a", "c")  # uses names defined already: appended to the order
+    assert sh["c"].to("in").magnitude == 8.0
+    sh.step("d", "e*2", "d")  # uses a name defined after it
+    sh.given("e", "5 in")
+    assert sh["d"].to("in").magnitude == 10.0
+    sh.evaluate()
+    sh.set(a="1 in")
+    assert sh["c"].to("in").magnitude == 4.0  # read without the result model
+    res = sh.evaluate()
+    assert sh.last_recomputed == ["a", "b", "c"]  # everything computed since the last result model
+    assert [getattr(s, "name", None) for s in res.steps] == ["a", "b", "c", "d", "e"]
+    sh.step("f", "g", "f")
+    from calcpad.core.errors import SheetError
+
+    with pytest.raises(SheetError, match="g"):
+        sh.evaluate()  # an unknown name is still refused

@@ -92,3 +92,15 @@ def test_format_number():
     assert format_number(0.5, 3) == "0.500"
     assert format_number(1.9, 0) == "1.9"
     assert Q_(1, "in").to("mm").magnitude == pytest.approx(25.4)
+
+
+def test_unit_symbols_keep_the_authors_order_and_style_after_caching() -> None:
+    # the symbol cache is keyed by the ordered (unit, power) pairs: kip·ft and ft·kip are equal
+    # units to pint but print in the order written (common practice: moments in kip·ft)
+    from calcpad.core.units import unit_symbol, ureg
+
+    for _ in range(2):  # second round from the cache
+        assert unit_symbol(ureg.kip * ureg.ft) == "kip·ft"
+        assert unit_symbol(ureg.ft * ureg.kip) == "ft·kip"
+        assert unit_symbol(ureg.kip * ureg.ft, "latex") == r"\mathrm{kip} \cdot \mathrm{ft}"
+        assert unit_symbol("lbf/in**2", "ascii") == "lbf/in^2"

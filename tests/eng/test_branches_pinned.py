@@ -937,6 +937,33 @@ def test_dg1_large_moment_rods_and_plate(method):
     assert v(sh, "R_ct", "kip") == pytest.approx(0.75 * rnt if method == "LRFD" else rnt / 2.00, rel=REL)
 
 
+@pytest.mark.parametrize(("M", "case"), [(300.0, "inside"), (3000.0, "rod line")])
+def test_dg1_load_beyond_the_bearing_up_to_the_rods(M, case):
+    # Statics of uniform bearing (common practice; DG1 3.4 assumes the block ends before the rods):
+    # with P > q_max (f + N/2) the rods lie inside the bearing and take no tension. e < N/2: uniform
+    # bearing over Y = N - 2e, q = P/Y; e >= N/2: Y = f + N/2, q = 2(M + P f)/(f + N/2)^2 about the
+    # rods, T = q Y - P (e_lim = N/2 in place of e_crit). P = 400 kip sits 3.4 % above q_max (f + N/2) = 386.8 kip.
+    B = N = 14.0
+    P, fc, fy, f = 400.0, 4.0, 36.0, 5.5
+    qmax = 0.65 * 0.85 * fc * B
+    k = f + N / 2
+    e = M / P
+    assert P > qmax * k and e >= N / 2 - P / (2 * qmax)
+    if case == "inside":
+        assert e < N / 2
+        Y, q, T = N - 2 * e, P / (N - 2 * e), 0.0
+    else:
+        assert e >= N / 2
+        q = 2 * (M + P * f) / k**2
+        Y, T = k, q * k - P
+    sh = _bp("LRFD", P=f"{P} kip", M=f"{M} kip*in", f=f"{f} in", d_rod="1 in", f_c=f"{fc} ksi", F_y=f"{fy} ksi")
+    assert v(sh, "e_lim", "in") == pytest.approx(N / 2, rel=REL)
+    assert v(sh, "Y", "in") == pytest.approx(Y, rel=REL)
+    assert v(sh, "q", "kip/in") == pytest.approx(q, rel=REL)
+    assert v(sh, "T_a", "kip") == pytest.approx(T, rel=REL, abs=1e-9)
+    assert next(c for c in sh.evaluate().checks if c.key == "ratio_fp").ratio == pytest.approx(q / qmax, rel=REL)
+
+
 # ============================================================ ASCE 7-16 loads
 @pytest.mark.parametrize(("V", "kz", "kzt", "kd", "ke"), [(115.0, 0.85, 1.0, 0.85, 1.0), (150.0, 1.13, 1.2, 0.90, 0.95)])
 def test_velocity_pressure_eq_26_10_1(V, kz, kzt, kd, ke):

@@ -84,7 +84,10 @@ def test_large_moment_statics(method):
     ("kw", "field", "err"),
     [({"A2_A1": 5.0}, "A2_A1", CalcpadError), ({"P": "-5 kip"}, "P_r", CalcpadError),
      ({"M": "120 kip*in"}, "f / d_rod", CalcpadError), ({"n_rods": 0}, "n_rods", CalcpadError),
-     ({"M": "120 kip*in", "f": "1 in", "d_rod": "0.75 in"}, "f", CalcpadError)],
+     ({"M": "120 kip*in", "f": "1 in", "d_rod": "0.75 in"}, "f", CalcpadError),
+     # rods off a 10 in plate (f >= N/2 = 5 in): the statics of DG1 3.4 put them on the plate
+     ({"M": "120 kip*in", "f": "5 in", "d_rod": "0.75 in"}, "f", CalcpadError),
+     ({"M": "120 kip*in", "f": "18 in", "d_rod": "0.75 in"}, "f", CalcpadError)],
 )
 def test_bad_input(kw, field, err):
     with pytest.raises(err) as e:
@@ -123,15 +126,24 @@ def test_plate_too_short_is_an_ng_bearing_check():
 
 
 def _statics(P, M, f=3.75, N=10.0, q=0.65 * 0.85 * 3 * 10):
-    """Uniform bearing q over Y (statics, DG1 3.3/3.4): small case if M/P < N/2 - P/(2q), else rods."""
+    """Uniform bearing over Y from the compression edge, rods at k = f + N/2 from it (statics,
+    DG1 3.3/3.4): small case if M/P < N/2 - P/(2q); else the rods take tension T = qY - P >= 0
+    only while P <= q k (the bearing block q Y = P + T must end before the rod line). Beyond that
+    the rods are in the bearing zone and take nothing: uniform bearing centred under the
+    resultant, Y = N - 2e, while e < N/2; with e >= N/2 the block reaches the rods, Y = k, at the
+    intensity that balances the moment about them, q' = 2(M + P f)/k^2, and T = q' k - P."""
+    k = f + N / 2
     if P > 0 and M / P < N / 2 - P / (2 * q):
         return N - 2 * M / P, 0.0
-    k = f + N / 2
-    Y = k - math.sqrt(k * k - 2 * (M + P * f) / q)
-    return Y, q * Y - P
+    if P <= q * k:
+        Y = k - math.sqrt(max(k * k - 2 * (M + P * f) / q, 0.0))
+        return Y, q * Y - P
+    if M < P * N / 2:
+        return N - 2 * M / P, 0.0
+    return k, 2 * (M + P * f) / k**2 * k - P
 
 
-@pytest.mark.parametrize(("P", "M"), [(10.0, 20.0), (10.0, 120.0), (0.0, 60.0), (40.0, 0.0), (0.0, 0.0)])
+@pytest.mark.parametrize(("P", "M"), [(10.0, 20.0), (10.0, 120.0), (0.0, 60.0), (40.0, 0.0), (0.0, 0.0), (200.0, 20.0), (200.0, 1500.0)])
 def test_case_is_a_branch_evaluated_with_the_values(P, M):
     """One sheet built at P = 10 kip, M = 20 kip*in (small); sh.set moves it across e_crit and to P = 0."""
     sh = Sheet("live plate", method="LRFD")
@@ -144,3 +156,27 @@ def test_case_is_a_branch_evaluated_with_the_values(P, M):
     assert sh["Y"].to("in").magnitude == pytest.approx(Y, rel=REL, abs=1e-12)
     assert sh["T_a"].to("kip").magnitude == pytest.approx(T, rel=REL, abs=1e-12)
     assert all(math.isfinite(c.ratio) for c in sh.evaluate().checks)
+
+
+@pytest.mark.parametrize(("P", "M"), [(200.0, 20.0), (200.0, 1500.0), (160.0, 40.0)])
+def test_a_load_beyond_the_bearing_up_to_the_rods_is_an_ng_bearing_check(P, M):
+    """P > q_max (f + N/2) (q_max = 0.65·0.85·3 ksi·10 in = 16.58 kip/in, f + N/2 = 8.75 in, so
+    145 kip): the rods lie inside the bearing and take no tension while e < N/2 (this was once an
+    error: a square root of a negative rod tension in the tension-side plate step). Vertical equilibrium
+    alone needs q >= P/N over a plate N long (statics), so the bearing check must be NG."""
+    sh = Sheet("overloaded plate", method="LRFD")
+    sh.given("P_x", "10 kip")
+    sh.given("M_x", "20 kip*in")
+    add_base_plate_check(sh, HSS, P="P_x", M="M_x", B="10 in", N="10 in", t_p="0.75 in", f_c="3 ksi", F_y="36 ksi", f="3.75 in",
+                         d_rod="0.75 in")
+    sh.set(P_x=f"{P} kip", M_x=f"{M} kip*in")
+    q_max = 0.65 * 0.85 * 3 * 10
+    Y, T = _statics(P, M)
+    chk = next(c for c in sh.evaluate().checks if c.key == "ratio_fp")
+    assert not chk.ok and chk.ratio >= P / (q_max * 10)
+    assert sh["T_a"].to("kip").magnitude == pytest.approx(T, rel=REL, abs=1e-12)
+    assert T >= 0.0 and math.isfinite(sh["t_req"].to("in").magnitude)
+    x = 3.75 - 4.0 / 2 + HSS.t / 2
+    assert sh["t_t"].to("in").magnitude == pytest.approx(math.sqrt(4 * T * x / (10 * 0.9 * 36)), rel=REL, abs=1e-12)
+    q_needed = P / Y if M < P * 10 / 2 else 2 * (M + P * 3.75) / 8.75**2
+    assert chk.ratio == pytest.approx(q_needed / q_max, rel=REL)

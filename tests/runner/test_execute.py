@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import math
 from pathlib import Path
 from typing import Any
@@ -31,6 +32,9 @@ def test_inprocess_and_kernel_records_are_identical() -> None:
     assert all(c.get("execution_count") for c in b[0].notebook.cells if c.cell_type == "code")
     tags = [c.metadata.get("tags", []) for c in b[0].notebook.cells]
     assert ["injected-parameters"] in tags  # papermill-style injection kept in the stored notebook
+    # the kept notebooks ask for the kernel the set-up registers, like the stored templates
+    stored = json.loads((Path(__file__).resolve().parents[2] / "notebooks" / "leg_bending.ipynb").read_text())
+    assert {o.notebook.metadata["kernelspec"]["name"] for o in b} == {stored["metadata"]["kernelspec"]["name"]} == {"calcpad"}
 
 
 def test_example_leg_matches_hand_calc() -> None:

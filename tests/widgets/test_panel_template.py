@@ -96,24 +96,53 @@ def test_a_post_without_lateral_load_is_now_accepted() -> None:
     assert panel.ratios["Flexure about x"] == 0.0  # no lateral load, no base moment
 
 
-@pytest.mark.parametrize(
-    ("name", "value", "default", "expected"),
-    [
-        # bound (sheet.set): P is inside "0 to 200 kip", but the base plate's tension-side
-        # thickness step cannot be evaluated (square root of a negative value)
-        ("P", "200 kip", 6.5, "t_t_plate"),
-        # re-run: rod_f is inside "1 in to 18 in", but the plate check refuses rods inside the wall
-        ("rod_f", "1 in", 3.75, "f > d/2 - t/2"),
-    ],
-)
-def test_a_value_the_sheet_cannot_take_rolls_back(name: str, value: str, default: float, expected: str) -> None:
+def test_a_value_the_template_refuses_rolls_back() -> None:
+    # re-run: rod_f is inside "1 in to 18 in", but the plate check refuses rods inside the wall
     panel = post_panel()
     before = dict(panel.ratios)
-    assert panel.set(name, value) is False
-    assert panel.last_error and expected in panel.last_error
+    assert panel.set("rod_f", "1 in") is False
+    assert panel.last_error and "f > d/2 - t/2" in panel.last_error
     assert "Not applied" in panel._message.value
     assert panel.ratios == before
-    assert panel.controls[name].value == pytest.approx(default)
+    assert panel.controls["rod_f"].value == pytest.approx(3.75)
+
+
+def test_a_value_the_sheet_cannot_evaluate_rolls_back() -> None:
+    """A given changed in place (the path of a bound parameter) that makes a step fail: a brace's
+    rise h = sqrt(L^2 - x^2) with its run x longer than the brace. x = 80 in is inside the given's
+    stated range, so only the evaluation can refuse it."""
+    sh = Sheet("Inclined brace")
+    sh.given("F", "2 kip", "Horizontal force")
+    sh.given("L_br", "60 in", "Brace length")
+    sh.given("x", "36 in", "Horizontal run", min="1 in", max="100 in")
+    sh.step("h", "sqrt(L_br**2 - x**2)", "Rise", unit="in")
+    sh.step("P_br", "F*L_br/x", "Brace force", unit="kip")
+    sh.given("P_a", "10 kip", "Allowable brace force")
+    sh.check("Brace force", demand="P_br", capacity="P_a")
+    panel = what_if(sh, ["x"])
+    before = dict(panel.ratios)
+    assert before["Brace force"] == pytest.approx(2 * 60 / 36 / 10, rel=1e-12)  # by hand
+    assert panel.set("x", "80 in") is False
+    assert panel.last_error and "'h'" in panel.last_error
+    assert "Not applied" in panel._message.value
+    assert panel.ratios == before and panel.sheet["x"].to("in").magnitude == 36.0
+    assert panel.controls["x"].value == pytest.approx(36.0)
+    assert panel.set("x", "48 in") is True and panel.sheet["h"].to("in").magnitude == pytest.approx(36.0, rel=1e-12)  # 3-4-5
+
+
+def test_every_axial_load_in_the_post_range_evaluates() -> None:
+    """P is stated "0 to 200 kip". At 200 kip the plate's bearing up to the rod line,
+    q_max (f + N/2) = (0.85·3 ksi/2.31)·10 in·8.75 in = 96.6 kip (AISC 360-16 J8, ASD), is
+    exceeded, so the bearing check is NG, at least P/(q_max·N) = 1.81 by vertical equilibrium
+    over the 10 in plate (statics), and the rod tension is not negative. This was once an error
+    (square root of a negative rod tension in the tension-side plate step)."""
+    panel = post_panel()
+    for value in ("0 kip", "50 kip", "100 kip", "150 kip", "200 kip"):
+        assert panel.set("P", value) is True, panel.last_error
+    q_max = 0.85 * 3 / 2.31 * 10
+    bearing = next(c for c in panel.sheet.summary() if c.key == "ratio_fp_plate")
+    assert bearing.status == "NG" and bearing.ratio >= 200 / (q_max * 10)
+    assert panel.sheet["T_a_plate"].to("kip").magnitude >= 0.0 and math.isfinite(panel.sheet["t_req_plate"].to("in").magnitude)
 
 
 def test_labels_are_words_with_the_symbol_and_units_follow_the_parameter() -> None:
@@ -394,3 +423,74 @@ def test_an_unbound_parameter_re_runs_the_template() -> None:
     assert panel.set("FS_req", 2.0) is True  # FS_req goes into the check, not into a given
     assert panel.session.runs == runs + 1
     assert leg_check(panel).ratio == pytest.approx(leg_ratio(FS=2.0), rel=1e-9)
+
+
+def test_the_leg_dropdown_offers_custom_dimensions() -> None:
+    """leg_bending's leg parameter says "... or custom for D_o and t": the dropdown lists
+    "custom", and choosing it in the control makes the sheet use D_o and t (hand ratio, module
+    docstring) while the catalog sizes stay listed."""
+    from calcpad.eng.sections.catalog import designations
+
+    panel = leg_panel()
+    leg = panel.controls["leg"]
+    assert "custom" in leg.options and set(designations("pipe")) <= set(leg.options)
+    assert panel.set("D_o", "2.375 in") is True and panel.set("t", "0.154 in") is True  # used by a custom leg only
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(), rel=1e-9)  # still Pipe 1-1/2 Std
+    leg.value = "custom"  # as a user picks it
+    assert panel.last_error is None and panel.session.values["leg"] == "custom"
+    assert leg_check(panel).ratio == pytest.approx(leg_ratio(D_o=2.375, t=0.154), rel=1e-9)
+    ans = panel.what_would_it_take("leg")  # the family is the dropdown's, though the value is custom
+    assert ans.status == "value" and ans.designation in designations("pipe")
+    post = post_panel()
+    assert "custom" not in post.controls["post"].options  # post_combined takes catalog sections only
+
+
+def test_a_section_change_redraws_only_rows_that_print_differently(monkeypatch: pytest.MonkeyPatch) -> None:
+    """A section re-runs the template; the new sheet goes through the same in-place path: rows
+    that print as before (the loads, the base moment) are neither printed again nor redrawn, and
+    what is shown equals a print of the new sheet from scratch."""
+    import IPython.display as ipd
+
+    updated: list[str] = []
+    monkeypatch.setattr(live, "_shell", lambda: None if live._QUIET[0] else object())
+    monkeypatch.setattr(ipd, "display", lambda b, raw, display_id: None)
+    monkeypatch.setattr(ipd, "update_display", lambda b, raw, display_id: updated.append(display_id))
+    sh = TemplateSession("post_combined").build()[0]
+    live.show(sh)
+    view = live.view_for(sh)
+    live.show_summary(sh)
+    panel = what_if(sh, template="post_combined", bind=POST_BIND, show="sheet")
+    names = [getattr(s, "name", getattr(s, "key", None)) for s in sh.evaluate().steps]
+    before = {n: view._bundles[1 + i] for i, n in enumerate(names) if n}
+    printed, n_steps = view.printed, len(names)
+    updated.clear()
+    assert panel.set("post", "HSS5x5x1/4") is True and "HSS5x5x1/4" in panel.sheet.title
+    assert live.view_for(panel.sheet) is view  # the display moved to the new sheet
+    new_names = [getattr(s, "name", getattr(s, "key", None)) for s in panel.sheet.evaluate().steps]
+    after = {n: view._bundles[1 + i] for i, n in enumerate(new_names) if n}
+    for same in ("P_top", "H_top", "L_post", "M_base", "V_base"):  # independent of the section
+        assert after[same] is before[same], same
+    assert after["A"] is not before["A"]  # the section's area changed (HSS4x4x1/4 -> HSS5x5x1/4)
+    assert 0 < view.printed - printed < n_steps
+    fresh = live.SheetView(panel.sheet)
+    assert fresh.bundles() == view.bundles()  # what is shown is what a full print gives
+    assert [o.outputs[0]["data"] for o in panel._sheet_outs] == fresh.bundles()  # the panel's copy too
+    assert updated  # sections with changed rows were redrawn in place
+
+
+def test_print_key_tells_apart_what_prints_differently() -> None:
+    from calcpad.core.units import Q_
+
+    assert live.print_key(Q_(1.0, "in")) == live.print_key(Q_(1.0, "in"))
+    assert live.print_key(Q_(1.0, "in")) != live.print_key(Q_(25.4, "mm"))  # equal lengths, printed differently
+    assert live.print_key(Q_(2.0, "kip*ft")) != live.print_key(Q_(2.0, "ft*kip"))  # unit order prints
+    assert live.print_key(Q_(2.0, "in")) != live.print_key(Q_(2.0000001, "in"))
+
+
+def test_anchor_rods_must_sit_on_the_plate() -> None:
+    """post_combined states rod_f as "1 in <= rod_f < plate_N/2" (rods on the 10 in plate, common
+    practice); the bound follows the plate's current length."""
+    panel = post_panel()
+    assert panel.set("rod_f", "6 in") is False and "plate_N/2" in panel.last_error
+    assert panel.set("plate_N", "14 in") is True
+    assert panel.set("rod_f", "6 in") is True and panel.sheet["f_a_plate"].to("in").magnitude == 6.0

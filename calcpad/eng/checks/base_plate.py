@@ -10,7 +10,10 @@ Sections 3.1, 3.3 and 4.3 (from memory).
 
 The small/large case is a branch evaluated with the values when the rods are given, so a
 what-if change of P or M that crosses e_crit follows (P = 0 is a pure moment, large case); a
-plate too short for the bearing to balance the moment shows as an NG bearing check.
+plate too short for the bearing to balance the moment shows as an NG bearing check, and so does
+an axial load larger than the bearing up to the rod line can carry, P > q_max (f + N/2): the
+rods then lie inside the bearing and take no tension (statics; Design Guide 1 assumes the
+bearing block ends before the rods, which fails there: its T = q_max Y - P would be negative).
 
 Plate bending is written with the available yield stress F_ya = φF_y or F_y/Ω, so the Guide's
 constants appear unfolded: 1.5 m·sqrt(f_p/F_y) is m·sqrt(2 f_p/(0.9 F_y)) (LRFD), 2.11 is
@@ -164,11 +167,22 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
                      "change that makes the moment large needs the rods (f, d_rod) and a rebuilt sheet.")
         return
     calc.given("f_a", f, "Plate centre to the anchor rods (tension side)", dim="[length]")
+    if calc.value("f_a", "in") >= calc.value("N_p", "in") / 2:
+        raise CheckInputError("f", f, f"anchor rods on the plate: f < N/2 = {calc.value('N_p', 'in') / 2:g} in (half the plate length N)")
     calc.step("k_Y", "f_a + N_p/2", "f + N/2", unit="in")
-    small = "abs(M_r) < P_r*e_crit"  # P = 0 (pure moment) is large; at e = e_crit both cases give Y = P/q_max
-    small_label, large_label = "small moment, e = M/P < e_crit", "large moment, e >= e_crit"
     calc.step("Y_disc", "k_Y**2 - 2*(abs(M_r) + P_r*f_a)/q_max", "Discriminant, (f + N/2)^2 - 2P(e + f)/q_max (>= 0 when the "
               "bearing can balance the moment)", unit="in^2", ref="AISC Design Guide 1, Eq. 3.4.4")
+    # The rods take tension once the eccentricity passes e_lim. Design Guide 1: e_lim = e_crit, the
+    # bearing block q_max Y = P + T ending before the rod line (P <= q_max (f + N/2), so T >= 0). A
+    # larger P puts the rods inside the bearing (statics): no rod tension while the resultant stays
+    # on the plate (e < N/2, uniform bearing over N - 2e at q > q_max: NG); beyond, the block reaches
+    # the rod line, Y = f + N/2, at the q that balances the moment about the rods (Y_disc < 0: NG).
+    rods = "P_r <= q_max*k_Y"
+    calc.branch("e_lim", [(rods, "e_crit", "the bearing block ends before the rod line: rods in tension once e >= e_crit"),
+                          (None, "N_p/2", "P_r > q_max (f + N/2): the rods lie inside the bearing; tension once e >= N/2")],
+                "Eccentricity at which the anchor rods take tension", unit="in", ref="AISC Design Guide 1, 3.3 and 3.4; statics")
+    small = "abs(M_r) < P_r*e_lim"  # P = 0 (pure moment) is large; at e = e_crit both cases give Y = P/q_max
+    small_label, large_label = "e = M/P < e_lim: no rod tension", "e >= e_lim: rods in tension"
     calc.branch("Y", [(small, "N_p - 2*abs(M_r)/P_r", small_label + ", Eq. 3.3.4"),
                       (None, "k_Y*(1 - sqrt(max(Y_disc/k_Y**2, 0)))", large_label + ", Eq. 3.4.3")],
                 "Bearing length", unit="in", ref="AISC Design Guide 1, 3.3 and 3.4")
@@ -176,9 +190,12 @@ def _moment_case(calc: Calc, f: Any, n_rods: int, d_rod: Any, F_u_rod: Any, keys
                        ": least bearing force per length that balances the moment about the rods (Y = f + N/2)")],
                 "Bearing force per unit length needed", unit="kip/in", ref="AISC Design Guide 1, 3.3.1 and Eq. 3.4.4")
     keys.append(calc.check("Concrete bearing", "q", "q_max", key="ratio_fp", ref="AISC 360-16 J8"))
-    calc.branch("T_a", [(small, "0*P_r", small_label + ": no rod tension"), (None, "q_max*Y - P_r", large_label + ", Eq. 3.4.2")],
+    beyond = "P_r > q_max (f + N/2): bearing up to the rod line at q (NG)"
+    calc.branch("T_a", [(small, "0*P_r", small_label), (rods, "q_max*Y - P_r", large_label + ", Eq. 3.4.2"),
+                        (None, "q*Y - P_r", beyond)],
                 "Anchor rod tension (all rods on the tension side)", unit="kip", ref="AISC Design Guide 1, 3.3 and 3.4")
-    calc.branch("f_p", [(small, "q/B_p", small_label), (None, "q_max/B_p", large_label + ": at the available limit")],
+    calc.branch("f_p", [(small, "q/B_p", small_label), (rods, "q_max/B_p", large_label + ": at the available limit"),
+                        (None, "q/B_p", beyond)],
                 "Bearing stress", unit="ksi", ref="AISC Design Guide 1, 3.3 and 3.4")
     _bearing_side(calc, "t_b", "Plate thickness, bearing side", "AISC Design Guide 1, 3.3.2 and 3.4")
     calc.step("x_t", "f_a - d_c/2 + t_c/2", "Rod line to the middle of the column's tension flange or wall", unit="in",
