@@ -298,16 +298,11 @@ def unit_symbol(unit: pint.Unit | str, style: str = "text") -> str:
     key = (unit if isinstance(unit, str) else tuple(unit._units.items()), style)
     cached = _SYMBOLS.get(key)
     if cached is None:
-        cached = _unit_symbol(unit, style)
+        units = ureg.parse_units(unit) if isinstance(unit, str) else unit
+        cached = _unit_symbol(tuple(units._units.items()), style)
         if len(_SYMBOLS) < _CACHE_LIMIT:
             _SYMBOLS[key] = cached
     return cached
-
-
-def _unit_symbol(unit: pint.Unit | str, style: str) -> str:
-    if isinstance(unit, str):
-        unit = ureg.parse_units(unit)
-    return _unit_symbol(tuple(unit._units.items()), style)
 
 
 @functools.lru_cache(maxsize=4096)
