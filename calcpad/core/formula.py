@@ -230,23 +230,7 @@ def _short(text: str) -> str:
     return text if len(text) <= 60 else text[:57] + "..."
 
 
-#: Parsed formulas by text: every calc of a template writes the same formulas. Only successful
-#: parses are kept (a refused text raises each time); a :class:`Formula` is never changed.
-_PARSED: dict[tuple[str, bool], Formula] = {}
-
-
 def _parse(text: str, allow_compare: bool) -> Formula:
-    if isinstance(text, str):
-        found = _PARSED.get((text, allow_compare))
-        if found is not None:
-            return found
-    formula = _parse_text(text, allow_compare)
-    if len(_PARSED) < 8192:
-        _PARSED[(text, allow_compare)] = formula
-    return formula
-
-
-def _parse_text(text: str, allow_compare: bool) -> Formula:
     if not isinstance(text, str):
         raise FormulaError(f"formula {text!r}: expected a formula string such as 'M*c/I'")
     return _parse_text(text, allow_compare)
