@@ -68,7 +68,10 @@ def write_elastic_buckling(
         d, tf = sec.need("d", "E4"), sec.need("tf", "E4")
         calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec.label, shared=True)
         calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label, shared=True)
-        calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
+        if sec.get("Cw") is not None:
+            calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant, as tabulated", sec.label, shared=True)
+        else:
+            calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
         calc.step("F_e_tb", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(I_x + I_y)", "Elastic torsional buckling stress", unit="ksi",
                   ref="AISC 360-16 Eq. E4-2")
         calc.select("F_e", "min", {"F_e_fb": "flexural buckling (E3-4)", "F_e_tb": "torsional buckling (E4-2)"},
@@ -123,7 +126,7 @@ def _singly_symmetric_e4(calc: Calc, sec: Sec, L_z: Any, K_z: Any) -> None:
         calc.step("F_ez", "G*J/(A_g*r_o**2)", "Elastic torsional buckling stress (C_w omitted for tees)", unit="ksi",
                   ref="AISC 360-16 Eq. E4-7 and User Note")
     else:
-        calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant (thin-wall)", sec.label, shared=True)
+        calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant", sec.label, shared=True)
         calc.step("F_ez", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(A_g*r_o**2)", "Elastic torsional buckling stress", unit="ksi",
                   ref="AISC 360-16 Eq. E4-7")
     calc.step("H", f"1 - {off}**2/r_o**2", "Flexural constant", ref="AISC 360-16 Eq. E4-8")
