@@ -7,7 +7,7 @@ is kept:
 
 * rolled shapes (W, M, S, HP, C, MC, WT, MT, ST): the family's US nominal depth nearest to
   ``depth_mm / 25.4`` (within 4 %), then the weight nearest to ``mass / 1.48816`` lb/ft
-  (1 lb/ft = 1.48816 kg/m) within 3 %;
+  (1 lb/ft = 1.48816 kg/m) within 1.5 % (0.06 kg/m for light shapes, whose mass is written to 0.1);
 * rectangular HSS: both sides within 0.55 mm of the US size and the nominal wall within
   0.06 mm; round HSS: the outside diameter within 0.06 mm and the wall within 0.06 mm;
 * angles and double angles: legs within 0.55 mm, thickness within 0.06 mm, double-angle
@@ -91,7 +91,8 @@ def _rolled(family: str, nums: Sequence[float], rows: list[Any]) -> Any | None:
     lbft = mass / LB_PER_FT_TO_KG_PER_M
     same = [e for e in rows if e.key[-2] == nominal]
     best = min(same, key=lambda e: abs(e.key[-1] - lbft))
-    return best if abs(best.key[-1] - lbft) <= 0.03 * lbft else None
+    off_kg = abs(best.key[-1] - lbft) * LB_PER_FT_TO_KG_PER_M
+    return best if off_kg <= max(0.015 * mass, 0.06) else None
 
 
 def _hss(family: str, nums: Sequence[float], rows: list[Any]) -> Any | None:
