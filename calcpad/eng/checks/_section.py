@@ -108,6 +108,8 @@ class Sec:
     values: dict[str, float]
     source: str = ""
     notes: list[str] = field(default_factory=list)
+    #: The published table the properties come from (catalog shapes), else "".
+    cite: str = ""
 
     def get(self, name: str) -> float | None:
         """Property in inch units, or None."""
@@ -210,8 +212,8 @@ def _from_shape(shape: Any) -> Sec:
     elif kind == "round_bar":
         v.update(D=shape.D)
     notes = list(getattr(p, "notes", []))
-    source = getattr(p, "source", "") or "section properties computed by calcpad.eng.sections"
-    return Sec(kind, shape.name, v, source, notes)
+    cite = getattr(p, "source", "")
+    return Sec(kind, shape.name, v, cite or "section properties computed by calcpad.eng.sections", notes, cite)
 
 
 def resolve_section(section: Any, kind: str | None = None) -> Sec:

@@ -55,10 +55,10 @@ def add_torsion_check(
     sh.heading(f"Torsion, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, E)
     calc.given("T_r_tor", T, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
-    calc.prop("t", sec.need("t", "H3"), "in", "Design wall thickness", sec.label, shared=True)
+    calc.prop("t", sec.need("t", "H3"), "in", "Design wall thickness", sec, shared=True)
     if sec.kind == "round_hss":
-        calc.prop("D", sec.need("D", "H3"), "in", "Outside diameter", sec.label)
-        calc.prop("D_t", sec.need("D_t", "H3"), "", "Diameter-to-thickness ratio", sec.label)
+        calc.prop("D", sec.need("D", "H3"), "in", "Outside diameter", sec)
+        calc.prop("D_t", sec.need("D_t", "H3"), "", "Diameter-to-thickness ratio", sec)
         _torsional_constant(calc, sec, "pi*(D - t)**2*t/2")
         cands = {}
         if L is not None:
@@ -77,8 +77,8 @@ def add_torsion_check(
         calc.step("F_cr_T", "min(F_cr_Tm, 0.6*F_y)", "Critical stress (at most 0.6 F_y)", unit="ksi", ref="AISC 360-16 H3.1(a)")
     else:
         h, b = sec.need("H", "H3"), sec.need("B", "H3")
-        calc.prop("H", h, "in", "Overall height", sec.label)
-        calc.prop("B", b, "in", "Overall width", sec.label)
+        calc.prop("H", h, "in", "Overall height", sec)
+        calc.prop("B", b, "in", "Overall width", sec)
         calc.prop("h_t", max(sec.need("h_t", "H3"), sec.need("b_t", "H3")), "", "Flat width-to-thickness ratio, longer side",
                   sec.label)
         _torsional_constant(calc, sec, "2*(B - t)*(H - t)*t - 4.5*(4 - pi)*t**3")
@@ -101,7 +101,7 @@ def _torsional_constant(calc: Calc, sec: Any, formula: str) -> None:
     else the H3.1 User Note formula."""
     tabulated = sec.get("C")
     if tabulated is not None:
-        calc.prop("C_T", tabulated, "in**3", "HSS torsional constant, as tabulated", sec.source or sec.label)
+        calc.prop("C_T", tabulated, "in**3", "HSS torsional constant, as tabulated", sec)
     else:
         calc.step("C_T", formula, "Torsional constant", unit="in^3", ref="AISC 360-16 H3.1 User Note")
 

@@ -30,7 +30,7 @@ import functools
 import math
 import re
 from collections.abc import Callable, Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from fractions import Fraction
 from importlib import resources
 from typing import Any
@@ -107,7 +107,6 @@ class CatalogEntry:
     source: str
     build: Callable[[CatalogEntry, str], Shape | BuiltUp]
     published: bool = False
-    text: dict[str, str] = field(default_factory=dict, compare=False)
 
     def shape(self, wall: str = "design") -> Any:
         """Build the shape (see module docstring for ``wall``); catalog rows carry their
