@@ -109,7 +109,11 @@ def test_double_angle_spacings_change_only_the_y_axis_properties():
     rows = [get_section(f"2L3x3x1/4{s}").props for s in ("", "x3/8", "x3/4")]
     assert len({(p.A, p.Ix, p.Sx, p.y_bar) for p in rows}) == 1
     assert rows[0].Iy < rows[1].Iy < rows[2].Iy and rows[0].r_o_bar < rows[2].r_o_bar
-    assert isinstance(get_section("2L3x3x1/4x3/8"), BuiltUp)
+    pair = get_section("2L3x3x1/4x3/8")
+    assert isinstance(pair, BuiltUp)
+    # drawn in the frame of the published values: x̄ at mid-width (2 b + s)/2, ȳ within the fillet effect
+    assert pair.bbox == pytest.approx((0.0, 0.0, 6.375, 3.0))
+    assert pair.centroid[0] == pytest.approx(pair.props.xc) and pair.centroid[1] == pytest.approx(pair.props.yc, rel=0.03)
     # J is not tabulated for double angles: twice the single angle's (two separate angles)
     assert rows[0].J == pytest.approx(2 * get_section("L3x3x1/4").props.J)
 

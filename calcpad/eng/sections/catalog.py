@@ -228,9 +228,9 @@ def _build_double_angle(entry: CatalogEntry, _wall: str) -> BuiltUp:
     the ``b`` legs at the bottom pointing outwards."""
     d = entry.data
     bu = BuiltUp(entry.designation)
-    half = d["s"] / 2.0
-    bu.add(Angle(d["d"], d["b"], d["t"]), at=(half, 0.0), label="right angle")
-    bu.add(Angle(d["d"], d["b"], d["t"]), at=(-half, 0.0), mirror=True, label="left angle")
+    # origin at the lower-left of the bounding box, as the published x̄ = (2 b + s)/2 assumes
+    bu.add(Angle(d["d"], d["b"], d["t"]), at=(d["b"], 0.0), mirror=True, label="left angle")
+    bu.add(Angle(d["d"], d["b"], d["t"]), at=(d["b"] + d["s"], 0.0), label="right angle")
     return bu
 
 
