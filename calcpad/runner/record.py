@@ -10,7 +10,7 @@ Record format ``"calcpad-job-record/2"``::
                   "sha256": digest of that text (null for a --set run)},
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
      "templates": [{"name", "file", "sha256"}],      # every template the calcs used
-     "data": {"eng/sections/data/pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
+     "data": {"eng/sections/data/aisc_pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
      "shop_sections": {"file", "sha256", "rows", "source", "text"},   # only when [job] shop_sections is set
      "summary": {"calcs", "checks", "ok", "ng", "errors", "status", "slender"},
      "calcs": [{"number", "location", "template", "template_title", "template_file",

@@ -1,18 +1,19 @@
 """Catalog sizes checked against published table values.
 
 Expected values are written as the tables print them (strings), so the tolerance is half a unit
-in the last printed digit plus a named allowance for what the table does differently:
+in the last printed digit plus a named allowance. The allowances date from when the catalog
+computed its properties from idealised geometry; catalog rows now carry the published AISC
+Shapes Database v16.0 values (compared row by row in tests/eng/test_sections_database.py), so
+these recalled-table checks hold with room to spare:
 
-* NOMINAL_PIPE_ALLOWANCE (0.1 %): the old pipe table uses the nominal walls exactly; the small
-  allowance covers its weights, which assume a slightly different steel density.
-* DESIGN_WALL_ALLOWANCE (0.5 %): the HSS tables compute with the design wall rounded to 3
-  decimals (0.233 in for 0.93 x 1/4 in); we use 0.93 x nominal unrounded.
-* ROLLED_ALLOWANCE (2.5 %): angles (fillet and toe radii) and channels (fillets) are modelled
-  without fillets; see calcpad.eng.sections.shapes.
-* W_ALLOWANCE (1 %): W-shapes with the k_des fillet modelled.
-* WT_ALLOWANCE (3 %): WT-shapes derived from the W rows (half the W, k_des fillet modelled); the
-  WT table is computed by AISC from its own rounded WT dimensions.
-* WT_ORACLE_REL_TOL (0.1 %): WT-shapes against sectionproperties (mesh; fillets as polygons of
+* NOMINAL_PIPE_ALLOWANCE (0.1 %): the old pipe table uses the nominal walls exactly (compared
+  with ``wall="nominal"``, which computes from the dimensions).
+* DESIGN_WALL_ALLOWANCE (0.5 %): HSS tables with the design wall.
+* ROLLED_ALLOWANCE (2.5 %): angles and channels.
+* W_ALLOWANCE (1 %): W-shapes.
+* WT_ALLOWANCE (3 %): kept from when WTs were cut from our W rows; the WT rows are now the
+  published Table 1-8 values (tests/eng/test_sections_database.py compares every row).
+* WT_ORACLE_REL_TOL (0.1 %): the drawn WT geometry (``CatalogEntry.geometry()``) against sectionproperties (mesh; fillets as polygons of
   WT_ORACLE_NR points), which agrees to about 0.003 % here, so the tolerance has ample margin.
 
 Sources (beside each table below) are recalled from memory; a value we were unsure of was left out.
@@ -235,23 +236,22 @@ def _wt_value(shape, prop):
     return shape.d - shape.props.yc if prop == "ybar" else shape.props.value(prop)
 
 
-def test_wt_family_lists_one_wt_per_w():
-    assert set(designations("WT")) == set(WT_FROM_W.values())
+def test_wt_family_is_its_own_table():
+    assert set(WT_FROM_W.values()) <= set(designations("WT"))
     assert set(designations("wt")) == {n for n in designations() if n.startswith("WT")}
     assert not any(n.startswith("WT") for n in designations("w"))
+    assert "AISC Shapes Database v16.0" in get_entry("WT4x9").source
 
 
 @pytest.mark.parametrize(("w_name", "wt_name"), list(WT_FROM_W.items()))
-def test_wt_geometry_is_half_the_w(w_name, wt_name):
+def test_wt_row_is_half_the_w_row(w_name, wt_name):
+    # AISC Manual Table 1-8 WTs are the Table 1-1 Ws cut at mid-depth (common practice): the tabulated
+    # bf, tf, tw are the W's, and d, A, Iy, Zy are halves to the printed 3 figures.
     w, wt = get_section(w_name), get_section(wt_name)
     assert isinstance(wt, Tee) and wt.name == wt_name
-    k_des = get_entry(w_name).data["k_des"]
-    assert (wt.d, wt.bf, wt.tf, wt.tw) == pytest.approx((w.d / 2, w.bf, w.tf, w.tw), rel=1e-15)
-    assert wt.r == pytest.approx(k_des - w.tf, rel=1e-15)
-    # cutting a doubly symmetric W at mid-depth gives two equal tees: exact halves of A, Iy, Zy, weight
-    for prop in ("A", "Iy", "Zy", "weight"):
-        assert wt.props.value(prop) == pytest.approx(w.props.value(prop) / 2, rel=1e-12), prop
-    assert w_name in get_entry(wt_name).source
+    assert (wt.bf, wt.tf, wt.tw) == (w.bf, w.tf, w.tw)
+    for got, half in ((wt.d, w.d / 2), (wt.props.A, w.props.A / 2), (wt.props.Iy, w.props.Iy / 2), (wt.props.Zy, w.props.Zy / 2)):
+        assert got == pytest.approx(half, rel=0.006)
 
 
 @pytest.mark.parametrize("name", list(WT_FROM_W.values()))
@@ -271,7 +271,7 @@ def test_wt_against_aisc_15th_table_1_8(name, prop, printed):
 def test_wt_against_sectionproperties(name):
     sp_lib = pytest.importorskip("sectionproperties.pre.library")
     sp_analysis = pytest.importorskip("sectionproperties.analysis")
-    wt = get_section(name)
+    wt = get_entry(name).geometry()  # the drawn tee with computed properties
     p = wt.props
     # sectionproperties' tee: top-left corner at (0, d), flange on top, stem down to y = 0 -- our local frame.
     geom = sp_lib.tee_section(d=wt.d, b=wt.bf, t_f=wt.tf, t_w=wt.tw, r=wt.r, n_r=WT_ORACLE_NR)
@@ -303,9 +303,9 @@ def test_wt_and_w_parse_apart(text, canonical, kind):
 
 def test_wt_table_and_search():
     table = section_table("WT")
-    assert set(table["designation"]) == set(WT_FROM_W.values())
+    assert set(table["designation"]) == set(designations("wt")) and len(table) > 250
     row = table[table["designation"] == "WT4x9"].iloc[0]
-    assert row["A"] == pytest.approx(get_section("W8x18").props.A / 2, rel=1e-12)
+    assert row["A"] == pytest.approx(get_section("W8x18").props.A / 2, rel=0.006)
     found = find_sections("wt", min={"Ix": "3 in^4"})
     assert len(found) > 0 and (found["Ix"] >= 3.0).all()
     assert list(found["weight"]) == sorted(found["weight"])

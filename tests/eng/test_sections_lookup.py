@@ -67,9 +67,12 @@ def test_garbage_designation_is_input_error(bad):
 def test_wall_option():
     design = get_section("HSS4x4x1/4")
     nominal = get_section("HSS4x4x1/4", wall="nominal")
-    assert design.t == pytest.approx(ERW_DESIGN_WALL_FACTOR * 0.25)  # AISC 360-16 B4.2
+    # AISC 360-16 B4.2: design wall 0.93 x nominal, tabulated to 3 decimals (AISC Shapes Database v16.0: 0.233 in)
+    assert design.t == pytest.approx(ERW_DESIGN_WALL_FACTOR * 0.25, abs=6e-4)
+    assert design.t == 0.233
     assert nominal.t == pytest.approx(0.25)
-    assert design.props.weight == pytest.approx(nominal.props.weight)  # weight from the nominal wall
+    # weight from the nominal wall in both: the table's 12.21 lb/ft and ours computed from 1/4 in
+    assert design.props.weight == pytest.approx(nominal.props.weight, rel=0.01)
     assert get_section("EMT 1").t == pytest.approx(0.057)  # EMT: nominal wall always
     with pytest.raises(InputError, match="wall"):
         get_section("HSS4x4x1/4", wall="thick")
@@ -77,9 +80,10 @@ def test_wall_option():
 
 def test_entry_carries_source():
     e = get_entry("Pipe 2 Std")
-    assert "B36.10M" in e.source
-    assert "C80.3" in get_entry("EMT 2").source
-    assert "1-12" in get_entry("HSS4x4x1/4").source
+    assert "AISC Shapes Database v16.0" in e.source and e.published
+    assert "C80.3" in get_entry("EMT 2").source and not get_entry("EMT 2").published
+    assert "AISC Shapes Database v16.0" in get_entry("HSS4x4x1/4").source
+    assert get_section("HSS4x4x1/4").props.source == e.source
 
 
 def test_families_listed():

@@ -68,7 +68,7 @@ def test_record_holds_job_text_inputs_templates_and_data(base: dict[str, Any]) -
     # every shipped catalog and material file, by its bytes
     files = [*sorted((PACKAGE / "eng" / "sections" / "data").glob("*.csv")), PACKAGE / "eng" / "data" / "materials.toml"]
     assert rec["data"] == {f.relative_to(PACKAGE).as_posix(): hashlib.sha256(f.read_bytes()).hexdigest() for f in files}
-    assert "eng/sections/data/pipe.csv" in rec["data"] and "eng/data/materials.toml" in rec["data"]
+    assert "eng/sections/data/aisc_pipe.csv" in rec["data"] and "eng/data/materials.toml" in rec["data"]
     assert rec["versions"]["calcpad"]
 
 
@@ -236,7 +236,7 @@ def _data_copy(tmp_path: Path) -> Path:
     return pkg
 
 
-@pytest.mark.parametrize("name", ["eng/sections/data/pipe.csv", "eng/data/materials.toml"])
+@pytest.mark.parametrize("name", ["eng/sections/data/aisc_pipe.csv", "eng/data/materials.toml"])
 def test_verify_finds_changed_data(base: dict[str, Any], tmp_path: Path, monkeypatch: pytest.MonkeyPatch, name: str) -> None:
     pkg = _data_copy(tmp_path)
     monkeypatch.setattr(record_mod, "PACKAGE_DIR", pkg)  # the package data itself is never edited

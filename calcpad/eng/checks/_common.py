@@ -180,11 +180,21 @@ class Calc:
             return
         parse_quantity(q, base, expected=dim)
 
-    def prop(self, base: str, value: float, unit: str, description: str, source: str, *, shared: bool = False) -> None:
+    def prop(self, base: str, value: float, unit: str, description: str, source: Any, *, shared: bool = False) -> None:
         """Add a section property (float in ``unit``), shown to 4 significant figures in the
-        sheet's unit system. A section from the shop's own table gets its note once per sheet."""
-        self.given(base, self.in_system(value, unit) if unit else float(value), description, source, sig=4, shared=shared)
-        note_shop_section(self.sh, source)
+        sheet's unit system. ``source`` is a label, or the section (a ``Sec``): its label is
+        shown, and a section whose properties come from a published table gets one reference
+        line naming the table on the sheet."""
+        label = source
+        cite = ""
+        if hasattr(source, "label") and hasattr(source, "cite"):
+            label, cite = source.label, source.cite
+        self.given(base, self.in_system(value, unit) if unit else float(value), description, label, sig=4, shared=shared)
+        if cite:
+            text = f"{label}: section properties as tabulated in the {cite}"
+            if not any(getattr(s, "text", None) == text for s in self.sh.steps):
+                self.sh.reference(text)
+        note_shop_section(self.sh, label)
 
     def in_system(self, value: float, unit: str) -> str | pint.Quantity:
         """A catalog value (not one the engineer typed) in the sheet's unit system: as

@@ -73,7 +73,19 @@ PROPS: dict[str, tuple[str, str]] = {
     "beta_w": ("in", "Single-angle section property beta_w (magnitude)"),
     "Sz_toe": ("in**3", "Section modulus about z to the toes"),
     "Sz_heel": ("in**3", "Section modulus about z to the heel"),
+    "C": ("in**3", "HSS torsional constant"),
+    "r_o_bar": ("in", "Polar radius of gyration about the shear centre"),
+    "H_flex": ("", "Flexural constant H"),
+    "x_bar": ("in", "Centroid from the back of the web / vertical leg"),
+    "y_bar": ("in", "Centroid from the outside of the flange / back of the horizontal leg"),
+    "e_o": ("in", "Shear centre from the back of the web (channel)"),
+    "x_pna": ("in", "Plastic neutral axis for bending about y"),
+    "y_pna": ("in", "Plastic neutral axis for bending about x"),
+    "Qs": ("", "Slender-element reduction factor Q_s as tabulated"),
 }
+
+#: Optional section properties read from the shape's props when it has them.
+_SECTION_EXTRAS = ("Cw", "x_o", "y_o", "C", "r_o_bar", "H_flex", "x_bar", "y_bar", "e_o", "x_pna", "y_pna", "Qs")
 
 _CLASS_KIND = {
     "RoundTube": "round_hss",
@@ -99,6 +111,8 @@ class Sec:
     values: dict[str, float]
     source: str = ""
     notes: list[str] = field(default_factory=list)
+    #: The published table the properties come from (catalog shapes), else "".
+    cite: str = ""
 
     def get(self, name: str) -> float | None:
         """Property in inch units, or None."""
@@ -174,6 +188,8 @@ def _from_shape(shape: Any) -> Sec:
         "A": p.A, "Ix": p.Ix, "Iy": p.Iy, "Sx": p.Sx, "Sy": p.Sy, "Zx": p.Zx, "Zy": p.Zy,
         "rx": p.rx, "ry": p.ry, "r_min": p.r_min, "J": p.J,
     }
+    # properties the section carries (catalog shapes: as tabulated) are used as they are
+    v.update({k: float(x) for k in _SECTION_EXTRAS if (x := getattr(p, k, None)) is not None})
     if kind == "round_hss":
         v.update(D=shape.D, t=shape.t, D_t=shape.D / shape.t)
     elif kind == "rect_hss":
@@ -185,17 +201,22 @@ def _from_shape(shape: Any) -> Sec:
         v.update(Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, Sy_left=p.Iy / p.c_left, Sy_right=p.Iy / p.c_right)
         v.update(_angle_principal(shape.d, shape.b, shape.t, p))
     elif kind == "channel":
-        cw, xo = channel_warping(shape.d, shape.bf, shape.tf, shape.tw, p.xc)
-        v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_tf=shape.bf / shape.tf, h_tw=p.ratios["h/tw"], Cw=cw, x_o=xo)
+        v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_tf=shape.bf / shape.tf, h_tw=p.ratios["h/tw"])
+        if "Cw" not in v or "x_o" not in v:
+            cw, xo = channel_warping(shape.d, shape.bf, shape.tf, shape.tw, p.xc)
+            v.setdefault("Cw", cw)
+            v.setdefault("x_o", xo)
     elif kind == "tee":
         v.update(d=shape.d, bf=shape.bf, tf=shape.tf, tw=shape.tw, bf_2tf=shape.bf / (2 * shape.tf), d_tw=shape.d / shape.tw,
-                 Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot, y_o=p.c_top - shape.tf / 2)
+                 Sx_top=p.Ix / p.c_top, Sx_bot=p.Ix / p.c_bot)
+        v.setdefault("y_o", p.c_top - shape.tf / 2)
     elif kind == "rect_bar":
         v.update(H=shape.H, B=shape.B)
     elif kind == "round_bar":
         v.update(D=shape.D)
     notes = list(getattr(p, "notes", []))
-    return Sec(kind, shape.name, v, "section properties computed by calcpad.eng.sections", notes)
+    cite = getattr(p, "source", "")
+    return Sec(kind, shape.name, v, cite or "section properties computed by calcpad.eng.sections", notes, cite)
 
 
 def resolve_section(section: Any, kind: str | None = None) -> Sec:

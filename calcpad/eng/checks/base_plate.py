@@ -119,23 +119,23 @@ def add_base_plate_check(
 def _footprint(calc: Calc, sec: Any) -> None:
     """Cantilever lengths m, n (and λn' for a W-shape) and the governing l."""
     if sec.kind == "round_hss":
-        calc.prop("d_c", sec.need("D", "base plate"), "in", "Column outside diameter", sec.label)
-        calc.prop("t_c", sec.need("t", "base plate"), "in", "Column wall thickness", sec.label)
+        calc.prop("d_c", sec.need("D", "base plate"), "in", "Column outside diameter", sec)
+        calc.prop("t_c", sec.need("t", "base plate"), "in", "Column wall thickness", sec)
         calc.step("m", "(N_p - 0.8*d_c)/2", "Cantilever length along N", unit="in", ref="AISC Design Guide 1, 4.3")
         calc.step("n", "(B_p - 0.8*d_c)/2", "Cantilever length along B", unit="in", ref="AISC Design Guide 1, 4.3")
         calc.step("l_c", "max(m, n)", "Governing cantilever length", unit="in")
         return
     if sec.kind == "rect_hss":
-        calc.prop("d_c", sec.need("H", "base plate"), "in", "Column depth (along N)", sec.label)
-        calc.prop("b_c", sec.need("B", "base plate"), "in", "Column width (along B)", sec.label)
-        calc.prop("t_c", sec.need("t", "base plate"), "in", "Column wall thickness", sec.label)
+        calc.prop("d_c", sec.need("H", "base plate"), "in", "Column depth (along N)", sec)
+        calc.prop("b_c", sec.need("B", "base plate"), "in", "Column width (along B)", sec)
+        calc.prop("t_c", sec.need("t", "base plate"), "in", "Column wall thickness", sec)
         calc.step("m", "(N_p - 0.95*d_c)/2", "Cantilever length along N", unit="in", ref="AISC Design Guide 1, 4.3")
         calc.step("n", "(B_p - 0.95*b_c)/2", "Cantilever length along B", unit="in", ref="AISC Design Guide 1, 4.3")
         calc.step("l_c", "max(m, n)", "Governing cantilever length", unit="in")
         return
-    calc.prop("d_c", sec.need("d", "base plate"), "in", "Column depth (along N)", sec.label)
-    calc.prop("b_f", sec.need("bf", "base plate"), "in", "Column flange width (along B)", sec.label)
-    calc.prop("t_c", sec.need("tf", "base plate"), "in", "Column flange thickness", sec.label)
+    calc.prop("d_c", sec.need("d", "base plate"), "in", "Column depth (along N)", sec)
+    calc.prop("b_f", sec.need("bf", "base plate"), "in", "Column flange width (along B)", sec)
+    calc.prop("t_c", sec.need("tf", "base plate"), "in", "Column flange thickness", sec)
     calc.step("m", "(N_p - 0.95*d_c)/2", "Cantilever length along N", unit="in", ref="AISC Design Guide 1, Eq. 3.1.5")
     calc.step("n", "(B_p - 0.8*b_f)/2", "Cantilever length along B", unit="in", ref="AISC Design Guide 1, Eq. 3.1.6")
     calc.step("X_c", "4*d_c*b_f/(d_c + b_f)**2*P_r/(A_1*f_pa)", "Factor X", ref="AISC Design Guide 1, Eq. 3.1.4")

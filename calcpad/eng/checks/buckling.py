@@ -54,7 +54,7 @@ def write_elastic_buckling(
         calc.given("r", r, "Radius of gyration (governing axis)", dim="[length]")
     if not two_axes:
         if r is None:
-            calc.prop("r", sec.need("r_min", "compression check"), "in", "Least radius of gyration", sec.label)
+            calc.prop("r", sec.need("r_min", "compression check"), "in", "Least radius of gyration", sec)
         calc.step("KL_r", "K*L/r", "Slenderness ratio", ref="AISC 360-16 E2")
     else:
         _two_axes(calc, sec, L_y, K_y)
@@ -66,9 +66,12 @@ def write_elastic_buckling(
         calc.step("F_e_fb", "pi**2*E/KL_r**2", "Elastic flexural buckling stress", unit="ksi", ref="AISC 360-16 Eq. E3-4")
         _lz(calc, L_z, K_z)
         d, tf = sec.need("d", "E4"), sec.need("tf", "E4")
-        calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec.label, shared=True)
-        calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label, shared=True)
-        calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
+        calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec, shared=True)
+        calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec, shared=True)
+        if sec.get("Cw") is not None:
+            calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant, as tabulated", sec, shared=True)
+        else:
+            calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 E4 User Note")
         calc.step("F_e_tb", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(I_x + I_y)", "Elastic torsional buckling stress", unit="ksi",
                   ref="AISC 360-16 Eq. E4-2")
         calc.select("F_e", "min", {"F_e_fb": "flexural buckling (E3-4)", "F_e_tb": "torsional buckling (E4-2)"},
@@ -95,10 +98,10 @@ def _two_axes(calc: Calc, sec: Sec, L_y: Any, K_y: Any) -> None:
     ky = calc.given("K_y", K_y if K_y is not None else calc.name("K"), "Effective length factor about y", dim="")
     if K_y is not None and not 0.5 <= float(ky.magnitude) <= 2.5:
         warn(calc.sh, f"K_y = {float(ky.magnitude):g} is outside the usual range 0.5 to 2.5 (Commentary Table C-A-7.1)")
-    calc.prop("r_x", sec.need("rx", "E3"), "in", "Radius of gyration about x", sec.label)
-    calc.prop("r_y", sec.need("ry", "E3"), "in", "Radius of gyration about y", sec.label)
-    calc.prop("I_x", sec.need("Ix", "E4"), "in**4", "Moment of inertia about x", sec.label, shared=True)
-    calc.prop("I_y", sec.need("Iy", "E4"), "in**4", "Moment of inertia about y", sec.label, shared=True)
+    calc.prop("r_x", sec.need("rx", "E3"), "in", "Radius of gyration about x", sec)
+    calc.prop("r_y", sec.need("ry", "E3"), "in", "Radius of gyration about y", sec)
+    calc.prop("I_x", sec.need("Ix", "E4"), "in**4", "Moment of inertia about x", sec, shared=True)
+    calc.prop("I_y", sec.need("Iy", "E4"), "in**4", "Moment of inertia about y", sec, shared=True)
     calc.step("KL_rx", "K*L/r_x", "Slenderness about x", ref="AISC 360-16 E2")
     calc.step("KL_ry", "K_y*L_y/r_y", "Slenderness about y", ref="AISC 360-16 E2")
     calc.select("KL_r", "max", {"KL_rx": "about x", "KL_ry": "about y"}, "Governing slenderness ratio", ref="AISC 360-16 E2")
@@ -117,9 +120,9 @@ def _singly_symmetric_e4(calc: Calc, sec: Sec, L_z: Any, K_z: Any) -> None:
     _lz(calc, L_z, K_z)
     tee = sec.kind == "tee"
     sym, other, off = ("y", "x", "y_o") if tee else ("x", "y", "x_o")
-    calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec.label, shared=True)
+    calc.prop("J", sec.need("J", "E4"), "in**4", "Torsional constant", sec, shared=True)
     where = "flange mid-thickness" if tee else "behind the web"
-    calc.prop(off, sec.need(off, "E4"), "in", f"Centroid to shear centre ({where})", sec.label)
+    calc.prop(off, sec.need(off, "E4"), "in", f"Centroid to shear centre ({where})", sec)
     calc.step(f"F_e{other}", f"pi**2*E/KL_r{other}**2", f"Elastic flexural buckling stress about {other}", unit="ksi",
               ref=f"AISC 360-16 Eq. {'E4-5' if other == 'x' else 'E4-6'}")
     calc.step(f"F_e{sym}", f"pi**2*E/KL_r{sym}**2", f"Elastic flexural buckling stress about {sym}", unit="ksi",
@@ -130,7 +133,7 @@ def _singly_symmetric_e4(calc: Calc, sec: Sec, L_z: Any, K_z: Any) -> None:
         calc.step("F_ez", "G*J/(A_g*r_o**2)", "Elastic torsional buckling stress (C_w omitted for tees)", unit="ksi",
                   ref="AISC 360-16 Eq. E4-7 and User Note")
     else:
-        calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant (thin-wall)", sec.label, shared=True)
+        calc.prop("C_w", sec.need("Cw", "E4"), "in**6", "Warping constant", sec, shared=True)
         calc.step("F_ez", "(pi**2*E*C_w/(K_z*L_z)**2 + G*J)/(A_g*r_o**2)", "Elastic torsional buckling stress", unit="ksi",
                   ref="AISC 360-16 Eq. E4-7")
     calc.step("H", f"1 - {off}**2/r_o**2", "Flexural constant", ref="AISC 360-16 Eq. E4-8")
@@ -176,7 +179,7 @@ def _angle_e5(calc: Calc, sec: Sec, connected_leg: str | None, truss: str) -> No
     along_y = (connected_leg == "long") == (d >= b)
     calc.prop("r_a", sec.need("ry" if along_y else "rx", "E5"), "in", "Radius of gyration about the geometric axis parallel to the connected leg",
               sec.label)
-    calc.prop("r_z", sec.need("r_min", "E5"), "in", "Least radius of gyration (principal axis z)", sec.label)
+    calc.prop("r_z", sec.need("r_min", "E5"), "in", "Least radius of gyration (principal axis z)", sec)
     calc.step("L_ra", "L/r_a", "Slenderness about the axis parallel to the connected leg", ref=f"AISC 360-16 {clause}")
     calc.branch(
         "KL_r0",
@@ -186,8 +189,8 @@ def _angle_e5(calc: Calc, sec: Sec, connected_leg: str | None, truss: str) -> No
         ref=f"AISC 360-16 {clause}(1)",
     )
     if connected_leg == "short" and long_leg > short_leg:
-        calc.prop("b_lg", long_leg, "in", "Long leg", sec.label)
-        calc.prop("b_sh", short_leg, "in", "Short leg", sec.label)
+        calc.prop("b_lg", long_leg, "in", "Long leg", sec)
+        calc.prop("b_sh", short_leg, "in", "Short leg", sec)
         calc.step("KL_r", f"max(KL_r0 + {add:g}*((b_lg/b_sh)**2 - 1), {floor:g}*L/r_z)",
                   "Effective slenderness, unequal legs connected through the shorter leg", ref=f"AISC 360-16 {clause}(2)")
     else:

@@ -78,7 +78,7 @@ def write_elements(calc: Calc, sec: Sec, mode: str, axis: str = "x") -> dict[str
         return out
     for el in els:
         lam = f"lambda_{el.code}"
-        calc.prop(lam, sec.need(el.prop, "classification"), "", f"Width-to-thickness ratio, {el.what}", sec.label)
+        calc.prop(lam, sec.need(el.prop, "classification"), "", f"Width-to-thickness ratio, {el.what}", sec)
         if mode == "compression":
             lr = f"lambda_rc{el.code}"
             calc.step(lr, _limit(*el.rc), f"Slender limit, {el.what}", ref=f"AISC 360-16 Table B4.1a case {el.case_a}")

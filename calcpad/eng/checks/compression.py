@@ -111,7 +111,7 @@ def add_compression_check(
         ref="AISC 360-16 E3",
     )
     if sec.kind == "rect_hss":
-        calc.prop("t", sec.need("t", "E7"), "in", "Design wall thickness", sec.label)
+        calc.prop("t", sec.need("t", "E7"), "in", "Design wall thickness", sec)
         _effective_widths(calc, [("f", "lambda_f*t", "flange walls"), ("w", "lambda_w*t", "web walls")], "b")
         calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t - 2*(b_w - b_ew)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
@@ -129,7 +129,7 @@ def add_compression_check(
         _open_shape_e7(calc, sec)
         calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
     elif slender_web:
-        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec.label)
+        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec)
         _effective_widths(calc, [("w", "lambda_w*t_w", "web (h)")], "a")
         calc.step("A_eff", "A_g - (b_w - b_ew)*t_w", "Effective area (slender web)", unit="in^2", ref="AISC 360-16 E7")
         calc.step("P_n", "F_cr*A_eff", "Nominal compressive strength", unit="kip", ref="AISC 360-16 Eq. E7-1")
@@ -166,25 +166,25 @@ def _effective_widths(calc: Calc, elements: list[tuple[str, str, str]], case: st
 def _open_shape_e7(calc: Calc, sec: Sec) -> None:
     """Effective area of a tee, single angle or channel (Table E7.1 cases (c) and (a))."""
     if sec.kind == "channel":
-        calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec.label)
-        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec.label)
+        calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec)
+        calc.prop("t_w", sec.need("tw", "E7"), "in", "Web thickness", sec)
         _effective_widths(calc, [("f", "lambda_f*t_f", "flanges")], "c", "f")
         _effective_widths(calc, [("w", "lambda_w*t_w", "web (h)")], "a", "w")
         calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t_f - (b_w - b_ew)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
     if sec.kind == "tee":
-        calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec.label)
-        calc.prop("t_w", sec.need("tw", "E7"), "in", "Stem thickness", sec.label)
+        calc.prop("t_f", sec.need("tf", "E7"), "in", "Flange thickness", sec)
+        calc.prop("t_w", sec.need("tw", "E7"), "in", "Stem thickness", sec)
         _effective_widths(calc, [("f", "lambda_f*t_f", "flange outstand (bf/2)"), ("s", "lambda_s*t_w", "stem")], "c")
         calc.step("A_eff", "A_g - 2*(b_f - b_ef)*t_f - (b_s - b_es)*t_w", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
     d, b, t = sec.need("d", "E7"), sec.need("b", "E7"), sec.need("t", "E7")
-    calc.prop("t", t, "in", "Leg thickness", sec.label, shared=True)
+    calc.prop("t", t, "in", "Leg thickness", sec, shared=True)
     if math.isclose(d, b, rel_tol=1e-9):
         _effective_widths(calc, [("l", "lambda_l*t", "each leg")], "c")
         calc.step("A_eff", "A_g - 2*(b_l - b_el)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")
         return
-    calc.prop("lambda_l2", min(d, b) / t, "", "Width-to-thickness ratio, short leg", sec.label)
+    calc.prop("lambda_l2", min(d, b) / t, "", "Width-to-thickness ratio, short leg", sec)
     calc.step("lambda_rcl2", "lambda_rcl", "Slender limit, short leg", ref="AISC 360-16 Table B4.1a case 3")
     _effective_widths(calc, [("l", "lambda_l*t", "long leg"), ("l2", "lambda_l2*t", "short leg")], "c")
     calc.step("A_eff", "A_g - (b_l - b_el)*t - (b_l2 - b_el2)*t", "Effective area", unit="in^2", ref="AISC 360-16 E7")

@@ -124,8 +124,8 @@ def _check_open_options(sec: Sec, stem: str | None, toe: str | None, restraint: 
 
 
 def _zs(calc: Calc, sec: Sec, axis: str) -> None:
-    calc.prop("Z", sec.need(f"Z{axis}", "flexure"), "in**3", f"Plastic section modulus about {axis}", sec.label)
-    calc.prop("S", sec.need(f"S{axis}", "flexure"), "in**3", f"Elastic section modulus about {axis}", sec.label)
+    calc.prop("Z", sec.need(f"Z{axis}", "flexure"), "in**3", f"Plastic section modulus about {axis}", sec)
+    calc.prop("S", sec.need(f"S{axis}", "flexure"), "in**3", f"Elastic section modulus about {axis}", sec)
 
 
 def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: float) -> None:
@@ -188,14 +188,17 @@ def _i_shape(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: fl
 def _ltb_f2(calc: Calc, sec: Sec, *, channel: bool) -> None:
     """Lateral-torsional buckling of F2.2: c = 1 for I-shapes, Eq. F2-8b for channels."""
     d, tf = sec.need("d", "F2"), sec.need("tf", "F2")
-    calc.prop("r_y", sec.need("ry", "F2"), "in", "Radius of gyration about y", sec.label)
-    calc.prop("I_y", sec.need("Iy", "F2"), "in**4", "Moment of inertia about y", sec.label)
-    calc.prop("J", sec.need("J", "F2"), "in**4", "Torsional constant", sec.label)
-    calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label)
+    calc.prop("r_y", sec.need("ry", "F2"), "in", "Radius of gyration about y", sec)
+    calc.prop("I_y", sec.need("Iy", "F2"), "in**4", "Moment of inertia about y", sec)
+    calc.prop("J", sec.need("J", "F2"), "in**4", "Torsional constant", sec)
+    calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec)
     if channel:
-        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant (thin-wall)", sec.label, shared=True)
+        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant", sec, shared=True)
         calc.step("c", "h_o/2*sqrt(I_y/C_w)", "Factor c for channels", ref="AISC 360-16 Eq. F2-8b")
         jc, note = "J*c", ""
+    elif sec.get("Cw") is not None:
+        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant, as tabulated", sec, shared=True)
+        jc, note = "J", " (c = 1)"
     else:
         calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")
         jc, note = "J", " (c = 1)"
@@ -224,10 +227,10 @@ def _rect_hss(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: f
     _zs(calc, sec, axis)
     write_elements(calc, sec, "flexure", axis)
     depth = sec.need("H" if axis == "x" else "B", "F7")
-    calc.prop("A", sec.need("A", "F7"), "in**2", "Gross area", sec.label, shared=True)
-    calc.prop("I", sec.need(f"I{axis}", "F7"), "in**4", f"Moment of inertia about {axis}", sec.label)
-    calc.prop("t", sec.need("t", "F7"), "in", "Design wall thickness", sec.label, shared=True)
-    calc.prop("h_b", depth, "in", "Outside depth perpendicular to the axis", sec.label)
+    calc.prop("A", sec.need("A", "F7"), "in**2", "Gross area", sec, shared=True)
+    calc.prop("I", sec.need(f"I{axis}", "F7"), "in**4", f"Moment of inertia about {axis}", sec)
+    calc.prop("t", sec.need("t", "F7"), "in", "Design wall thickness", sec, shared=True)
+    calc.prop("h_b", depth, "in", "Outside depth perpendicular to the axis", sec)
     calc.step("M_p", "F_y*Z", _MP_NOTE, unit="kip*ft", ref="AISC 360-16 Eq. F7-1")
     calc.step("b", "lambda_f*t", "Flat width of the compression flange", unit="in")
     calc.step("b_e", "min(1.92*t*sqrt(E/F_y)*(1 - 0.38/lambda_f*sqrt(E/F_y)), b)",
@@ -256,8 +259,8 @@ def _rect_hss(calc: Calc, sec: Sec, axis: str, braced_len: bool, fy: float, e: f
     cands = {"M_p": "yielding (F7-1)", "M_n_FLB": "flange local buckling (F7.2)", "M_n_WLB": "web local buckling (F7.3)"}
     other = sec.need("B" if axis == "x" else "H", "F7")
     if braced_len and depth > other:
-        calc.prop("r_y", sec.need("ry" if axis == "x" else "rx", "F7"), "in", "Radius of gyration about the minor axis", sec.label)
-        calc.prop("J", sec.need("J", "F7"), "in**4", "Torsional constant", sec.label, shared=True)
+        calc.prop("r_y", sec.need("ry" if axis == "x" else "rx", "F7"), "in", "Radius of gyration about the minor axis", sec)
+        calc.prop("J", sec.need("J", "F7"), "in**4", "Torsional constant", sec, shared=True)
         calc.step("L_p", "0.13*E*r_y*sqrt(J*A)/M_p", "Limiting length, yielding", unit="ft", ref="AISC 360-16 Eq. F7-12")
         calc.step("L_r", "2*E*r_y*sqrt(J*A)/(0.7*F_y*S)", "Limiting length, inelastic LTB", unit="ft", ref="AISC 360-16 Eq. F7-13")
         calc.branch(
@@ -300,8 +303,8 @@ def _bar(calc: Calc, sec: Sec, axis: str, braced_len: bool, _fy: float, _e: floa
     if sec.kind == "rect_bar" and braced_len:
         d, t = (sec.need("H", "F11"), sec.need("B", "F11")) if axis == "x" else (sec.need("B", "F11"), sec.need("H", "F11"))
         if d > t:
-            calc.prop("d", d, "in", "Depth of the bar (in the plane of bending)", sec.label)
-            calc.prop("t", t, "in", "Width of the bar (perpendicular to the plane of bending)", sec.label)
+            calc.prop("d", d, "in", "Depth of the bar (in the plane of bending)", sec)
+            calc.prop("t", t, "in", "Width of the bar (perpendicular to the plane of bending)", sec)
             calc.step("M_y", "F_y*S", "Yield moment", unit="kip*ft")
             calc.step("lambda_b", "L_b*d/t**2", "LTB slenderness of the bar", ref="AISC 360-16 F11.2")
             calc.branch(

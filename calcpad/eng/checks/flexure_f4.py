@@ -18,9 +18,9 @@ __all__ = ["write_f4"]
 def write_f4(calc: Calc, sec: Sec, braced_len: bool) -> None:
     """Write the F4 limit states; the classification (λ_f, λ_w and their limits) is on the sheet."""
     d, tf, tw = sec.need("d", "F4"), sec.need("tf", "F4"), sec.need("tw", "F4")
-    calc.prop("b_f", sec.need("bf", "F4"), "in", "Flange width", sec.label)
-    calc.prop("t_f", tf, "in", "Flange thickness", sec.label)
-    calc.prop("t_w", tw, "in", "Web thickness", sec.label)
+    calc.prop("b_f", sec.need("bf", "F4"), "in", "Flange width", sec)
+    calc.prop("t_f", tf, "in", "Flange thickness", sec)
+    calc.prop("t_w", tw, "in", "Web thickness", sec)
     calc.step("h_c", "lambda_w*t_w", "Web depth in compression x 2 (doubly symmetric: h)", unit="in", ref="AISC 360-16 F4")
     calc.step("M_yc", "F_y*S", "Yield moment of the compression flange side", unit="kip*ft", ref="AISC 360-16 Eq. F4-4")
     calc.step("M_p", "min(F_y*Z, 1.6*F_y*S)", "Plastic moment", unit="kip*ft", ref="AISC 360-16 F4.1")
@@ -35,8 +35,8 @@ def write_f4(calc: Calc, sec: Sec, braced_len: bool) -> None:
     calc.step("M_n_CFY", "R_pc*M_yc", "Compression flange yielding", unit="kip*ft", ref="AISC 360-16 Eq. F4-1")
     cands = {"M_n_CFY": "compression flange yielding (F4.1)"}
     if braced_len:
-        calc.prop("J", sec.need("J", "F4"), "in**4", "Torsional constant", sec.label)
-        calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec.label)
+        calc.prop("J", sec.need("J", "F4"), "in**4", "Torsional constant", sec)
+        calc.prop("h_o", d - tf, "in", "Distance between flange centroids, d - tf", sec)
         calc.step("a_w", "h_c*t_w/(b_f*t_f)", "Web-to-flange area ratio", ref="AISC 360-16 Eq. F4-12")
         calc.step("r_t", "b_f/sqrt(12*(1 + a_w/6))", "Effective radius of gyration for LTB", unit="in", ref="AISC 360-16 Eq. F4-11")
         calc.step("L_p", "1.1*r_t*sqrt(E/F_y)", "Limiting length, yielding", unit="ft", ref="AISC 360-16 Eq. F4-7")

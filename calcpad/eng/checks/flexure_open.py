@@ -27,9 +27,9 @@ def write_tee_flexure(calc: Calc, sec: Sec, braced_len: bool, stem: str | None) 
         calc.sh.assume("Tee stem taken in flexural compression (the lower strength of F9); give stem='tension' when the "
                        "flange is the compressed side.")
     write_elements(calc, sec, "flexure", "x")
-    calc.prop("S_xc", sec.need("Sx_top", "F9"), "in**3", "Elastic section modulus to the flange", sec.label)
-    calc.prop("S_xs", sec.need("Sx_bot", "F9"), "in**3", "Elastic section modulus to the stem tip", sec.label)
-    calc.prop("Z", sec.need("Zx", "F9"), "in**3", "Plastic section modulus about x", sec.label)
+    calc.prop("S_xc", sec.need("Sx_top", "F9"), "in**3", "Elastic section modulus to the flange", sec)
+    calc.prop("S_xs", sec.need("Sx_bot", "F9"), "in**3", "Elastic section modulus to the stem tip", sec)
+    calc.prop("Z", sec.need("Zx", "F9"), "in**3", "Plastic section modulus about x", sec)
     calc.step("S", "min(S_xc, S_xs)", "Least elastic section modulus about x", unit="in^3")
     calc.step("M_y", "F_y*S", "Yield moment", unit="kip*ft", ref="AISC 360-16 Eq. F9-3")
     tension = stem == "tension"
@@ -39,10 +39,10 @@ def write_tee_flexure(calc: Calc, sec: Sec, braced_len: bool, stem: str | None) 
         calc.step("M_p", "M_y", "Yielding limit, stem in compression", unit="kip*ft", ref="AISC 360-16 Eq. F9-4")
     cands = {"M_p": "yielding (F9.1)"}
     if braced_len:
-        calc.prop("d", sec.need("d", "F9"), "in", "Depth of the tee", sec.label)
-        calc.prop("r_y", sec.need("ry", "F9"), "in", "Radius of gyration about y", sec.label)
-        calc.prop("I_y", sec.need("Iy", "F9"), "in**4", "Moment of inertia about y", sec.label)
-        calc.prop("J", sec.need("J", "F9"), "in**4", "Torsional constant", sec.label, shared=True)
+        calc.prop("d", sec.need("d", "F9"), "in", "Depth of the tee", sec)
+        calc.prop("r_y", sec.need("ry", "F9"), "in", "Radius of gyration about y", sec)
+        calc.prop("I_y", sec.need("Iy", "F9"), "in**4", "Moment of inertia about y", sec)
+        calc.prop("J", sec.need("J", "F9"), "in**4", "Torsional constant", sec, shared=True)
         sign = "" if tension else "-"
         calc.step("B", f"{sign}2.3*d/L_b*sqrt(I_y/J)", "LTB parameter B", ref=f"AISC 360-16 Eq. {'F9-11' if tension else 'F9-13'}")
         calc.step("M_cr", "1.95*E/L_b*sqrt(I_y*J)*(B + sqrt(1 + B**2))", "Elastic LTB moment", unit="kip*ft", ref="AISC 360-16 Eq. F9-10")
@@ -111,15 +111,15 @@ def write_angle_flexure(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: 
     s_c = s_toe if toe == "compression" else s_heel
     calc.prop("S_g", min(sec.need(s_toe, "F10"), sec.need(s_heel, "F10")), "in**3", f"Geometric section modulus about {axis} (least)",
               sec.label)
-    calc.prop("S_c0", sec.need(s_c, "F10"), "in**3", "Geometric section modulus to the compressed toe", sec.label)
+    calc.prop("S_c0", sec.need(s_c, "F10"), "in**3", "Geometric section modulus to the compressed toe", sec)
     calc.given("k_S", 0.80 if free else 1.0, "Factor on the geometric section modulus",
                "AISC 360-16 F10.2(ii)(a): 0.80 without lateral-torsional restraint" if free else "AISC 360-16 F10.1, F10.2(ii)(b)", dim="")
     calc.step("M_y", "k_S*F_y*S_g", "Yield moment about the geometric axis", unit="kip*ft", ref="AISC 360-16 F10.1, F10.2(ii)")
     calc.step("M_p", "1.5*M_y", "Yielding", unit="kip*ft", ref="AISC 360-16 Eq. F10-1")
     cands = {"M_p": "yielding (F10.1)"}
     if braced_len:
-        calc.prop("b", b, "in", "Leg width", sec.label)
-        calc.prop("t", t, "in", "Leg thickness", sec.label, shared=True)
+        calc.prop("b", b, "in", "Leg width", sec)
+        calc.prop("t", t, "in", "Leg thickness", sec, shared=True)
         calc.given("k_r", 1.0 if free else 1.25, "Factor on M_cr for restraint at the point of maximum moment",
                    "AISC 360-16 F10.2(ii)(b)" if not free else "AISC 360-16 F10.2(ii)(a)", dim="")
         sign, eq = ("-", "F10-5a") if toe == "compression" else ("+", "F10-5b")
@@ -141,7 +141,7 @@ def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str
     equal = abs(sec.need("d", "F10") - sec.need("b", "F10")) <= 1e-9 * sec.need("d", "F10")
     sign = 1.0
     if major and equal:
-        calc.prop("S_p", sec.need("Sw_toe", "F10"), "in**3", "Section modulus about w (to the toes)", sec.label)
+        calc.prop("S_p", sec.need("Sw_toe", "F10"), "in**3", "Section modulus about w (to the toes)", sec)
         calc.sh.note("Bending about the major principal axis w: one toe is in compression.")
         s_c = "S_p"
     elif major:
@@ -150,8 +150,8 @@ def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str
             calc.sh.assume("Long leg's toe taken in compression (bending about w; beta_w negative, the lower strength); give "
                            "toe='short' when the short leg's toe is the compressed one.")
         sign = 1.0 if toe == "short" else -1.0
-        calc.prop("S_wl", sec.need("Sw_long", "F10"), "in**3", "Section modulus about w to the long leg's toe", sec.label)
-        calc.prop("S_ws", sec.need("Sw_short", "F10"), "in**3", "Section modulus about w to the short leg's toe", sec.label)
+        calc.prop("S_wl", sec.need("Sw_long", "F10"), "in**3", "Section modulus about w to the long leg's toe", sec)
+        calc.prop("S_ws", sec.need("Sw_short", "F10"), "in**3", "Section modulus about w to the short leg's toe", sec)
         calc.step("S_p", "min(S_wl, S_ws)", "Least section modulus about w", unit="in^3")
         s_c = "S_ws" if toe == "short" else "S_wl"
     else:
@@ -159,17 +159,17 @@ def _angle_principal(calc: Calc, sec: Sec, axis: str, braced_len: bool, toe: str
             toe = "compression"
             calc.sh.assume("Toes taken in compression (bending about z; the lower strength); give toe='tension' when the heel "
                            "is the compression side.")
-        calc.prop("S_zt", sec.need("Sz_toe", "F10"), "in**3", "Section modulus about z to the toes", sec.label)
-        calc.prop("S_zh", sec.need("Sz_heel", "F10"), "in**3", "Section modulus about z to the heel", sec.label)
+        calc.prop("S_zt", sec.need("Sz_toe", "F10"), "in**3", "Section modulus about z to the toes", sec)
+        calc.prop("S_zh", sec.need("Sz_heel", "F10"), "in**3", "Section modulus about z to the heel", sec)
         calc.step("S_p", "min(S_zt, S_zh)", "Least section modulus about z", unit="in^3")
         s_c = "S_zt" if toe == "compression" else ""
     calc.step("M_y", "F_y*S_p", f"Yield moment about {axis}", unit="kip*ft", ref="AISC 360-16 F10.1")
     calc.step("M_p", "1.5*M_y", "Yielding", unit="kip*ft", ref="AISC 360-16 Eq. F10-1")
     cands = {"M_p": "yielding (F10.1)"}
     if major and braced_len:
-        calc.prop("A", sec.need("A", "F10"), "in**2", "Gross area", sec.label, shared=True)
-        calc.prop("r_z", sec.need("r_min", "F10"), "in", "Radius of gyration about z", sec.label)
-        calc.prop("t", sec.need("t", "F10"), "in", "Leg thickness", sec.label, shared=True)
+        calc.prop("A", sec.need("A", "F10"), "in**2", "Gross area", sec, shared=True)
+        calc.prop("r_z", sec.need("r_min", "F10"), "in", "Radius of gyration about z", sec)
+        calc.prop("t", sec.need("t", "F10"), "in", "Leg thickness", sec, shared=True)
         bw = float(sign * sec.need("beta_w", "F10")) if not equal else 0.0
         calc.given("beta_w", f"{bw!r} in", "Section property for single angles (0 for equal legs; + short leg, - long leg in "
                    "compression)", "AISC 360-16 F10.2(i); integral over the legs", dim="[length]", allow_zero=True, allow_negative=True,

@@ -83,8 +83,8 @@ def add_shear_check(
         )
         calc.step("V_n", "0.6*F_y*A_w*C_v1", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G2-1")
     elif sec.kind == "rect_hss":
-        calc.prop("t", sec.need("t", "G4"), "in", "Design wall thickness", sec.label)
-        calc.prop("h_t", sec.need("h_t" if axis == "x" else "b_t", "G4"), "", "Web slenderness h/t", sec.label)
+        calc.prop("t", sec.need("t", "G4"), "in", "Design wall thickness", sec)
+        calc.prop("h_t", sec.need("h_t" if axis == "x" else "b_t", "G4"), "", "Web slenderness h/t", sec)
         calc.step("h", "h_t*t", "Web flat height", unit="in", ref="AISC 360-16 G4")
         calc.step("A_w", "2*h*t", "Shear area (two webs)", unit="in^2", ref="AISC 360-16 G4")
         calc.given("k_v", 5.0, "Web plate shear buckling coefficient", "AISC 360-16 G4", dim="")
@@ -99,11 +99,11 @@ def add_shear_check(
         calc.step("V_n", "0.6*F_y*A_w*C_v2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G4-1")
     elif sec.kind == "angle" or (sec.kind == "tee" and axis == "x"):
         if sec.kind == "tee":
-            calc.prop("b", sec.need("d", "G3"), "in", "Depth of the stem (tee depth)", sec.label)
-            calc.prop("t", sec.need("tw", "G3"), "in", "Stem thickness", sec.label)
+            calc.prop("b", sec.need("d", "G3"), "in", "Depth of the stem (tee depth)", sec)
+            calc.prop("t", sec.need("tw", "G3"), "in", "Stem thickness", sec)
         else:
-            calc.prop("b", sec.need("d" if axis == "x" else "b", "G3"), "in", "Width of the leg resisting the shear", sec.label)
-            calc.prop("t", sec.need("t", "G3"), "in", "Leg thickness", sec.label, shared=True)
+            calc.prop("b", sec.need("d" if axis == "x" else "b", "G3"), "in", "Width of the leg resisting the shear", sec)
+            calc.prop("t", sec.need("t", "G3"), "in", "Leg thickness", sec, shared=True)
         calc.given("k_v", 1.2, "Shear buckling coefficient", "AISC 360-16 G3", dim="")
         calc.step("b_t", "b/t", "Width-to-thickness ratio for shear", ref="AISC 360-16 G3")
         calc.branch(
@@ -116,9 +116,9 @@ def add_shear_check(
         )
         calc.step("V_n", "0.6*F_y*b*t*C_v2", "Nominal shear strength", unit="kip", ref="AISC 360-16 Eq. G3-1")
     elif sec.kind == "round_hss":
-        calc.prop("A_g", sec.need("A", "G5"), "in**2", "Gross area", sec.label)
-        calc.prop("D", sec.need("D", "G5"), "in", "Outside diameter", sec.label)
-        calc.prop("D_t", sec.need("D_t", "G5"), "", "Diameter-to-thickness ratio", sec.label)
+        calc.prop("A_g", sec.need("A", "G5"), "in**2", "Gross area", sec)
+        calc.prop("D", sec.need("D", "G5"), "in", "Outside diameter", sec)
+        calc.prop("D_t", sec.need("D_t", "G5"), "", "Diameter-to-thickness ratio", sec)
         cands = {}
         if L_v is not None:
             check_length(calc, "L_v", L_v, "Distance from maximum to zero shear")
@@ -145,8 +145,8 @@ def add_shear_check(
 
 def _web(calc: Calc, sec: Sec) -> None:
     """Web area d*t_w, h/tw and k_v of an I-shape or channel web, AISC 360-16 G2.1."""
-    calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec.label)
-    calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec.label)
-    calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec.label)
+    calc.prop("d", sec.need("d", "G2"), "in", "Overall depth", sec)
+    calc.prop("t_w", sec.need("tw", "G2"), "in", "Web thickness", sec)
+    calc.prop("h_tw", sec.need("h_tw", "G2"), "", "Web slenderness h/tw", sec)
     calc.step("A_w", "d*t_w", "Area of web", unit="in^2", ref="AISC 360-16 G2.1")
     calc.given("k_v", 5.34, "Web plate shear buckling coefficient (no stiffeners)", "AISC 360-16 G2.1(b)(2)", dim="")

@@ -56,7 +56,7 @@ def add_tension_check(
     if A_g is not None:
         ag = calc.given("A_g", A_g, "Gross area", dim="in**2")
     elif sec is not None:
-        calc.prop("A_g", sec.need("A", "tension check"), "in**2", "Gross area", sec.label)
+        calc.prop("A_g", sec.need("A", "tension check"), "in**2", "Gross area", sec)
         ag = sh[calc.name("A_g")]
     else:
         raise CheckInputError("A_g", None, "a gross area or a section")
@@ -80,7 +80,7 @@ def add_tension_check(
         if sec is None:
             raise CheckInputError("L", L, "a section with it (L/r needs the least radius of gyration), or no L")
         check_length(calc, "L", L, "Member length")
-        calc.prop("r", sec.need("r_min", "tension slenderness"), "in", "Least radius of gyration", sec.label)
+        calc.prop("r", sec.need("r_min", "tension slenderness"), "in", "Least radius of gyration", sec)
         calc.step("Lr_D1", "L/r", "Slenderness ratio L/r (preferably <= 300; not for rods or hangers)", ref="AISC 360-16 D1 User Note")
         flags.append(("Lr_D1", 300.0, OK_SLENDER))
     return calc.check("Axial tension", "T_r", "T_c", key="ratio_t", ref="AISC 360-16 D2", flags=flags)

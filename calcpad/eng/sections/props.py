@@ -11,7 +11,7 @@ import pint
 from calcpad.core.errors import InputError
 from calcpad.core.units import Q_, parse_quantity
 
-__all__ = ["STEEL_DENSITY_PCF", "UNITS", "SectionProps", "length_in"]
+__all__ = ["EXTRA_DESCRIPTIONS", "STEEL_DENSITY_PCF", "UNITS", "PublishedProps", "SectionProps", "length_in"]
 
 #: Density used for weight per foot of steel shapes (lb/ft^3), as the AISC Manual tables do
 #: (common practice: 490 lb/ft^3).
@@ -48,6 +48,33 @@ UNITS: dict[str, str] = {
     "c_bot": "in",
     "c_left": "in",
     "c_right": "in",
+    "Cw": "in**6",
+    "x_bar": "in",
+    "y_bar": "in",
+    "e_o": "in",
+    "x_o": "in",
+    "y_o": "in",
+    "r_o_bar": "in",
+    "H_flex": "",
+    "x_pna": "in",
+    "y_pna": "in",
+    "Qs": "",
+}
+
+#: What each optional property of :class:`SectionProps` means (catalog shapes carry them as the
+#: AISC Shapes Database tabulates them; computed shapes leave them None where not computed).
+EXTRA_DESCRIPTIONS: dict[str, str] = {
+    "Cw": "warping constant C_w",
+    "x_bar": "x̄: centroid from the back of the web (channel) or of the vertical leg (angle)",
+    "y_bar": "ȳ: centroid from the outside of the flange (tee) or the back of the horizontal leg (angle, 2L)",
+    "e_o": "e_o: shear centre from the back of the web (channel)",
+    "x_o": "x_o: centroid to shear centre along x (magnitude)",
+    "y_o": "y_o: centroid to shear centre along y (magnitude)",
+    "r_o_bar": "r̄_o: polar radius of gyration about the shear centre (AISC 360-16 Eq. E4-9)",
+    "H_flex": "H: flexural constant (AISC 360-16 Eq. E4-8)",
+    "x_pna": "x_p: plastic neutral axis for bending about y, from the same edge as x̄",
+    "y_pna": "y_p: plastic neutral axis for bending about x, from the same edge as ȳ",
+    "Qs": "Q_s: slender-element reduction factor as tabulated",
 }
 
 
@@ -103,6 +130,17 @@ class SectionProps:
     C: float | None = None
     ratios: dict[str, float] = field(default_factory=dict)
     notes: list[str] = field(default_factory=list)
+    Cw: float | None = None
+    x_bar: float | None = None
+    y_bar: float | None = None
+    e_o: float | None = None
+    x_o: float | None = None
+    y_o: float | None = None
+    r_o_bar: float | None = None
+    H_flex: float | None = None
+    x_pna: float | None = None
+    y_pna: float | None = None
+    Qs: float | None = None
 
     # ----------------------------------------------------------- derived
     @property
@@ -216,3 +254,60 @@ class SectionProps:
         for k, v in self.ratios.items():
             out[k] = Q_(v, "") if quantities else v
         return out
+
+
+@dataclass
+class PublishedProps(SectionProps):
+    """Section properties as a published table gives them (catalog shapes).
+
+    ``published`` holds the tabulated values by our names (``Sx``, ``rx``, ``rz`` ...); the
+    derived properties (``Sx``, ``Sy``, ``rx``, ``ry``, ``r_min``, ``I_min``) return the tabulated
+    value where the table has one instead of recomputing it, so a check prints the number a
+    reviewer finds in the table. ``source`` names the table and its edition.
+    """
+
+    published: dict[str, float] = field(default_factory=dict)
+    source: str = ""
+
+    def _pub(self, name: str) -> float | None:
+        return self.published.get(name)
+
+    @property
+    def Sx(self) -> float:
+        """Elastic section modulus about x (tabulated: the smaller one)."""
+        v = self._pub("Sx")
+        return v if v is not None else min(self.Sx_top, self.Sx_bot)
+
+    @property
+    def Sy(self) -> float:
+        """Elastic section modulus about y (tabulated: the smaller one)."""
+        v = self._pub("Sy")
+        return v if v is not None else min(self.Sy_left, self.Sy_right)
+
+    @property
+    def rx(self) -> float:
+        """Radius of gyration about x (tabulated)."""
+        v = self._pub("rx")
+        return v if v is not None else math.sqrt(self.Ix / self.A)
+
+    @property
+    def ry(self) -> float:
+        """Radius of gyration about y (tabulated)."""
+        v = self._pub("ry")
+        return v if v is not None else math.sqrt(self.Iy / self.A)
+
+    @property
+    def I_min(self) -> float:
+        """Minor principal moment of inertia (tabulated ``I_z`` of an angle)."""
+        v = self._pub("Iz")
+        return v if v is not None else SectionProps.I_min.fget(self)  # type: ignore[attr-defined]
+
+    @property
+    def r_min(self) -> float:
+        """Least radius of gyration (tabulated ``r_z`` of an angle, else the smaller of r_x, r_y)."""
+        v = self._pub("rz")
+        if v is not None:
+            return v
+        if self.Ixy == 0.0:
+            return min(self.rx, self.ry)
+        return math.sqrt(max(self.I_min, 0.0) / self.A)

@@ -14,7 +14,7 @@ from typing import Any
 from calcpad.core.errors import InputError
 from calcpad.core.units import Q_
 from calcpad.eng.sections.builtup import BuiltUp
-from calcpad.eng.sections.props import UNITS
+from calcpad.eng.sections.props import UNITS, PublishedProps
 from calcpad.eng.sections.shapes import RectTube, RoundTube, Shape
 from calcpad.eng.sections.shop import note_shop_section
 
@@ -124,7 +124,10 @@ def add_shape_props(sheet: Any, shape: Shape | BuiltUp, suffix: str = "", *, nam
     ``names`` picks from ``A, I_x, S_x, Z_x, r_x, I_y, S_y, Z_y, r_y`` (default: all).
     """
     p = shape.props
-    src = source or f"{shape.name}: computed from dimensions (calcpad.eng.sections)"
+    if isinstance(p, PublishedProps):
+        src = source or f"{shape.name}: {p.source}"
+    else:
+        src = source or f"{shape.name}: computed from dimensions (calcpad.eng.sections)"
     out: dict[str, str] = {}
     for step_name, prop, desc in _SHAPE_GIVENS:
         if names is not None and step_name not in names:
@@ -226,13 +229,16 @@ def add_builtup_steps(sheet: Any, builtup: BuiltUp, suffix: str = "", *, plastic
 def add_section_steps(sheet: Any, shape: Shape, suffix: str = "", *, source: str | None = None) -> dict[str, str]:
     """Section properties of any shape on a sheet, as steps where a hand calc is usual.
 
-    Round tubes and rectangular tubes (outside corner radius at least the wall) get the full
+    Catalog shapes get their published properties as givens with the table as source. Other
+    round tubes and rectangular tubes (outside corner radius at least the wall) get the full
     formula steps; other shapes get their properties as givens with the source. The returned
     dict always has the keys ``A, I_x, S_x, Z_x, r_x, I_y, S_y, Z_y, r_y`` (round tubes: the
     same step names for x and y).
     """
     src = source if source is not None else shape.name
     note_shop_section(sheet, shape.name)
+    if isinstance(shape.props, PublishedProps):  # a catalog shape: the tabulated values, not a recomputation
+        return add_shape_props(sheet, shape, suffix, source=source)
     if isinstance(shape, RoundTube):
         n = add_round_tube_steps(sheet, shape.D, shape.t, suffix, source=src)
         return {**n, "I_x": n["I"], "S_x": n["S"], "Z_x": n["Z"], "r_x": n["r"],
