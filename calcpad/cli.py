@@ -83,10 +83,8 @@ def _is_template(target: str) -> bool:
 
 def _run(args: argparse.Namespace) -> int:
     from rich.console import Console
-    from rich.markup import escape
-    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
-    from calcpad.runner.execute import run_job
+    from calcpad.core.errors import CalcpadError
     from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.outfolder import check_target, write_outputs
     from calcpad.runner.record import job_record
@@ -105,12 +103,85 @@ def _run(args: argparse.Namespace) -> int:
             out_dir = Path(args.out) if args.out else None
         protect.append(Path(args.target))
     protect += [c.template.path for c in job.calcs]
+    if job.tables and not _is_template(args.target):
+        folder_of_job = Path(args.target).parent
+        protect += [Path(name) if Path(name).is_absolute() else folder_of_job / name for name in job.tables]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
     if args.print is not None:
         check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
+    if (args.workers or args.scheduler) and args.notebooks:
+        raise CalcpadError("--notebooks runs every calc in one local kernel; leave out --workers/--scheduler to keep notebooks")
     start = time.perf_counter()
     failures: list[str] = []
+    client_cm = contextlib.nullcontext(None)
+    if args.workers or args.scheduler:
+        from calcpad.runner.scale import cluster_client
+
+        client_cm = cluster_client(args.workers, args.scheduler)
+    with contextlib.ExitStack() as stack:
+        client = stack.enter_context(client_cm)
+        if any(c.design is not None for c in job.calcs):
+            from calcpad.runner.search import resolve_designs
+
+            with err.status("design search", spinner="line") if err.is_terminal else contextlib.nullcontext():
+                resolve_designs(job, client)
+        outcomes = _run_calcs(job, mode, client, err, failures)
+    seconds = time.perf_counter() - start
+    record = job_record(job, outcomes, mode, seconds)
+    pdf = None
+    folder = None
+    if target is not None:
+        from calcpad.report import write_submittal
+
+        def submittal(d: Path) -> None:
+            nonlocal pdf
+            pdf = write_submittal(d, job, outcomes, record, print_mode=args.print, pdf=not args.no_pdf)
+
+        with err.status("printing submittal.pdf", spinner="line") if not args.no_pdf and err.is_terminal else contextlib.nullcontext():
+            folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait,
+                                   files=_table_files(job, outcomes))
+    if args.json:
+        print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
+    else:
+        _print_summary(out, job, outcomes, record)
+        if folder is None:
+            for o in outcomes:
+                for s in o.sheets:
+                    _print_sheet_text(out, s)
+    if folder is not None:
+        err.print(f"submittal written: {folder / 'submittal.html'}", highlight=False, soft_wrap=True)
+        if pdf is not None:
+            err.print(f"{'PDF' if pdf.written else 'no PDF'}: {pdf.message}", highlight=False, soft_wrap=True, markup=False)
+    summ = record["summary"]
+    if summ["errors"]:
+        return EXIT_BAD
+    return EXIT_NG if summ["ng"] else EXIT_OK
+
+
+def _table_files(job: Any, outcomes: list[Any]) -> dict[str, bytes]:
+    """Each member table's results (every check ratio, governing check) as CSV and Excel."""
+    import io
+
+    from calcpad.runner.members import results_frame
+
+    files: dict[str, bytes] = {}
+    for name in job.tables:
+        frame = results_frame([o for o in outcomes if o.calc.table == name])
+        stem = f"results-{Path(name).stem}"
+        files[f"{stem}.csv"] = frame.to_csv(index=False).encode("utf-8")
+        buf = io.BytesIO()
+        frame.to_excel(buf, index=False, sheet_name="results")
+        files[f"{stem}.xlsx"] = buf.getvalue()
+    return files
+
+
+def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str]) -> list[Any]:
+    """Every calc of the job, serially or on the Dask ``client``, with a progress bar."""
+    from rich.markup import escape
+    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
+
+    from calcpad.runner.execute import run_job
 
     with Progress(
         TextColumn("[progress.description]{task.description}"),
@@ -130,36 +201,12 @@ def _run(args: argparse.Namespace) -> int:
                 failures.append(msg)
                 bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
 
-        outcomes = run_job(job, mode=mode, progress=tick)
-    seconds = time.perf_counter() - start
-    record = job_record(job, outcomes, mode, seconds)
-    pdf = None
-    folder = None
-    if target is not None:
-        from calcpad.report import write_submittal
+        if client is None:
+            return run_job(job, mode=mode, progress=tick)
+        from calcpad.runner.scale import run_calcs_on_cluster
 
-        def submittal(d: Path) -> None:
-            nonlocal pdf
-            pdf = write_submittal(d, job, outcomes, record, print_mode=args.print, pdf=not args.no_pdf)
-
-        with err.status("printing submittal.pdf", spinner="line") if not args.no_pdf and err.is_terminal else contextlib.nullcontext():
-            folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait)
-    if args.json:
-        print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
-    else:
-        _print_summary(out, job, outcomes, record)
-        if folder is None:
-            for o in outcomes:
-                for s in o.sheets:
-                    _print_sheet_text(out, s)
-    if folder is not None:
-        err.print(f"submittal written: {folder / 'submittal.html'}", highlight=False, soft_wrap=True)
-        if pdf is not None:
-            err.print(f"{'PDF' if pdf.written else 'no PDF'}: {pdf.message}", highlight=False, soft_wrap=True, markup=False)
-    summ = record["summary"]
-    if summ["errors"]:
-        return EXIT_BAD
-    return EXIT_NG if summ["ng"] else EXIT_OK
+        bar.update(task, description="running calcs on the cluster")
+        return run_calcs_on_cluster(job, client, progress=tick)
 
 
 def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, Any]) -> None:
@@ -483,6 +530,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--print", metavar="full|summary|calc:MARK", help="what the submittal prints (default: the job's `print`, else full)")
     run.add_argument("--no-pdf", action="store_true", help="write submittal.html only (no Chromium run)")
     run.add_argument("--member", help="template run: member mark (default '-')")
+    run.add_argument("--workers", type=_worker_count, metavar="N", help="run the calcs (and design searches) on a local Dask cluster of N worker processes")
+    run.add_argument("--scheduler", metavar="ADDRESS", help="run on an existing Dask cluster, e.g. tcp://10.0.0.5:8786 (its workers need calcpad and the templates)")
     issue = sub.add_parser("issue", parents=[waiting], help="mark a revision in an output folder as issued and seal it read-only")
     issue.add_argument("out", help="the output folder of a run (--out)")
     issue.add_argument("--by", required=True, help="who issues it (name, title)")
@@ -514,6 +563,16 @@ def _parser() -> argparse.ArgumentParser:
     diff.add_argument("--rtol", type=_rtol, default=1e-6, help="relative tolerance on values (default 1e-6)")
     diff.add_argument("--html", metavar="FILE", help="also write the changes as an HTML fragment for a submittal")
     return parser
+
+
+def _worker_count(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if not 1 <= value <= 256:
+        raise argparse.ArgumentTypeError(f"{text!r}; expected a number of worker processes from 1 to 256")
+    return value
 
 
 def _wait_seconds(text: str) -> float:

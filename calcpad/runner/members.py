@@ -214,7 +214,7 @@ def table_rows(
         bad_header = True
     if not table.rows:
         problems.append((where, "no member rows below the header"))
-    if bad_header:
+    if mark_col is None:
         return []
     sections = {n for n, p in params.items() if p.kind == "text" and _is_section(p.default)}
     out: list[MemberRow] = []
@@ -264,6 +264,8 @@ def table_rows(
             typed[pname] = text
         if not row_ok:
             continue
+        if bad_header:
+            continue  # cells checked one by one; the whole-row range check needs every column
         full = {n: params[n].default for n in params}
         full.update({n: v for n, v in shared.items() if n in params})
         full.update(values)
@@ -279,9 +281,9 @@ def table_rows(
             except InputError as exc:
                 problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
                 row_ok = False
-        if row_ok:
+        if row_ok and not bad_header:
             out.append(MemberRow(i, mark, {n: full[n] for n in params}, typed))
-    return out
+    return out  # every cell is checked even when the header has problems (all of them reported at once)
 
 
 def _plain_number(text: str) -> bool:

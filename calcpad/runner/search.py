@@ -40,7 +40,7 @@ from calcpad.core.results import status_ok
 from calcpad.runner.build import SheetBuilder, SheetBuildError, given_map, sheet_signature
 from calcpad.runner.template import Template
 
-__all__ = ["DESIGN_KEYS", "Candidate", "DesignResult", "candidates", "design_settings", "search", "section_parameter"]
+__all__ = ["DESIGN_KEYS", "Candidate", "DesignResult", "candidates", "design_settings", "resolve_designs", "search", "section_parameter"]
 
 DESIGN_KEYS = ("parameter", "family", "grades", "grade_parameter")
 
@@ -315,3 +315,28 @@ def _given_value(sheet: Any, name: str, unit: Any) -> float:
             return float(g.value.to(unit).magnitude)
     raise KeyError(name)
 
+
+
+def resolve_designs(job: Any, client: Any = None) -> Any:
+    """Run the design search of every calc with ``[calcs.design]`` and put the chosen size (and
+    grade) into its inputs; ``calc.design`` then holds the settings and the result. A member
+    for which no size passes keeps its own value (its calc then shows why it fails). With a Dask
+    ``client`` the members are searched in chunks on the cluster (same results)."""
+    groups: dict[str, list[Any]] = {}
+    for calc in job.calcs:
+        if calc.design is not None and "result" not in calc.design:
+            groups.setdefault(calc.location.split(".table")[0], []).append(calc)
+    for calcs in groups.values():
+        settings = {k: calcs[0].design[k] for k in ("parameter", "family", "grades", "grade_parameter")}
+        members = [(c.member, c.inputs) for c in calcs]
+        if client is None:
+            found = search(calcs[0].template, members, settings)
+        else:
+            from calcpad.runner.scale import search_on_cluster
+
+            found = search_on_cluster(client, calcs[0].template, members, settings)
+        for calc, res in zip(calcs, found, strict=True):
+            calc.design = {**settings, "result": res.as_record(settings)}
+            if res.chosen is not None:
+                calc.inputs = _values(calc.inputs, res.chosen, settings)
+    return job
