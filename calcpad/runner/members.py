@@ -304,13 +304,21 @@ def _column_letter(j: int) -> str:
     return out
 
 
+def _candidate_text(c: dict[str, Any] | None) -> str:
+    if not c:
+        return ""
+    return c["designation"] if not c.get("grade") else f"{c['designation']} {c['grade']}"
+
+
 def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
     """One row per member: every check ratio (a column per check), the governing check, its
-    ratio, the sheet it is on and the member's status. Calcs that failed show the error."""
+    ratio, the sheet it is on and the member's status; for a design search the chosen size, its
+    weight and the runner-up. Calcs that failed show the error."""
     import pandas as pd
 
     rows: list[dict[str, Any]] = []
     check_cols: list[str] = []
+    extra: list[str] = []
     for o in outcomes:
         checks = [(s["record"]["title"], ch) for s in o.sheets for ch in s["record"]["checks"]]
         names = [ch["title"] for _t, ch in checks]
@@ -326,6 +334,15 @@ def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
         row["governing sheet"] = gov[0] if gov else ""
         row["status"] = o.status
         row["error"] = o.error["message"] if o.error else ""
+        design = (o.calc.design or {}).get("result")
+        if design is not None:
+            chosen, runner = design.get("chosen"), design.get("runner_up")
+            row["design: chosen size"] = _candidate_text(chosen)
+            row["design: weight [lb/ft]"] = chosen["weight_plf"] if chosen else None
+            row["design: runner-up"] = _candidate_text(runner)
+            row["design: runner-up ratio"] = design.get("runner_up_ratio")
+            if "design: chosen size" not in extra:
+                extra.extend(["design: chosen size", "design: weight [lb/ft]", "design: runner-up", "design: runner-up ratio"])
         rows.append(row)
-    cols = ["mark", "template", *check_cols, "governing check", "governing ratio", "governing sheet", "status", "error"]
+    cols = ["mark", "template", *extra, *check_cols, "governing check", "governing ratio", "governing sheet", "status", "error"]
     return pd.DataFrame(rows, columns=cols)
