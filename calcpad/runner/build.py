@@ -12,6 +12,7 @@ from __future__ import annotations
 import contextlib
 import io
 import os
+import sys
 import warnings
 from collections.abc import Mapping
 from typing import Any
@@ -20,7 +21,10 @@ from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
 from calcpad.runner.template import Template
 
-__all__ = ["SheetBuildError", "SheetBuilder", "sheet_signature"]
+__all__ = ["NO_DISPLAY_ENV", "SheetBuildError", "SheetBuilder", "given_map", "sheet_signature"]
+
+#: While set, the widgets' ``show()`` displays nothing (sheets built for a search or sweep).
+NO_DISPLAY_ENV = "CALCPAD_NO_DISPLAY"
 
 
 class SheetBuildError(InputError):
@@ -73,6 +77,23 @@ class SheetBuilder:
                 ns.setdefault(n, "")
         os.environ.setdefault("MPLBACKEND", "Agg")
         sink = io.StringIO()
+        # Templates call widgets.show(sh); in a notebook that would display every sheet built. The
+        # runner does not import the widgets face; show() displays nothing while NO_DISPLAY_ENV is set.
+        before = os.environ.get(NO_DISPLAY_ENV)
+        os.environ[NO_DISPLAY_ENV] = "1"
+        try:
+            self._run(ns, sink)
+        finally:
+            if before is None:
+                os.environ.pop(NO_DISPLAY_ENV, None)
+            else:
+                os.environ[NO_DISPLAY_ENV] = before
+        plt = sys.modules.get("matplotlib.pyplot")
+        if plt is not None:
+            plt.close("all")
+        return _sheets_in(ns)
+
+    def _run(self, ns: dict[str, Any], sink: io.StringIO) -> None:
         with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink), warnings.catch_warnings():
             warnings.simplefilter("ignore")
             for index, code in self._code:
@@ -82,10 +103,6 @@ class SheetBuilder:
                     raise SheetBuildError(f"template {self.template.name!r} cell {index}: {exc}") from None
                 except Exception as exc:
                     raise SheetBuildError(f"template {self.template.name!r} cell {index}: {type(exc).__name__}: {exc}") from None
-        plt = __import__("sys").modules.get("matplotlib.pyplot")
-        if plt is not None:
-            plt.close("all")
-        return _sheets_in(ns)
 
 
 def sheet_signature(sheet: Sheet) -> tuple[Any, ...]:

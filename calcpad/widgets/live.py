@@ -21,6 +21,7 @@ This module imports IPython only when it displays; it never imports ipywidgets.
 from __future__ import annotations
 
 import contextlib
+import os
 import itertools
 from collections.abc import Iterator
 from dataclasses import dataclass, field
@@ -174,7 +175,7 @@ def quiet() -> Iterator[None]:
 
 
 def _shell() -> Any:
-    if _QUIET[0]:
+    if _QUIET[0] or os.environ.get("CALCPAD_NO_DISPLAY"):  # runner.build.NO_DISPLAY_ENV: sheets built for a search or sweep
         return None
     try:
         from IPython import get_ipython
