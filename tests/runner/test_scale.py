@@ -1,0 +1,73 @@
+"""Dask scale-out: results identical to the serial run; a failing chunk retried, then reported with its inputs."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+from calcpad.runner.execute import run_job
+from calcpad.runner.job import load_job
+from calcpad.runner.record import UNSEALED_KEYS, job_record
+from calcpad.runner.scale import ChunkFailedError, cluster_client, map_chunks, run_calcs_on_cluster, search_on_cluster
+from calcpad.runner.search import search
+from calcpad.runner.sweep import steps, sweep
+from calcpad.runner.template import find_template, load_template
+
+ROOT = Path(__file__).resolve().parents[2]
+
+
+@pytest.fixture(scope="module")
+def client():
+    with cluster_client(workers=2) as c:
+        yield c
+
+
+def _flaky(x: int, marker: str) -> int:
+    """Fails the first time it is called for a marker file that does not exist yet."""
+    p = Path(marker)
+    if not p.exists():
+        p.write_text("tried")
+        raise RuntimeError("first try fails")
+    return x * 10
+
+
+def _broken(x: int) -> int:
+    if x == 3:
+        raise ValueError(f"chunk with x={x} always fails")
+    return x
+
+
+def test_batch_on_the_cluster_equals_serial(client) -> None:
+    job = load_job(ROOT / "examples" / "harbor_ridge_condenser_stand.toml")
+    serial = job_record(job, run_job(job), "inprocess", 0.0)
+    seen = []
+    parallel = job_record(job, run_calcs_on_cluster(job, client, progress=seen.append, chunk_calcs=3), "inprocess", 0.0)
+    strip = lambda r: {k: v for k, v in r.items() if k not in UNSEALED_KEYS}  # noqa: E731
+    assert strip(parallel) == strip(serial)
+    assert parallel["record_digest"] == serial["record_digest"]
+    assert len(seen) == len(job.calcs)
+
+
+def test_search_and_sweep_on_the_cluster_equal_serial(client) -> None:
+    tpl = load_template(find_template("leg_bending"))
+    base = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
+    members = [(f"M{i}", {**base, "P": f"{40 + 30 * i} lbf", "L": f"{20 + 7 * i} in"}) for i in range(9)]
+    settings = {"parameter": "leg", "family": "pipe"}
+    assert search_on_cluster(client, tpl, members, settings, chunk_members=2) == search(tpl, members, settings)
+    axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
+    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
+    b = sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    assert a.table.equals(b.table) and a.envelope.equals(b.envelope) and a.passed == b.passed
+
+
+def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_path: Path) -> None:
+    chunks = [(i, str(tmp_path / f"m{i}")) for i in range(4)]
+    results, failures = map_chunks(client, _flaky, chunks, describe=lambda i: f"x={i}")
+    assert results == [0, 10, 20, 30] and failures == []  # each failed once, retried
+    results, failures = map_chunks(client, _broken, [(i,) for i in range(5)], describe=lambda i: f"x={i} (members X{i})")
+    assert [r for i, r in enumerate(results) if i != 3] == [0, 1, 2, 4]
+    assert len(failures) == 1 and failures[0].index == 4 and failures[0].inputs == "x=3 (members X3)"
+    assert "always fails" in failures[0].error
+    with pytest.raises(ChunkFailedError, match=r"chunk 4: x=3 \(members X3\): ValueError"):
+        raise ChunkFailedError(failures)
