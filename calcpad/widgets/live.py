@@ -21,8 +21,8 @@ This module imports IPython only when it displays; it never imports ipywidgets.
 from __future__ import annotations
 
 import contextlib
-import os
 import itertools
+import os
 from collections.abc import Iterator
 from dataclasses import dataclass, field
 from typing import Any
