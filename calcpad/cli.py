@@ -3,7 +3,7 @@
 ::
 
     calcpad run JOB.toml [--out DIR] [--print full|summary|calc:MARK] [--no-pdf] [--notebooks] [--json]
-                         [--templates DIR] [--wait S]
+                         [--templates DIR] [--wait S] [--workers N | --scheduler ADDRESS]
     calcpad run NAME|LIBRARY/NAME.py --set name="value unit" ... [--member M1] [--out DIR] [--json]
     calcpad issue OUT --by "J. Smith, P.E." [--revision B]
     calcpad templates [--templates DIR]

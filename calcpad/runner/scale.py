@@ -37,9 +37,10 @@ class ChunkFailure:
 
 
 class ChunkFailedError(CalcpadError):
-    """Chunks that failed on the cluster after their retries (each with its inputs)."""
+    """Chunks that failed on the cluster after their retries (each with its inputs); exit code 2
+    as for a calc that failed to run."""
 
-    exit_code = 3
+    exit_code = 2
 
     def __init__(self, failures: list[ChunkFailure]) -> None:
         self.failures = failures
