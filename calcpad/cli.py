@@ -121,11 +121,13 @@ def _run(args: argparse.Namespace) -> int:
         client_cm = cluster_client(args.workers, args.scheduler)
     with contextlib.ExitStack() as stack:
         client = stack.enter_context(client_cm)
-        if any(c.design is not None for c in job.calcs):
+        searched = [c for c in job.calcs if c.design is not None]
+        if searched:
+            from calcpad.runner.scale import progress_bar
             from calcpad.runner.search import resolve_designs
 
-            with err.status("design search", spinner="line") if err.is_terminal else contextlib.nullcontext():
-                resolve_designs(job, client)
+            with progress_bar(len(searched), "design search (members)") as advance:
+                resolve_designs(job, client, advance)
         outcomes = _run_calcs(job, mode, client, err, failures)
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)

@@ -21,11 +21,13 @@
 
     [[calcs]]
     template = "leg_bending"     # a name from `calcpad templates` (never a path: templates are code)
-    members = ["L1", "L3"]       # or member = "L1"
+    members = ["L1", "L3"]       # or member = "L1", or table = "legs.csv" (runner.members: one row per member)
     title = "Legs L1 and L3"     # optional
     [calcs.inputs]
     P = "85 lbf"                 # "value unit", { value = 85, unit = "lbf" }, a number or a text
     ...
+    [calcs.design]               # optional design search (runner.search): lightest passing size per member
+    family = "pipe"
 
 Every parameter of the template must be given (the job file is the complete record of what was
 assumed; `calcpad new` writes them all). Template parameters named ``member_mark`` and

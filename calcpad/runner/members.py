@@ -41,10 +41,11 @@ if TYPE_CHECKING:
     from calcpad.runner.execute import CalcOutcome
     from calcpad.runner.template import Template
 
-__all__ = ["MARK_COLUMNS", "MemberRow", "MemberTable", "read_member_table", "results_frame", "table_rows"]
+__all__ = ["MARK_COLUMNS", "MemberRow", "MemberTable", "read_member_table", "results_frame", "run_table", "table_rows"]
 
-#: Header names that hold the member mark (case-insensitive).
-MARK_COLUMNS = ("mark", "member")
+#: Header names that hold the member mark (case-insensitive). Not "member": cross_member has a
+#: parameter of that name (the beam section).
+MARK_COLUMNS = ("mark",)
 TABLE_SUFFIXES = (".csv", ".xlsx", ".xlsm")
 MAX_ROWS = 100_000
 _HEADER = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_]*)\s*(?:\[\s*([^\]]*?)\s*\])?\s*$")
@@ -346,3 +347,44 @@ def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
         rows.append(row)
     cols = ["mark", "template", *extra, *check_cols, "governing check", "governing ratio", "governing sheet", "status", "error"]
     return pd.DataFrame(rows, columns=cols)
+
+
+def run_table(
+    template: str | Template, table: str | Path, inputs: dict[str, Any] | None = None, sheet: str | None = None, client: Any = None,
+) -> pd.DataFrame:
+    """Run ``template`` for every row of a member table and return :func:`results_frame`.
+
+    ``template``: a library name or a loaded template; ``inputs``: values every row shares (a cell
+    wins); parameters in neither take the template's defaults (a job file must give them all). Raises :class:`~calcpad.runner.job.JobError` listing every problem of the table with its
+    row. With a Dask ``client`` the calcs run on the cluster.
+    """
+    from calcpad.runner.execute import run_job
+    from calcpad.runner.job import Calc, Job, JobError, JobInfo
+    from calcpad.runner.template import Template as _Template
+    from calcpad.runner.template import find_template, load_template
+
+    tpl = template if isinstance(template, _Template) else load_template(find_template(str(template)))
+    path = Path(table)
+    data = read_member_table(path, path.name, sheet)
+    problems: list[tuple[str, str]] = []
+    shared: dict[str, str | float] = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
+    for n, v in (inputs or {}).items():
+        if n not in tpl.parameters:
+            problems.append((f"inputs.{n}", f"not a parameter of template {tpl.name!r}{tpl.suggest(n)}"))
+            continue
+        try:
+            shared[n] = tpl.parameters[n].coerce(v, f"inputs.{n}")
+        except InputError as exc:
+            problems.append((f"inputs.{n}", str(exc)))
+    rows = table_rows(data, tpl, shared, "calc", problems)
+    if problems:
+        raise JobError(str(path), problems)
+    calcs = [Calc(i, f"table row {r.row}", tpl, r.mark, r.inputs, "", r.typed, data.name, r.row) for i, r in enumerate(rows, start=1)]
+    job = Job(JobInfo("-", tpl.title), calcs, str(path), None, (), {data.name: data})
+    if client is None:
+        outcomes = run_job(job)
+    else:
+        from calcpad.runner.scale import run_calcs_on_cluster
+
+        outcomes = run_calcs_on_cluster(job, client)
+    return results_frame(outcomes)

@@ -22,7 +22,7 @@ from typing import Any
 
 from calcpad.core.errors import CalcpadError
 
-__all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "run_calcs_on_cluster", "split"]
+__all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "progress_bar", "run_calcs_on_cluster", "search_on_cluster", "split"]
 
 RETRIES = 2
 
@@ -74,6 +74,20 @@ def cluster_client(workers: int | None = None, scheduler: str | None = None) -> 
     finally:
         client.close()
         cluster.close()
+
+
+@contextlib.contextmanager
+def progress_bar(total: int, label: str) -> Iterator[Callable[[int], None]]:
+    """A rich progress bar on stderr (shown on a terminal or in a notebook, hidden in logs and
+    pipes, gone when done); yields ``advance(n)``."""
+    from rich.console import Console
+    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn, TimeRemainingColumn
+
+    console = Console(stderr=True)
+    with Progress(TextColumn("{task.description}"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn(), TimeRemainingColumn(),
+                  console=console, transient=True, disable=not (console.is_terminal or console.is_jupyter)) as bar:
+        task = bar.add_task(label, total=total)
+        yield lambda n: bar.update(task, advance=n)
 
 
 def split(n: int, chunks: int) -> list[tuple[int, int]]:

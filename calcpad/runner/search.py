@@ -317,11 +317,12 @@ def _given_value(sheet: Any, name: str, unit: Any) -> float:
 
 
 
-def resolve_designs(job: Any, client: Any = None) -> Any:
+def resolve_designs(job: Any, client: Any = None, progress: Any = None) -> Any:
     """Run the design search of every calc with ``[calcs.design]`` and put the chosen size (and
     grade) into its inputs; ``calc.design`` then holds the settings and the result. A member
     for which no size passes keeps its own value (its calc then shows why it fails). With a Dask
-    ``client`` the members are searched in chunks on the cluster (same results)."""
+    ``client`` the members are searched in chunks on the cluster (same results); ``progress(n)`` is
+    called as members are done."""
     groups: dict[str, list[Any]] = {}
     for calc in job.calcs:
         if calc.design is not None and "result" not in calc.design:
@@ -331,10 +332,12 @@ def resolve_designs(job: Any, client: Any = None) -> Any:
         members = [(c.member, c.inputs) for c in calcs]
         if client is None:
             found = search(calcs[0].template, members, settings)
+            if progress is not None:
+                progress(len(members))
         else:
             from calcpad.runner.scale import search_on_cluster
 
-            found = search_on_cluster(client, calcs[0].template, members, settings)
+            found = search_on_cluster(client, calcs[0].template, members, settings, progress=progress)
         for calc, res in zip(calcs, found, strict=True):
             calc.design = {**settings, "result": res.as_record(settings)}
             if res.chosen is not None:

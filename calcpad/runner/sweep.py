@@ -159,14 +159,25 @@ def sweep(
     chunk_cases: int = CHUNK_CASES,
     max_table_cases: int = MAX_TABLE_CASES,
     client: Any = None,
-    progress: Callable[[int], None] | None = None,
+    progress: Callable[[int], None] | bool | None = None,
 ) -> SweepResult:
     """Evaluate ``template`` over the grid of ``axes`` (parameter → values as in a job), the other
     parameters from ``fixed`` (else the template's defaults). See the module docstring.
 
     ``envelope``: a quantity axis set through one given; the result's ``envelope`` holds its
     largest passing value per combination of the other axes (NaN where none passes).
+    ``progress``: a callable given the number of cases each finished chunk held, or True for a
+    progress bar.
     """
+    if progress is True:
+        from calcpad.runner.scale import progress_bar
+
+        total = math.prod(len(v) for v in axes.values())
+        with progress_bar(total, f"sweep of {template.name}") as advance:
+            return sweep(template, fixed, axes, envelope=envelope, table=table, chunk_cases=chunk_cases,
+                         max_table_cases=max_table_cases, client=client, progress=advance)
+    if progress is False:
+        progress = None
     import pandas as pd
 
     params = {n: p for n, p in template.parameters.items() if n not in ("member_mark", "calc_title")}

@@ -115,3 +115,24 @@ def test_results_table_files_and_verify(tmp_path: Path) -> None:
     assert "Member table legs.csv" in (rev / "submittal.html").read_text()
     (tmp_path / "legs.csv").unlink()  # verify re-runs from the cells kept in the record
     assert main(["verify", str(out)]) == 0
+
+
+def test_run_table_returns_the_results_frame(tmp_path: Path) -> None:
+    from calcpad.runner.members import run_table
+
+    (tmp_path / "legs.csv").write_text(GOOD, encoding="utf-8")
+    frame = run_table("leg_bending", tmp_path / "legs.csv", {"F_y": "35 ksi"})
+    assert list(frame["mark"]) == ["A1", "A2", "A3"] and set(frame["status"]) == {"OK"}
+    # A1 and the README/example value: P = 120 lbf, N = 115 lbf, L = 30 in on Pipe 1-1/2 Std; the
+    # governing ratio is the yield check, sigma/(F_y/FS): checked by hand below with the section's
+    # design wall (AISC 360-16 B4.2: 0.93 t) and cantilever statics (M = P L), B2 ~ 1.
+    import math
+    D, t = 1.900, 0.93 * 0.145
+    Di = D - 2 * t
+    A, I = math.pi / 4 * (D**2 - Di**2), math.pi / 64 * (D**4 - Di**4)
+    sigma = 115 / A + 120 * 30 * (D / 2) / I  # psi, first order
+    assert frame.loc[0, "governing check"] == "Combined stress vs yield"
+    assert frame.loc[0, "governing ratio"] == pytest.approx(sigma / (35000 / 1.67), rel=0.01)  # B2 adds < 1 %
+    with pytest.raises(Exception, match="row 2, column B"):
+        (tmp_path / "bad.csv").write_text("mark,P [lbf]\nA1,x\n", encoding="utf-8")
+        run_table("leg_bending", tmp_path / "bad.csv")
