@@ -57,8 +57,8 @@ def cluster_client(workers: int | None = None, scheduler: str | None = None) -> 
     if scheduler:
         try:
             client = Client(scheduler, timeout="20s")
-        except OSError as exc:
-            raise CalcpadError(f"--scheduler {scheduler}: cannot reach the Dask scheduler ({exc}); "
+        except Exception as exc:  # OSError (unreachable), ValueError/TypeError (not an address)
+            raise CalcpadError(f"--scheduler {scheduler}: cannot reach the Dask scheduler ({type(exc).__name__}: {exc}); "
                                "expected an address such as tcp://10.0.0.5:8786 of a running cluster") from None
         try:
             yield client

@@ -71,3 +71,20 @@ def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_pat
     assert "always fails" in failures[0].error
     with pytest.raises(ChunkFailedError, match=r"chunk 4: x=3 \(members X3\): ValueError"):
         raise ChunkFailedError(failures)
+
+
+def test_cli_workers_gives_the_serial_record(tmp_path: Path) -> None:
+    from calcpad.cli import main
+    from calcpad.runner.recordfile import load_record
+
+    (tmp_path / "legs.csv").write_text("mark,P [lbf],N [lbf],L [in],leg\n" + "".join(
+        f"A{i},{60 + 20 * i},50,{24 + 6 * i},Pipe 1-1/2 Std\n" for i in range(1, 7)), encoding="utf-8")
+    (tmp_path / "job.toml").write_text(
+        '[job]\nnumber = "T-9"\ntitle = "Cluster run (invented)"\nclient = "Ferncliff Fabricators (fictional)"\nsite = "Yard 2"\n'
+        'engineer = "E. Example"\nrevision = "A"\ndate = 2025-03-14\n\n[[calcs]]\ntemplate = "leg_bending"\ntable = "legs.csv"\n'
+        '[calcs.inputs]\nD_o = "1.900 in"\nt = "0.145 in"\nF_y = "35 ksi"\nFS_req = 1.67\n', encoding="utf-8")
+    rc_serial = main(["run", str(tmp_path / "job.toml"), "--out", str(tmp_path / "serial"), "--no-pdf"])
+    rc_dask = main(["run", str(tmp_path / "job.toml"), "--out", str(tmp_path / "dask"), "--no-pdf", "--workers", "2"])
+    assert rc_serial == rc_dask
+    (_p1, a), (_p2, b) = load_record(tmp_path / "serial"), load_record(tmp_path / "dask")
+    assert a["record_digest"] == b["record_digest"]

@@ -91,3 +91,51 @@ def test_grid_too_large_for_a_table_is_refused_and_chunked_without_one() -> None
     assert res.table is None and res.cases == 2_250_000 and 0 < res.passed < res.cases
     with pytest.raises(SweepTooLargeError, match="at most"):
         sweep(tpl, {}, {"P": steps("10 lbf", "400 lbf", 200_000), "L": steps("10 in", "90 in", 100_000)}, table=False)
+
+
+def test_search_with_grades_matches_brute_force() -> None:
+    # Candidates are (size, grade) by weight per foot, grades in the order given; the oracle tries
+    # them in that order with ordinary runs.
+    tpl = load_template(find_template("post_combined"))
+    base = _defaults(tpl)
+    sizes, grades = ["HSS3x3x3/16", "HSS3x3x1/4", "HSS4x4x3/16"], ["A500 Gr B", "A500 Gr C"]
+    members = [("C1", {**base, "P": "2.0 kip", "H": "0.45 kip", "L": "8 ft"}), ("C2", {**base, "P": "1.0 kip", "H": "0.25 kip", "L": "6 ft"})]
+    found = search(tpl, members, {"parameter": "post", "family": "hss_square", "grades": grades, "grade_parameter": "grade"}, sizes=sizes)
+    table = section_table("hss_square")
+    weight = dict(zip(table["designation"], table["weight"], strict=True))
+    order = [(s, g) for s in sorted(sizes, key=lambda s: weight[s]) for g in grades]
+    for (_mark, inputs), r in zip(members, found, strict=True):
+        expected = None
+        for s, g in order:
+            o = run_calc_inprocess(Calc(1, "t", tpl, "M", {**inputs, "post": s, "grade": g}))
+            checks = [c for sh in o.sheets for c in sh["record"]["checks"]]
+            if o.error is None and checks and all(status_ok(c["status"]) for c in checks):
+                expected = (s, g)
+                break
+        assert (r.chosen.designation, r.chosen.grade) == expected if r.chosen else expected is None
+
+
+def test_design_in_a_job_is_recorded_printed_and_verified(tmp_path) -> None:
+    from calcpad.cli import main
+
+    (tmp_path / "legs.csv").write_text("mark,P [lbf],N [lbf],L [in],leg\nD1,120,115,30,Pipe 2 Std\nD2,900,0,120,Pipe 1 Std\n", encoding="utf-8")
+    (tmp_path / "job.toml").write_text(
+        '[job]\nnumber = "T-8"\ntitle = "Design search (invented)"\nclient = "Ferncliff Fabricators (fictional)"\nsite = "Yard 2"\n'
+        'engineer = "E. Example"\nrevision = "A"\ndate = 2025-03-14\n\n[[calcs]]\ntemplate = "leg_bending"\ntable = "legs.csv"\n'
+        '[calcs.design]\nfamily = "pipe"\n[calcs.inputs]\nD_o = "1.900 in"\nt = "0.145 in"\nF_y = "35 ksi"\nFS_req = 1.67\n', encoding="utf-8")
+    out = tmp_path / "out"
+    rc = main(["run", str(tmp_path / "job.toml"), "--out", str(out), "--no-pdf"])
+    import json
+
+    rec = json.loads((out / "rev-A" / "record.json").read_text())
+    d1, d2 = rec["calcs"]
+    tpl = load_template(find_template("leg_bending"))
+    pipes = list(section_table("pipe")["designation"])
+    inputs = {**_defaults(tpl), "P": "120 lbf", "N": "115 lbf", "L": "30 in"}
+    assert d1["design"]["chosen"]["designation"] == _brute(tpl, inputs, "leg", pipes, "pipe")
+    assert d1["inputs"]["leg"]["value"] == d1["design"]["chosen"]["designation"]  # the sheet is run with it
+    assert d1["status"] == "OK" and d1["design"]["runner_up"]["weight_plf"] >= d1["design"]["chosen"]["weight_plf"]
+    if d2["design"]["chosen"] is None:  # nothing passes: keeps its own size, its calc says NG
+        assert d2["inputs"]["leg"]["value"] == "Pipe 1 Std" and d2["status"] == "NG" and rc == 1
+    assert "Size (lightest passing)" in (out / "rev-A" / "submittal.html").read_text()
+    assert main(["verify", str(out)]) == 0
