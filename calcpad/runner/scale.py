@@ -73,7 +73,7 @@ def cluster_client(workers: int | None = None, scheduler: str | None = None) -> 
     # sweep chunk ran 3.5x slower on a worker than in this process (measured). Leave it unset.
     environ = {k: v for k, v in dask.config.get("distributed.nanny.pre-spawn-environ", {}).items() if k != "MALLOC_TRIM_THRESHOLD_"}
     with dask.config.set({"distributed.nanny.pre-spawn-environ": environ}):
-        cluster = LocalCluster(n_workers=n, threads_per_worker=1, processes=True, dashboard_address=None,
+        cluster = LocalCluster(n_workers=n, threads_per_worker=1, processes=True, dashboard_address=":0",
                                silence_logs=logging.ERROR, memory_limit="auto")
     client = Client(cluster)
     try:
