@@ -41,3 +41,24 @@ design_chart(chart, x="P", curves="leg", title=f"Longest leg with every check OK
 # %%
 longest = chart.envelope.pivot(index="P", columns="leg", values="max L [in]").reindex(index=chart.axes["P"], columns=chart.axes["leg"])
 longest.round(1)
+
+# %% [markdown]
+# ## A chart reading checked by the full calc
+#
+# The longest leg the chart gives for the middle size and the middle load, run through the
+# leg-bending template the ordinary way: every check passes (at the grid's next length up, one
+# does not).
+
+# %%
+from calcpad.runner.build import SheetBuilder
+from calcpad.widgets import show, show_summary
+
+size, load = chart.axes["leg"][len(chart.axes["leg"]) // 2], chart.axes["P"][len(chart.axes["P"]) // 2]
+L_chart = float(chart.envelope[(chart.envelope["leg"] == size) & (chart.envelope["P"] == load)]["max L [in]"].iloc[0])
+values = {name: p.default for name, p in legs.parameters.items()}
+values.update({"leg": size, "P": load, "L": f"{L_chart:g} in", "N": N, "F_y": F_y, "FS_req": FS_req, "calc_title": "Design chart reading"})
+(reading,) = SheetBuilder(legs).sheets(values)
+view = show(reading)
+
+# %%
+show_summary(reading)
