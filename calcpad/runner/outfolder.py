@@ -367,7 +367,9 @@ class OutputTarget:
             manifest["latest"] = rev
             _write_manifest(out, manifest)
         except BaseException:
-            if not swapped:
+            # an interrupt between the rename and `swapped = True` leaves the new revision in place
+            # (no `new` left): that is the swapped state, not one to roll back
+            if not swapped and os.path.lexists(tmp / "new"):
                 if old is not None and (old / "prev").exists() and not os.path.lexists(out / folder):
                     os.replace(old / "prev", out / folder)
                 with contextlib.suppress(OSError):
