@@ -146,11 +146,13 @@ def _run_calcs(calcs: list[Any], units: str) -> list[Any]:
 
 def run_calcs_on_cluster(
     job: Any, client: Any, progress: Callable[[Any], None] | None = None, chunk_calcs: int | None = None,
+    task: Callable[[list[Any], str], list[Any]] | None = None,
 ) -> list[Any]:
     """Every calc of ``job`` on the cluster, in chunks; outcomes in job order (as ``run_job``).
 
     A chunk that fails after its retries gives each of its calcs a failed outcome naming the
-    chunk and the error (the record lists them; the other calcs stand)."""
+    chunk and the error (the record lists them; the other calcs stand). ``task(calcs, units)``
+    runs one chunk on a worker (default: each calc in-process, as the serial runner)."""
     from calcpad.runner.execute import CalcOutcome
 
     calcs = list(job.calcs)
@@ -167,7 +169,7 @@ def run_calcs_on_cluster(
             for o in result:
                 progress(o)
 
-    results, failures = map_chunks(client, _run_calcs, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
+    results, failures = map_chunks(client, task or _run_calcs, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
     by_chunk = {f.index - 1: f for f in failures}
     outcomes: list[Any] = []
     for i, (a, b) in enumerate(ranges):

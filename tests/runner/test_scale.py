@@ -88,3 +88,24 @@ def test_cli_workers_gives_the_serial_record(tmp_path: Path) -> None:
     assert rc_serial == rc_dask
     (_p1, a), (_p2, b) = load_record(tmp_path / "serial"), load_record(tmp_path / "dask")
     assert a["record_digest"] == b["record_digest"]
+
+
+def _calcs_failing_on_l2(calcs: list, units: str) -> list:
+    """A chunk task that dies (as a worker crash would) for the chunk holding member L2."""
+    from calcpad.runner.scale import _run_calcs
+
+    if any(c.member == "L2" for c in calcs):
+        raise MemoryError("worker ran out of memory (simulated)")
+    return _run_calcs(calcs, units)
+
+
+def test_a_failed_batch_chunk_becomes_failed_calcs_naming_it(client) -> None:
+    job = load_job(ROOT / "examples" / "harbor_ridge_condenser_stand.toml")
+    outcomes = run_calcs_on_cluster(job, client, chunk_calcs=2, task=_calcs_failing_on_l2)
+    assert [o.calc.member for o in outcomes] == [c.member for c in job.calcs]  # nothing dropped, job order
+    failed = [o for o in outcomes if o.error is not None]
+    members = [o.calc.member for o in failed]
+    assert "L2" in members and len(failed) == 2  # the whole chunk of two calcs
+    msg = failed[0].error["message"]
+    assert "failed on the cluster after 3 tries" in msg and "MemoryError" in msg and f"members {', '.join(members)}" in msg
+    assert all(o.error is None and o.sheets for o in outcomes if o.calc.member not in members)
