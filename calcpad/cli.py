@@ -3,7 +3,7 @@
 ::
 
     calcpad run JOB.toml [--out DIR] [--print full|summary|calc:MARK] [--no-pdf] [--notebooks] [--json]
-                         [--templates DIR] [--wait S]
+                         [--templates DIR] [--wait S] [--workers N | --scheduler ADDRESS]
     calcpad run NAME|LIBRARY/NAME.py --set name="value unit" ... [--member M1] [--out DIR] [--json]
     calcpad issue OUT --by "J. Smith, P.E." [--revision B]
     calcpad templates [--templates DIR]
@@ -83,12 +83,10 @@ def _is_template(target: str) -> bool:
 
 def _run(args: argparse.Namespace) -> int:
     from rich.console import Console
-    from rich.markup import escape
 
-    from calcpad.runner.execute import run_job
+    from calcpad.core.errors import CalcpadError
     from calcpad.runner.job import check_print_mark, load_job, single_template_job
     from calcpad.runner.outfolder import check_target, write_outputs
-    from calcpad.runner.progress import RunProgress
     from calcpad.runner.record import job_record
 
     err = Console(stderr=True)
@@ -107,27 +105,33 @@ def _run(args: argparse.Namespace) -> int:
     protect += [c.template.path for c in job.calcs]
     if job.shop_path:
         protect.append(Path(job.shop_path))  # the shop table is an input too
+    if job.tables and not _is_template(args.target):
+        folder_of_job = Path(args.target).parent
+        protect += [Path(name) if Path(name).is_absolute() else folder_of_job / name for name in job.tables]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
     if args.print is not None:
         check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
+    if (args.workers or args.scheduler) and args.notebooks:
+        raise CalcpadError("--notebooks runs every calc in one local kernel; leave out --workers/--scheduler to keep notebooks")
     start = time.perf_counter()
     failures: list[str] = []
+    client_cm = contextlib.nullcontext(None)
+    if args.workers or args.scheduler:
+        from calcpad.runner.scale import cluster_client
 
-    bar = RunProgress(len(job.calcs), console=err, enabled=not args.json and err.is_terminal,  # none in logs, pipes and JSON runs
-                      label="starting kernel" if mode == "kernel" else "running calcs")
+        client_cm = cluster_client(args.workers, args.scheduler)
+    with contextlib.ExitStack() as stack:
+        client = stack.enter_context(client_cm)
+        searched = [c for c in job.calcs if c.design is not None]
+        if searched:
+            from calcpad.runner.scale import progress_bar
+            from calcpad.runner.search import resolve_designs
 
-    def tick(o: Any) -> None:
-        bar.advance(f"{o.calc.template.name} {o.calc.member}")
-        if o.error is not None:
-            msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
-            failures.append(msg)
-            bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
-
-    try:
-        outcomes = run_job(job, mode=mode, progress=tick, text=target is None)  # the hand calcs are printed only without an output folder
-    finally:
-        bar.close()
+            with progress_bar(len(searched), "design search (members)") as advance:
+                resolve_designs(job, client, advance)
+        outcomes = _run_calcs(job, mode, client, err, failures, bar_on=not args.json and err.is_terminal,  # none in logs, pipes, JSON
+                              text=target is None)  # hand calcs are printed only without an output folder
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None
@@ -140,7 +144,8 @@ def _run(args: argparse.Namespace) -> int:
             pdf = write_submittal(d, job, outcomes, record, print_mode=args.print, pdf=not args.no_pdf)
 
         with err.status("printing submittal.pdf", spinner="line") if not args.no_pdf and err.is_terminal else contextlib.nullcontext():
-            folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait)
+            folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait,
+                                   files=_table_files(job, outcomes))
     if args.json:
         print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
     else:
@@ -157,6 +162,51 @@ def _run(args: argparse.Namespace) -> int:
     if summ["errors"]:
         return EXIT_BAD
     return EXIT_NG if summ["ng"] else EXIT_OK
+
+
+def _table_files(job: Any, outcomes: list[Any]) -> dict[str, bytes]:
+    """Each member table's results (every check ratio, governing check) as CSV and Excel."""
+    import io
+
+    from calcpad.runner.members import results_frame
+
+    files: dict[str, bytes] = {}
+    for name in job.tables:
+        frame = results_frame([o for o in outcomes if o.calc.table == name])
+        stem = f"results-{Path(name).stem}"
+        files[f"{stem}.csv"] = frame.to_csv(index=False).encode("utf-8")
+        buf = io.BytesIO()
+        frame.to_excel(buf, index=False, sheet_name="results")
+        files[f"{stem}.xlsx"] = buf.getvalue()
+    return files
+
+
+def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], *, bar_on: bool, text: bool) -> list[Any]:
+    """Every calc of the job, serially or on the Dask ``client``, with a progress bar (``bar_on``);
+    ``text``: make each sheet's plain-text hand calc (printed when there is no output folder)."""
+    from rich.markup import escape
+
+    from calcpad.runner.execute import run_job
+    from calcpad.runner.progress import RunProgress
+
+    label = "starting kernel" if mode == "kernel" else "running calcs on the cluster" if client is not None else "running calcs"
+    bar = RunProgress(len(job.calcs), console=err, enabled=bar_on, label=label)
+
+    def tick(o: Any) -> None:
+        bar.advance(f"{o.calc.template.name} {o.calc.member}")
+        if o.error is not None:
+            msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
+            failures.append(msg)
+            bar.console.print(f"[bold]FAILED[/bold] {escape(msg)}", markup=True, highlight=False, soft_wrap=True)
+
+    try:
+        if client is None:
+            return run_job(job, mode=mode, progress=tick, text=text)
+        from calcpad.runner.scale import run_calcs_on_cluster
+
+        return run_calcs_on_cluster(job, client, progress=tick, text=text)
+    finally:
+        bar.close()
 
 
 def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, Any]) -> None:
@@ -481,6 +531,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--print", metavar="full|summary|calc:MARK", help="what the submittal prints (default: the job's `print`, else full)")
     run.add_argument("--no-pdf", action="store_true", help="write submittal.html only (no Chromium run)")
     run.add_argument("--member", help="template run: member mark (default '-')")
+    run.add_argument("--workers", type=_worker_count, metavar="N", help="run the calcs (and design searches) on a local Dask cluster of N worker processes")
+    run.add_argument("--scheduler", metavar="ADDRESS", help="run on an existing Dask cluster, e.g. tcp://10.0.0.5:8786 (its workers need calcpad and the templates)")
     issue = sub.add_parser("issue", parents=[waiting], help="mark a revision in an output folder as issued and seal it read-only")
     issue.add_argument("out", help="the output folder of a run (--out)")
     issue.add_argument("--by", required=True, help="who issues it (name, title)")
@@ -512,6 +564,16 @@ def _parser() -> argparse.ArgumentParser:
     diff.add_argument("--rtol", type=_rtol, default=1e-6, help="relative tolerance on values (default 1e-6)")
     diff.add_argument("--html", metavar="FILE", help="also write the changes as an HTML fragment for a submittal")
     return parser
+
+
+def _worker_count(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        value = 0
+    if not 1 <= value <= 256:
+        raise argparse.ArgumentTypeError(f"{text!r}; expected a number of worker processes from 1 to 256")
+    return value
 
 
 def _wait_seconds(text: str) -> float:

@@ -30,7 +30,9 @@ def test_run_example_job_writes_submittal(tmp_path: Path, monkeypatch: pytest.Mo
     assert main(["run", "examples/harbor_ridge_condenser_stand.toml", "--out", str(out), "--no-pdf"]) == 0  # PDF: tests/report
     assert sorted(p.name for p in out.iterdir()) == [".calcpad-lock", ".calcpad-manifest.json", "rev-A"]
     out = out / "rev-A"  # the example job is revision A
-    assert sorted(p.name for p in out.iterdir()) == ["record.json", "submittal.html"]
+    # the screen posts come from a member table: its results beside the submittal
+    assert sorted(p.name for p in out.iterdir()) == ["record.json", "results-harbor_ridge_screen_posts.csv",
+                                                     "results-harbor_ridge_screen_posts.xlsx", "submittal.html"]
     record = json.loads((out / "record.json").read_text())
     assert record["format"] == JOB_RECORD_FORMAT and record["summary"]["status"] == "OK"
     assert len(record["calcs"]) >= 8

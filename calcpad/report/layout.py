@@ -224,6 +224,50 @@ def _summary(c: _Context) -> str:
     return _h2(c, "summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
 
 
+def _member_tables(c: _Context) -> str:
+    """One table per member table of the job: each member's row, size (chosen by a design search
+    where there is one), governing check and the page of its sheet."""
+    parts = []
+    anchors = {id(o): g for g in c.printed for o in g.outcomes}
+    for name in c.job.tables:
+        rows = []
+        design = False
+        for g in c.printed:
+            for o, rec in zip(g.outcomes, g.records, strict=True):
+                if o.calc.table != name:
+                    continue
+                gov = _governing(rec)
+                res = (o.calc.design or {}).get("result")
+                design = design or res is not None
+                chosen = (res or {}).get("chosen") or {}
+                runner = (res or {}).get("runner_up") or {}
+                size = " ".join(x for x in (chosen.get("designation"), chosen.get("grade")) if x) if res else ""
+                alt = " ".join(x for x in (runner.get("designation"), runner.get("grade")) if x) if res else ""
+                if res is not None and not chosen:
+                    size = "none passes"
+                cls = ' class="ng"' if o.status != "OK" else ""
+                gsheet = gov["sheet"] if gov else ""
+                ga = anchors[id(o)]
+                rows.append(
+                    f'<tr{cls}><td>{_e(o.calc.member)}</td><td class="num">{o.calc.row}</td>'
+                    + (f"<td>{_e(size)}</td><td>{_e(alt)}</td>" if res is not None else ("<td></td><td></td>" if design else ""))
+                    + f'<td>{_e(gov["name"] if gov else "(no checks)")}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
+                    f'<td class="st">{_status_mark(o.status)}</td><td>{_e(gsheet)}</td>'
+                    f'<td class="num"><span class="toc-page" data-ref="{ga.anchor}" data-find="{_e(_heading_text(ga))}"></span></td></tr>'
+                )
+        if not rows:
+            continue
+        head = ("<tr><th>Member</th><th>Row</th>" + ("<th>Size (lightest passing)</th><th>Runner-up</th>" if design else "")
+                + "<th>Governing check</th><th>Ratio</th><th>Status</th><th>Governing sheet</th><th>Page</th></tr>")
+        stem = name.rsplit("/", 1)[-1].rsplit(".", 1)[0]
+        note = (f'<p>Every check ratio of every member: results-{_e(stem)}.csv and .xlsx beside this submittal.'
+                + (" Sizes chosen by a design search: the lightest catalog size by weight per foot with every check OK; "
+                   "each member's sheet is printed with that size." if design else "") + "</p>")
+        parts.append(_h2(c, f"table-{len(parts) + 1}", f"Member table {name}") + note
+                     + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>')
+    return "".join(parts)
+
+
 def _all_checks(c: _Context) -> str:
     rows = []
     for g in c.printed:
@@ -290,7 +334,7 @@ def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any]
     c = _Context(job, record, groups, printed, parsed, [])
     info = job.info
     cover = _cover(c)
-    front = '<section class="front">' + _criteria(c) + _summary(c) + _all_checks(c) + "</section>"
+    front = '<section class="front">' + _criteria(c) + _summary(c) + _member_tables(c) + _all_checks(c) + "</section>"
     calcs = "".join(_calc_section(c, g, i) for i, g in enumerate(printed, start=1))
     contents = _contents(c)
     digest = _digest_short(record)

@@ -22,12 +22,14 @@
 
     [[calcs]]
     template = "leg_bending"     # a name from `calcpad templates` (never a path: templates are code)
-    members = ["L1", "L3"]       # or member = "L1"
+    members = ["L1", "L3"]       # or member = "L1", or table = "legs.csv" (runner.members: one row per member)
     title = "Legs L1 and L3"     # optional
     note = "Why these legs differ from the others"   # optional, printed on the calc's sheets
     [calcs.inputs]
     P = "85 lbf"                 # "value unit", { value = 85, unit = "lbf" }, a number or a text
     ...
+    [calcs.design]               # optional design search (runner.search): lightest passing size per member
+    family = "pipe"
 
 Every parameter of the template must be given (the job file is the complete record of what was
 assumed; `calcpad new` writes them all). Template parameters named ``member_mark``,
@@ -61,7 +63,7 @@ import pint
 
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
-from calcpad.eng.sections.shop import ShopTable, ShopTableError, load_shop_table
+from calcpad.eng.sections.shop import ShopTable
 from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
 
 __all__ = [
@@ -83,7 +85,7 @@ JOB_KEYS = ("number", "title", "client", "site", "engineer", "checker", "revisio
 PAPERS = ("letter", "a4")
 REVISION_KEYS = ("rev", "date", "description", "by")
 REQUIRED_JOB_KEYS = ("number", "title", "client", "site", "engineer", "revision", "date")
-CALC_KEYS = ("template", "member", "members", "title", "note", "inputs")
+CALC_KEYS = ("template", "member", "members", "table", "table_sheet", "title", "note", "inputs", "design")
 #: Template parameters the runner fills from the job: the member mark and the calc's title.
 CONTEXT_PARAMETERS = ("member_mark", "calc_title", "calc_note")
 _OTHER_JOB_KEYS = ("codes", "units", "paper", "print", "revisions", "basis", "shop_sections")
@@ -138,6 +140,9 @@ class Calc:
     title: str = ""
     typed: dict[str, Any] = field(default_factory=dict)  # inputs as written in the job (TOML value or --set text)
     note: str = ""  # the job's note for this calc (printed by templates that declare calc_note)
+    table: str | None = None  # the member table the calc's row came from (its name as written in the job)
+    row: int | None = None  # that row's number (header = row 1)
+    design: dict[str, Any] | None = None  # design search settings ([calcs.design]); the result once searched
 
     @property
     def input_digest(self) -> str:
@@ -158,6 +163,11 @@ class Job:
     shop_table: ShopTable | None = None  # [job] shop_sections: the shop's own validated section table
     shop_file: str = ""  # the shop_sections value as written in the job file
     shop_path: str = ""  # its absolute path ("" when the table came from a record)
+    tables: dict[str, Any] = field(default_factory=dict)  # member tables by name as written (runner.members.MemberTable)
+
+    def table_calcs(self, name: str) -> list[Calc]:
+        """The calcs made from the rows of member table ``name``."""
+        return [c for c in self.calcs if c.table == name]
 
 
 def input_record(value: str | float, kind: str | None = None) -> dict[str, Any]:
@@ -287,8 +297,10 @@ def _revisions(raw: Any, current: str, problems: list[tuple[str, str]]) -> list[
 
 def _marks(raw: dict[str, Any], loc: str, problems: list[tuple[str, str]]) -> list[tuple[str, str]]:
     """(location, mark) pairs of a calc table."""
-    if ("member" in raw) == ("members" in raw):
-        problems.append((loc, "give either member = \"L1\" or members = [\"L1\", \"L2\"] (exactly one of them)"))
+    if sum(k in raw for k in ("member", "members", "table")) != 1:
+        problems.append((loc, "give one of member = \"L1\", members = [\"L1\", \"L2\"] or table = \"members.csv\""))
+        return []
+    if "table" in raw:
         return []
     if "member" in raw:
         items = [(f"{loc}.member", raw["member"])]
@@ -365,15 +377,29 @@ def _shop_sections(raw: Any, base_dir: Path, preloaded: ShopTable | None, proble
         return None, value, str(path)
 
 
-def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Path] = (), *, base_dir: str | Path | None = None,
-              shop_table: ShopTable | None = None) -> Job:
+def parse_job(
+    text: str,
+    source: str = "job.toml",
+    templates: Sequence[str | Path] = (),
+    folder: str | Path | None = None,
+    tables: dict[str, Any] | None = None,
+    *,
+    base_dir: str | Path | None = None,
+    shop_table: ShopTable | None = None,
+) -> Job:
     """Validate job-file text. Raises JobError listing every problem found.
 
     ``templates``: extra template library folders (``--templates``), searched first.
-    ``base_dir``: folder that relative paths in the job (``shop_sections``) start from; default
-    the folder of ``source``. ``shop_table``: an already validated table to use for
-    ``shop_sections`` instead of reading the file (a re-run from a record).
+    ``folder``: where member tables named in the job are read from (the job file's folder).
+    ``tables``: member tables already read (``MemberTable`` or its record form, by name as
+    written), used instead of reading files (``calcpad verify`` re-runs from the record).
+    ``base_dir``: folder that ``shop_sections`` starts from; default ``folder``, else the folder
+    of ``source``. ``shop_table``: an already validated table to use for ``shop_sections``
+    instead of reading the file (a re-run from a record).
     """
+    from calcpad.runner.members import table_rows
+    from calcpad.runner.search import design_settings
+
     try:
         raw = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
@@ -388,7 +414,7 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
     info = _job_info(raw.get("job"), problems)
     shop: tuple[ShopTable | None, str, str] = (None, "", "")
     if isinstance(raw.get("job"), dict) and "shop_sections" in raw["job"]:
-        base = Path(base_dir) if base_dir is not None else Path(source).parent
+        base = Path(base_dir) if base_dir is not None else Path(folder) if folder is not None else Path(source).parent
         shop = _shop_sections(raw["job"]["shop_sections"], base, shop_table, problems)
     calcs_raw = raw.get("calcs")
     calcs: list[Calc] = []
@@ -396,6 +422,7 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
         problems.append(("calcs", "expected one or more [[calcs]] tables"))
         calcs_raw = []
     seen: dict[tuple[str, str], str] = {}
+    read_tables: dict[str, Any] = {}
     for i, c in enumerate(calcs_raw, start=1):
         loc = f"calcs[{i}]"
         for key in c:
@@ -419,6 +446,27 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
         except TemplateError as exc:
             problems.append((f"{loc}.template", str(exc)))
             continue
+        design = design_settings(c.get("design"), tpl, f"{loc}.design", problems) if "design" in c else None
+        if "table" in c:
+            shared = _inputs(tpl, c.get("inputs"), loc, problems, require_all=False)
+            shared = {n: v for n, v in shared.items() if n in (c.get("inputs") or {})}
+            table = _member_table(c, loc, folder, tables, problems)
+            if table is None:
+                continue
+            read_tables[table.name] = table
+            for row in table_rows(table, tpl, shared, loc, problems):
+                key = (tpl.name, row.mark)
+                if key in seen:
+                    problems.append((f"{loc}.table {table.name} row {row.row}", f"duplicate member mark {row.mark!r}: already checked with template {tpl.name!r} in {seen[key]}"))
+                    continue
+                seen[key] = f"{loc} ({table.name} row {row.row})"
+                typed = {n: v for n, v in (c.get("inputs") or {}).items() if n in row.inputs}
+                typed.update(row.typed)
+                calcs.append(Calc(len(calcs) + 1, f"{loc}.table row {row.row}", tpl, row.mark, row.inputs, title, typed, note,
+                                  table.name, row.row, dict(design) if design else None))
+            continue
+        if "table_sheet" in c:
+            problems.append((f"{loc}.table_sheet", "table_sheet goes with table = \"members.xlsx\""))
         inputs = _inputs(tpl, c.get("inputs"), loc, problems, require_all=True)
         for where, mark in marks:
             key = (tpl.name, mark)
@@ -427,14 +475,39 @@ def parse_job(text: str, source: str = "job.toml", templates: Sequence[str | Pat
                 continue
             seen[key] = loc
             typed = {n: v for n, v in (c.get("inputs") or {}).items() if n in inputs}
-            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed, note))
+            calcs.append(Calc(len(calcs) + 1, loc, tpl, mark, dict(inputs), title, typed, note=note,
+                              design=dict(design) if design else None))
     mode = print_mode(info.print)
     if calcs and mode is not None and mode[0] == "calc" and mode[1] not in {c.member for c in calcs}:
         marks = list(dict.fromkeys(c.member for c in calcs))
         problems.append(("job.print", f"{info.print!r}: no member {mode[1]!r} in the job{_suggest(mode[1], marks)} (marks: {', '.join(marks)})"))
     if problems:
         raise JobError(source, problems)
-    return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates), *shop)
+    return Job(info, calcs, source, text, tuple(str(Path(d).resolve()) for d in templates), *shop, tables=read_tables)
+
+
+def _member_table(c: dict[str, Any], loc: str, folder: str | Path | None, given: dict[str, Any] | None, problems: list[tuple[str, str]]) -> Any:
+    """The member table a calc names: from ``given`` (a record) or read from ``folder``."""
+    from calcpad.runner.members import MemberTable, read_member_table
+
+    name, sheet = c["table"], c.get("table_sheet")
+    if not isinstance(name, str) or not name.strip():
+        problems.append((f"{loc}.table", f"{name!r}; expected the file name of a CSV or Excel member table, e.g. \"legs.csv\""))
+        return None
+    if sheet is not None and (not isinstance(sheet, str) or not sheet.strip()):
+        problems.append((f"{loc}.table_sheet", f"{sheet!r}; expected the name of a sheet of the workbook"))
+        return None
+    try:
+        if given is not None and name in given:
+            t = given[name]
+            return t if isinstance(t, MemberTable) else MemberTable.from_record(t)
+        path = Path(name)
+        if not path.is_absolute():
+            path = Path(folder or ".") / path
+        return read_member_table(path, name, sheet)
+    except InputError as exc:
+        problems.append((f"{loc}.table", str(exc)))
+        return None
 
 
 def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:
@@ -444,7 +517,7 @@ def load_job(path: str | Path, templates: Sequence[str | Path] = ()) -> Job:
         text = path.read_text(encoding="utf-8")
     except (OSError, UnicodeDecodeError) as exc:
         raise JobError(str(path), [("", f"cannot read the job file ({exc.__class__.__name__}: {exc})")]) from None
-    return parse_job(text, str(path), templates)
+    return parse_job(text, str(path), templates, folder=path.parent)
 
 
 def single_template_job(template: str | Path, sets: list[str], member: str = "-", templates: Sequence[str | Path] = ()) -> Job:

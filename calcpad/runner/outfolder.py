@@ -49,7 +49,7 @@ import shutil
 import stat
 import tempfile
 import time
-from collections.abc import Callable, Iterable, Iterator
+from collections.abc import Callable, Iterable, Iterator, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -367,7 +367,9 @@ class OutputTarget:
             manifest["latest"] = rev
             _write_manifest(out, manifest)
         except BaseException:
-            if not swapped:
+            # an interrupt between the rename and `swapped = True` leaves the new revision in place
+            # (no `new` left): that is the swapped state, not one to roll back
+            if not swapped and os.path.lexists(tmp / "new"):
                 if old is not None and (old / "prev").exists() and not os.path.lexists(out / folder):
                     os.replace(old / "prev", out / folder)
                 with contextlib.suppress(OSError):
@@ -563,9 +565,11 @@ def write_outputs(
     submittal: Callable[[Path], Any],
     outcomes: Iterable[CalcOutcome] = (),
     wait: float = 30.0,
+    files: Mapping[str, bytes] | None = None,
 ) -> Path:
     """Write one revision: ``record.json``, what ``submittal(folder)`` writes (the submittal's
-    HTML and PDF, from the report face), and the executed notebooks of ``outcomes`` (kernel runs).
+    HTML and PDF, from the report face), the executed notebooks of ``outcomes`` (kernel runs)
+    and ``files`` (plain names → bytes, e.g. member-table results as CSV and Excel).
 
     Returns the revision folder (``OUT/rev-<revision>``).
     """
@@ -573,6 +577,10 @@ def write_outputs(
 
     def fill(folder: Path) -> None:
         (folder / "record.json").write_text(text, encoding="utf-8")
+        for name, data in (files or {}).items():
+            if Path(name).name != name or name.startswith(".") or name in ("record.json", "submittal.html", "submittal.pdf"):
+                raise ValueError(f"output file name {name!r} is not a plain name of its own")
+            (folder / name).write_bytes(data)
         submittal(folder)
         notebooks = [o for o in outcomes if o.notebook is not None]
         if notebooks:

@@ -7,7 +7,9 @@ Record format ``"calcpad-job-record/2"``::
      "job_file": {"source": path as given (or the template of a --set run),
                   "library": extra template library folders the job was read with (--templates),
                   "text": the job file text exactly as read (null for a --set run),
-                  "sha256": digest of that text (null for a --set run)},
+                  "sha256": digest of that text (null for a --set run),
+                  "tables": [{"name", "sha256", "header", "rows"}] member tables as read (cells as text;
+                            only when the job has a table)},
      "versions": {"calcpad", "python", "pint", "sympy", "numpy"},
      "templates": [{"name", "file", "sha256"}],      # every template the calcs used
      "data": {"eng/sections/data/aisc_pipe.csv": sha256, ..., "eng/data/materials.toml": sha256},
@@ -18,7 +20,9 @@ Record format ``"calcpad-job-record/2"``::
                 "inputs": {name: {"typed", "value", "unit"}}, "input_digest", "status", "error",
                 "results": {sheet title: {name: {"value", "unit"}}},
                 "checks": [{"sheet", "name", "demand", "capacity", "ratio", "status", "ref"}],
-                "sheets": [calcpad-record/1 of each sheet]}],
+                "sheets": [calcpad-record/1 of each sheet],
+                "table": {"name", "row"} (a member-table row), "design": {...} (a design search:
+                parameter, family, grades, chosen, governing_check/ratio, runner_up, candidates, method)}],
      "record_digest": sha256 (hex) of the canonical JSON of everything above,
      "run": {"mode", "seconds", "created"}}
 
@@ -220,6 +224,8 @@ def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
         "results": results,
         "checks": checks,
         "sheets": [s["record"] for s in o.sheets],
+        **({"table": {"name": c.table, "row": c.row}} if c.table is not None else {}),
+        **({"design": c.design["result"]} if c.design and "result" in c.design else {}),
     }
 
 
@@ -229,6 +235,7 @@ def _job_file(job: Job) -> dict[str, Any]:
         "library": list(job.library),
         "text": job.text,
         "sha256": hashlib.sha256(job.text.encode("utf-8")).hexdigest() if job.text is not None else None,
+        **({"tables": [t.as_record() for t in job.tables.values()]} if job.tables else {}),
     }
 
 

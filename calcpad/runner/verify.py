@@ -94,7 +94,9 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
     library = [*templates, *(d for d in recorded if isinstance(d, str) and Path(d).is_dir())]
     text = jf.get("text")
     if isinstance(text, str):
-        job = parse_job(text, str(jf.get("source") or "job text in the record"), library, shop_table=recorded_shop_table(record))
+        tables = {t.get("name"): t for t in jf.get("tables") or [] if isinstance(t, dict)}
+        job = parse_job(text, str(jf.get("source") or "job text in the record"), library, tables=tables,
+                        shop_table=recorded_shop_table(record))
     else:
         calcs = record.get("calcs") or []
         if len(calcs) != 1 or not isinstance(jf.get("source"), str):
@@ -103,7 +105,10 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
         inputs = c.get("inputs") if isinstance(c.get("inputs"), dict) else {}
         sets = [f"{n}={i['typed']}" for n, i in inputs.items() if isinstance(i, dict) and i.get("typed") is not None]
         job = single_template_job(jf["source"], sets, member=str(c.get("member", "-")), templates=library)
+    from calcpad.runner.search import resolve_designs
+
     start = time.perf_counter()
+    resolve_designs(job)
     outcomes = run_job(job, mode="inprocess")
     return job_record(job, outcomes, "inprocess", time.perf_counter() - start)
 

@@ -23,6 +23,7 @@ from __future__ import annotations
 import contextlib
 import dataclasses
 import itertools
+import os
 from collections.abc import Iterator
 from dataclasses import dataclass, field
 from typing import Any
@@ -233,7 +234,7 @@ def quiet() -> Iterator[None]:
 
 
 def _shell() -> Any:
-    if _QUIET[0]:
+    if _QUIET[0] or os.environ.get("CALCPAD_NO_DISPLAY"):  # runner.build.NO_DISPLAY_ENV: sheets built for a search or sweep
         return None
     try:
         from IPython import get_ipython

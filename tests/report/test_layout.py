@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import copy
+import csv
 import re
 import tomllib
 from pathlib import Path
@@ -30,7 +31,13 @@ def example() -> tuple[Any, list[Any], dict[str, Any]]:
 def _job_tables() -> list[list[str]]:
     """Member marks of each [[calcs]] table of the example job file (one table = one set of inputs)."""
     raw = tomllib.loads(EXAMPLE.read_text())
-    return [c.get("members") or [c["member"]] for c in raw["calcs"]]
+    return [c.get("members") or ([c["member"]] if "member" in c else _table_marks(c["table"])) for c in raw["calcs"]]
+
+
+def _table_marks(name: str) -> list[str]:
+    """Marks of a member table beside the example job (read with the csv module)."""
+    with open(EXAMPLE.parent / name, newline="", encoding="utf-8") as fh:
+        return [row["mark"] for row in csv.DictReader(fh)]
 
 
 def test_example_groups_are_the_job_tables(example: tuple[Any, list[Any], dict[str, Any]]) -> None:

@@ -1,0 +1,220 @@
+"""Scale-out on Dask: a job's calcs, a design search or a sweep in chunks on a cluster.
+
+``calcpad run JOB.toml --workers 2`` starts a local cluster (one process per worker, one thread
+each) for the run; ``--scheduler tcp://HOST:8786`` uses a running cluster whose workers have
+calcpad (same version) and the template folders installed. The work is cut into chunks: a
+chunk is a list of calcs, a slice of members, or a range of grid cases generated on the worker
+from the axis definitions, so no large array is shipped. Each chunk is a Dask task with
+``retries``; a chunk that still fails is reported with its inputs (:class:`ChunkFailure`),
+never dropped: a batch turns it into failed calcs in the record, a search or sweep raises
+:class:`ChunkFailedError`. Results come back in input order, so they equal the serial run.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import functools
+import logging
+import math
+import os
+from collections.abc import Callable, Iterator, Sequence
+from dataclasses import dataclass
+from typing import Any
+
+from calcpad.core.errors import CalcpadError
+
+__all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "progress_bar", "run_calcs_on_cluster", "search_on_cluster", "split"]
+
+RETRIES = 2
+
+
+@dataclass
+class ChunkFailure:
+    """A chunk that failed on every try: what it held and the last error."""
+
+    index: int
+    inputs: str  # the chunk's inputs in words (calcs and members, or the grid cases)
+    error: str
+
+
+class ChunkFailedError(CalcpadError):
+    """Chunks that failed on the cluster after their retries (each with its inputs); exit code 2
+    as for a calc that failed to run."""
+
+    exit_code = 2
+
+    def __init__(self, failures: list[ChunkFailure]) -> None:
+        self.failures = failures
+        lines = [f"{len(failures)} chunk(s) failed on the cluster after {RETRIES + 1} tries each:"]
+        lines += [f"  chunk {f.index}: {f.inputs}: {f.error}" for f in failures]
+        super().__init__("\n".join(lines))
+
+
+@contextlib.contextmanager
+def cluster_client(workers: int | None = None, scheduler: str | None = None) -> Iterator[Any]:
+    """A Dask client: on a new local cluster of ``workers`` processes, or on ``scheduler``."""
+    from distributed import Client, LocalCluster
+
+    if scheduler:
+        try:
+            client = Client(scheduler, timeout="20s")
+        except Exception as exc:  # OSError (unreachable), ValueError/TypeError (not an address)
+            raise CalcpadError(f"--scheduler {scheduler}: cannot reach the Dask scheduler ({type(exc).__name__}: {exc}); "
+                               "expected an address such as tcp://10.0.0.5:8786 of a running cluster") from None
+        try:
+            yield client
+        finally:
+            client.close()
+        return
+    import dask
+
+    n = int(workers or 2)
+    # Dask's nanny sets MALLOC_TRIM_THRESHOLD_ in each worker, which turns off glibc's adaptive
+    # mmap threshold: every large numpy temporary is then mmapped and page-faulted afresh, and a
+    # sweep chunk ran 3.5x slower on a worker than in this process (measured). Leave it unset.
+    environ = {k: v for k, v in dask.config.get("distributed.nanny.pre-spawn-environ", {}).items() if k != "MALLOC_TRIM_THRESHOLD_"}
+    with dask.config.set({"distributed.nanny.pre-spawn-environ": environ}):
+        cluster = LocalCluster(n_workers=n, threads_per_worker=1, processes=True, dashboard_address=":0",
+                               silence_logs=logging.ERROR, memory_limit="auto")
+    client = Client(cluster)
+    try:
+        yield client
+    finally:
+        client.close()
+        cluster.close()
+
+
+@contextlib.contextmanager
+def progress_bar(total: int, label: str) -> Iterator[Callable[[int], None]]:
+    """A rich progress bar on stderr (shown on a terminal or in a notebook, hidden in logs and
+    pipes, gone when done); yields ``advance(n)``."""
+    from rich.console import Console
+    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn, TimeRemainingColumn
+
+    console = Console(stderr=True)
+    with Progress(TextColumn("{task.description}"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn(), TimeRemainingColumn(),
+                  console=console, transient=True, disable=not (console.is_terminal or console.is_jupyter)) as bar:
+        task = bar.add_task(label, total=total)
+        yield lambda n: bar.update(task, advance=n)
+
+
+def split(n: int, chunks: int) -> list[tuple[int, int]]:
+    """``chunks`` contiguous (start, stop) ranges covering ``range(n)`` (none empty)."""
+    chunks = max(1, min(chunks, n))
+    size = math.ceil(n / chunks) if n else 0
+    return [(a, min(a + size, n)) for a in range(0, n, size)] if n else []
+
+
+def map_chunks(
+    client: Any,
+    func: Callable[..., Any],
+    chunks: Sequence[tuple[Any, ...]],
+    describe: Callable[[int], str],
+    progress: Callable[[int, Any], None] | None = None,
+    retries: int = RETRIES,
+) -> tuple[list[Any], list[ChunkFailure]]:
+    """Run ``func(*chunk)`` for each chunk on the cluster; results in chunk order, and the
+    chunks that failed after ``retries`` (``describe(i)`` says what chunk ``i`` held).
+    ``progress(i, result)`` is called as each chunk finishes."""
+    from distributed import as_completed
+
+    futures = [client.submit(func, *args, retries=retries, pure=False) for args in chunks]
+    where = {f.key: i for i, f in enumerate(futures)}
+    results: list[Any] = [None] * len(futures)
+    failures: list[ChunkFailure] = []
+    for fut in as_completed(futures):
+        i = where[fut.key]
+        if fut.status == "error":
+            exc = fut.exception()
+            failures.append(ChunkFailure(i + 1, describe(i), f"{type(exc).__name__}: {exc}"))
+        else:
+            results[i] = fut.result()
+        fut.release()
+        if progress is not None:
+            progress(i, results[i])
+    failures.sort(key=lambda f: f.index)
+    return results, failures
+
+
+def _run_calcs(calcs: list[Any], units: str, text: bool = False) -> list[Any]:
+    """Worker side: run a chunk of calcs in this process, as the serial runner does (``text``:
+    with each sheet's plain-text hand calc)."""
+    from calcpad.core.sheet import SYSTEM_ENV
+    from calcpad.runner.execute import run_calc_inprocess
+
+    os.environ[SYSTEM_ENV] = units
+    return [run_calc_inprocess(c, text=text) for c in calcs]
+
+
+def run_calcs_on_cluster(
+    job: Any, client: Any, progress: Callable[[Any], None] | None = None, chunk_calcs: int | None = None,
+    task: Callable[[list[Any], str], list[Any]] | None = None, text: bool = False,
+) -> list[Any]:
+    """Every calc of ``job`` on the cluster, in chunks; outcomes in job order (as ``run_job``).
+
+    A chunk that fails after its retries gives each of its calcs a failed outcome naming the
+    chunk and the error (the record lists them; the other calcs stand). ``task(calcs, units)``
+    runs one chunk on a worker (default: each calc in-process, as the serial runner)."""
+    from calcpad.runner.execute import CalcOutcome
+
+    calcs = list(job.calcs)
+    workers = max(1, len(client.scheduler_info().get("workers", {})) or 1)
+    size = chunk_calcs or max(1, min(25, math.ceil(len(calcs) / (4 * workers))))
+    ranges = [(a, min(a + size, len(calcs))) for a in range(0, len(calcs), size)]
+
+    def describe(i: int) -> str:
+        a, b = ranges[i]
+        return f"calcs {calcs[a].number}-{calcs[b - 1].number} (members {', '.join(c.member for c in calcs[a:b])})"
+
+    def tick(_i: int, result: Any) -> None:
+        if progress is not None and result is not None:
+            for o in result:
+                progress(o)
+
+    run = task or functools.partial(_run_calcs, text=text)
+    results, failures = map_chunks(client, run, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
+    by_chunk = {f.index - 1: f for f in failures}
+    outcomes: list[Any] = []
+    for i, (a, b) in enumerate(ranges):
+        if i in by_chunk:
+            f = by_chunk[i]
+            for c in calcs[a:b]:
+                o = CalcOutcome(c, error={"cell": None, "message": f"chunk {f.index} ({f.inputs}) failed on the cluster after {RETRIES + 1} tries: {f.error}"})
+                outcomes.append(o)
+                if progress is not None:
+                    progress(o)
+        else:
+            outcomes.extend(results[i])
+    return outcomes
+
+
+def _search_chunk(template: Any, members: list[tuple[str, dict[str, Any]]], settings: dict[str, Any], sizes: Any) -> list[Any]:
+    from calcpad.runner.search import search
+
+    return search(template, members, settings, sizes)
+
+
+def search_on_cluster(
+    client: Any, template: Any, members: Sequence[tuple[str, Any]], settings: Any, sizes: Any = None,
+    progress: Callable[[int], None] | None = None, chunk_members: int | None = None,
+) -> list[Any]:
+    """:func:`calcpad.runner.search.search` with the members split into chunks on the cluster.
+
+    Raises :class:`ChunkFailedError` (with the members of each failed chunk) after retries."""
+    members = [(m, dict(v)) for m, v in members]
+    workers = max(1, len(client.scheduler_info().get("workers", {})) or 1)
+    size = chunk_members or max(1, math.ceil(len(members) / (2 * workers)))
+    ranges = [(a, min(a + size, len(members))) for a in range(0, len(members), size)]
+
+    def describe(i: int) -> str:
+        a, b = ranges[i]
+        return f"members {a + 1}-{b} ({', '.join(m for m, _v in members[a:b][:5])}{', ...' if b - a > 5 else ''})"
+
+    def tick(i: int, _result: Any) -> None:
+        if progress is not None:
+            progress(ranges[i][1] - ranges[i][0])
+
+    results, failures = map_chunks(client, _search_chunk, [(template, members[a:b], dict(settings), sizes) for a, b in ranges], describe, tick)
+    if failures:
+        raise ChunkFailedError(failures)
+    return [r for chunk in results for r in chunk]

@@ -1,0 +1,111 @@
+"""Dask scale-out: results identical to the serial run; a failing chunk retried, then reported with its inputs."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+from calcpad.runner.execute import run_job
+from calcpad.runner.job import load_job
+from calcpad.runner.record import UNSEALED_KEYS, job_record
+from calcpad.runner.scale import ChunkFailedError, cluster_client, map_chunks, run_calcs_on_cluster, search_on_cluster
+from calcpad.runner.search import search
+from calcpad.runner.sweep import steps, sweep
+from calcpad.runner.template import find_template, load_template
+
+ROOT = Path(__file__).resolve().parents[2]
+
+
+@pytest.fixture(scope="module")
+def client():
+    with cluster_client(workers=2) as c:
+        yield c
+
+
+def _flaky(x: int, marker: str) -> int:
+    """Fails the first time it is called for a marker file that does not exist yet."""
+    p = Path(marker)
+    if not p.exists():
+        p.write_text("tried")
+        raise RuntimeError("first try fails")
+    return x * 10
+
+
+def _broken(x: int) -> int:
+    if x == 3:
+        raise ValueError(f"chunk with x={x} always fails")
+    return x
+
+
+def test_batch_on_the_cluster_equals_serial(client) -> None:
+    job = load_job(ROOT / "examples" / "harbor_ridge_condenser_stand.toml")
+    serial = job_record(job, run_job(job), "inprocess", 0.0)
+    seen = []
+    parallel = job_record(job, run_calcs_on_cluster(job, client, progress=seen.append, chunk_calcs=3), "inprocess", 0.0)
+    strip = lambda r: {k: v for k, v in r.items() if k not in UNSEALED_KEYS}  # noqa: E731
+    assert strip(parallel) == strip(serial)
+    assert parallel["record_digest"] == serial["record_digest"]
+    assert len(seen) == len(job.calcs)
+
+
+def test_search_and_sweep_on_the_cluster_equal_serial(client) -> None:
+    tpl = load_template(find_template("leg_bending"))
+    base = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
+    members = [(f"M{i}", {**base, "P": f"{40 + 30 * i} lbf", "L": f"{20 + 7 * i} in"}) for i in range(9)]
+    settings = {"parameter": "leg", "family": "pipe"}
+    assert search_on_cluster(client, tpl, members, settings, chunk_members=2) == search(tpl, members, settings)
+    axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
+    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
+    b = sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    assert a.table.equals(b.table) and a.envelope.equals(b.envelope) and a.passed == b.passed
+
+
+def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_path: Path) -> None:
+    chunks = [(i, str(tmp_path / f"m{i}")) for i in range(4)]
+    results, failures = map_chunks(client, _flaky, chunks, describe=lambda i: f"x={i}")
+    assert results == [0, 10, 20, 30] and failures == []  # each failed once, retried
+    results, failures = map_chunks(client, _broken, [(i,) for i in range(5)], describe=lambda i: f"x={i} (members X{i})")
+    assert [r for i, r in enumerate(results) if i != 3] == [0, 1, 2, 4]
+    assert len(failures) == 1 and failures[0].index == 4 and failures[0].inputs == "x=3 (members X3)"
+    assert "always fails" in failures[0].error
+    with pytest.raises(ChunkFailedError, match=r"chunk 4: x=3 \(members X3\): ValueError"):
+        raise ChunkFailedError(failures)
+
+
+def test_cli_workers_gives_the_serial_record(tmp_path: Path) -> None:
+    from calcpad.cli import main
+    from calcpad.runner.recordfile import load_record
+
+    (tmp_path / "legs.csv").write_text("mark,P [lbf],N [lbf],L [in],leg\n" + "".join(
+        f"A{i},{60 + 20 * i},50,{24 + 6 * i},Pipe 1-1/2 Std\n" for i in range(1, 7)), encoding="utf-8")
+    (tmp_path / "job.toml").write_text(
+        '[job]\nnumber = "T-9"\ntitle = "Cluster run (invented)"\nclient = "Ferncliff Fabricators (fictional)"\nsite = "Yard 2"\n'
+        'engineer = "E. Example"\nrevision = "A"\ndate = 2025-03-14\n\n[[calcs]]\ntemplate = "leg_bending"\ntable = "legs.csv"\n'
+        '[calcs.inputs]\nD_o = "1.900 in"\nt = "0.145 in"\nF_y = "35 ksi"\nFS_req = 1.67\n', encoding="utf-8")
+    rc_serial = main(["run", str(tmp_path / "job.toml"), "--out", str(tmp_path / "serial"), "--no-pdf"])
+    rc_dask = main(["run", str(tmp_path / "job.toml"), "--out", str(tmp_path / "dask"), "--no-pdf", "--workers", "2"])
+    assert rc_serial == rc_dask
+    (_p1, a), (_p2, b) = load_record(tmp_path / "serial"), load_record(tmp_path / "dask")
+    assert a["record_digest"] == b["record_digest"]
+
+
+def _calcs_failing_on_l2(calcs: list, units: str) -> list:
+    """A chunk task that dies (as a worker crash would) for the chunk holding member L2."""
+    from calcpad.runner.scale import _run_calcs
+
+    if any(c.member == "L2" for c in calcs):
+        raise MemoryError("worker ran out of memory (simulated)")
+    return _run_calcs(calcs, units)
+
+
+def test_a_failed_batch_chunk_becomes_failed_calcs_naming_it(client) -> None:
+    job = load_job(ROOT / "examples" / "harbor_ridge_condenser_stand.toml")
+    outcomes = run_calcs_on_cluster(job, client, chunk_calcs=2, task=_calcs_failing_on_l2)
+    assert [o.calc.member for o in outcomes] == [c.member for c in job.calcs]  # nothing dropped, job order
+    failed = [o for o in outcomes if o.error is not None]
+    members = [o.calc.member for o in failed]
+    assert "L2" in members and len(failed) == 2  # the whole chunk of two calcs
+    msg = failed[0].error["message"]
+    assert "failed on the cluster after 3 tries" in msg and "MemoryError" in msg and f"members {', '.join(members)}" in msg
+    assert all(o.error is None and o.sheets for o in outcomes if o.calc.member not in members)
