@@ -63,7 +63,7 @@ import pint
 
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
-from calcpad.eng.sections.shop import ShopTable
+from calcpad.eng.sections.shop import ShopTable, ShopTableError, load_shop_table
 from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
 
 __all__ = [
