@@ -19,6 +19,7 @@ from typing import Any
 
 from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
+from calcpad.runner.job import CONTEXT_PARAMETERS
 from calcpad.runner.template import Template
 
 __all__ = ["NO_DISPLAY_ENV", "SheetBuildError", "SheetBuilder", "given_map", "sheet_signature"]
@@ -72,7 +73,7 @@ class SheetBuilder:
         """
         ns: dict[str, Any] = {"__name__": "__main__", "__builtins__": __builtins__}
         ns.update({n: v for n, v in values.items() if n in self.template.parameters})
-        for n in ("member_mark", "calc_title"):
+        for n in CONTEXT_PARAMETERS:
             if n in self.template.parameters:
                 ns.setdefault(n, "")
         os.environ.setdefault("MPLBACKEND", "Agg")

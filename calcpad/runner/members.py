@@ -359,7 +359,7 @@ def run_table(
     row. With a Dask ``client`` the calcs run on the cluster.
     """
     from calcpad.runner.execute import run_job
-    from calcpad.runner.job import Calc, Job, JobError, JobInfo
+    from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job, JobError, JobInfo
     from calcpad.runner.template import Template as _Template
     from calcpad.runner.template import find_template, load_template
 
@@ -367,7 +367,7 @@ def run_table(
     path = Path(table)
     data = read_member_table(path, path.name, sheet)
     problems: list[tuple[str, str]] = []
-    shared: dict[str, str | float] = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
+    shared: dict[str, str | float] = {n: p.default for n, p in tpl.parameters.items() if n not in CONTEXT_PARAMETERS}
     for n, v in (inputs or {}).items():
         if n not in tpl.parameters:
             problems.append((f"inputs.{n}", f"not a parameter of template {tpl.name!r}{tpl.suggest(n)}"))

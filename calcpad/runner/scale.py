@@ -146,6 +146,15 @@ def _run_calcs(calcs: list[Any], units: str, text: bool = False) -> list[Any]:
     return [run_calc_inprocess(c, text=text) for c in calcs]
 
 
+def _run_chunk(task: Callable[[list[Any], str], list[Any]], shop_table: Any, calcs: list[Any], units: str) -> list[Any]:
+    """Worker side: ``task`` with the job's own section table in use (a worker is another process:
+    the table the job named must travel with the chunk)."""
+    from calcpad.eng.sections.shop import shop_table_in_use
+
+    with shop_table_in_use(shop_table):
+        return task(calcs, units)
+
+
 def run_calcs_on_cluster(
     job: Any, client: Any, progress: Callable[[Any], None] | None = None, chunk_calcs: int | None = None,
     task: Callable[[list[Any], str], list[Any]] | None = None, text: bool = False,
@@ -171,7 +180,7 @@ def run_calcs_on_cluster(
             for o in result:
                 progress(o)
 
-    run = task or functools.partial(_run_calcs, text=text)
+    run = functools.partial(_run_chunk, task or functools.partial(_run_calcs, text=text), getattr(job, "shop_table", None))
     results, failures = map_chunks(client, run, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
     by_chunk = {f.index - 1: f for f in failures}
     outcomes: list[Any] = []

@@ -28,6 +28,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity, unit_symbol
 from calcpad.runner.build import SheetBuilder, given_map
+from calcpad.runner.job import CONTEXT_PARAMETERS
 from calcpad.runner.template import Template
 
 __all__ = ["SweepResult", "SweepTooLargeError", "design_chart", "pass_fail_figure", "steps", "sweep"]
@@ -180,7 +181,7 @@ def sweep(
         progress = None
     import pandas as pd
 
-    params = {n: p for n, p in template.parameters.items() if n not in ("member_mark", "calc_title")}
+    params = {n: p for n, p in template.parameters.items() if n not in CONTEXT_PARAMETERS}
     base = {n: p.default for n, p in params.items()}
     base.update({n: params[n].coerce(v, n) for n, v in fixed.items() if n in params})
     unknown = [n for n in fixed if n not in params]
