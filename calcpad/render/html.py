@@ -110,7 +110,7 @@ def _row_key(step: object) -> tuple[Any, ...] | None:
 #: Printed rows of givens and formulas by what they depend on: the calcs of one template print
 #: many identical rows (constants, section and material values, repeated members). Bounded.
 _ROWS: dict[tuple[Any, ...], tuple[object, str]] = {}
-_ROWS_MAX = 20_000
+_ROWS_MAX = 5_000
 
 
 def _step(step: object) -> str:
