@@ -60,7 +60,6 @@ from IPython.display import Image, display
 from calcpad import Q_, Sheet, calc_heading
 from calcpad.core.errors import InputError
 from calcpad.core.units import parse_quantity
-from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, png_bytes
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
 from calcpad.eng.checks import (add_anchorage_check, add_base_plate_check, add_leg_base_uplift_check, add_second_order,
@@ -268,7 +267,7 @@ bp
 # governs the posts (the same figures go into the submittal).
 
 # %%
-display(Image(png_bytes(draw_frame(fr, res, case_gov))), Image(png_bytes(draw_frame_diagram(res, case_gov, "M"))))
+display(*(Image(f.png) for f in sh.evaluate().figures if f.title.startswith(("Frame model", "Bending moment"))))  # as drawn once for the sheet
 
 # %%
 sh.summary_frame()

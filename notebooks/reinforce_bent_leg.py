@@ -65,7 +65,7 @@ else:
 fig = draw_sections([leg_shape, reinforced], ["Before: " + leg, "After: " + reinforced.name])
 png = io.BytesIO()
 fig.savefig(png, format="png", dpi=100, metadata={"Software": None})
-Image(png.getvalue())
+Image(png.getvalue())  # drawn once: the same picture goes into the sheet below
 
 # %% [markdown]
 # ## Existing leg
@@ -104,7 +104,7 @@ for text in ASSUMPTIONS:
     after.assume(text)
 if calc_note.strip():
     after.note(calc_note.strip())
-after.figure("Existing and reinforced sections", fig)
+after.figure("Existing and reinforced sections", png.getvalue())
 after.heading("Added member")
 a = add_shape_props(after, add_shape_, suffix="a", names=["A", "I_x", "I_y"])
 after.heading("Composite section")

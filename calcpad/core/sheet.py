@@ -410,12 +410,14 @@ class Sheet:
         return str(v)
 
     def figure(self, title: str, fig: Any, caption: str = "") -> None:
-        """Add a figure (a matplotlib figure or PNG bytes)."""
+        """Add a figure (a matplotlib figure or PNG bytes). A figure is saved at its own size and
+        layout (no tight bounding box, which costs a second drawing): give it fixed margins or a
+        layout engine so nothing is clipped."""
         if isinstance(fig, (bytes, bytearray)):
             png = bytes(fig)
         elif hasattr(fig, "savefig"):
             buf = io.BytesIO()
-            fig.savefig(buf, format="png", dpi=110, bbox_inches="tight", metadata={"Software": None})
+            fig.savefig(buf, format="png", dpi=110, metadata={"Software": None})
             png = buf.getvalue()
         else:
             raise SheetError(f"figure {title!r}: expected a matplotlib figure or PNG bytes, got {type(fig).__name__}")

@@ -8,8 +8,9 @@ from __future__ import annotations
 
 import base64
 import html
+from typing import Any
 
-from calcpad.core.results import FigureResult, HeadingResult, SheetResult, TableResult, TextResult
+from calcpad.core.results import FigureResult, FormulaResult, GivenResult, HeadingResult, SheetResult, TableResult, TextResult
 from calcpad.render.latex import text_lead
 from calcpad.render.layout import mathml_lines
 from calcpad.render.rows import MathRow, math_rows
@@ -77,7 +78,56 @@ def _table(t: TableResult) -> str:
     return f'<h3>{_e(t.title)}</h3><table class="grid"><thead><tr>{head}</tr></thead><tbody>{body}</tbody></table>{note}'
 
 
+def _value_key(q: Any) -> tuple[Any, ...] | None:
+    """A quantity as it prints: the exact magnitude (``repr``: 1 and 1.0, 0.0 and -0.0 differ) and
+    its units; None for anything else (an array, a plain object), which is never cached."""
+    m = getattr(q, "magnitude", None)
+    if type(m) not in (float, int):
+        return None
+    return (repr(m), q.units._units)
+
+
+def _row_key(step: object) -> tuple[Any, ...] | None:
+    """What a given's or a formula's printed rows depend on, or None (not cached)."""
+    if isinstance(step, GivenResult):
+        v = _value_key(step.value)
+        return None if v is None else ("g", step.name, v, step.description, step.source, step.sig)
+    if isinstance(step, FormulaResult):
+        vals = []
+        for k, q in step.values.items():
+            vk = _value_key(q)
+            if vk is None:
+                return None
+            vals.append((k, vk))
+        v = _value_key(step.value)
+        if v is None:
+            return None
+        return ("f", id(step.expr), step.name, tuple(vals), v, step.description, step.ref, step.sig,
+                tuple(step.sigs.items()), step.quiet)
+    return None
+
+
+#: Printed rows of givens and formulas by what they depend on: the calcs of one template print
+#: many identical rows (constants, section and material values, repeated members). Bounded.
+_ROWS: dict[tuple[Any, ...], tuple[object, str]] = {}
+_ROWS_MAX = 5_000
+
+
 def _step(step: object) -> str:
+    key = _row_key(step)
+    if key is not None:
+        hit = _ROWS.get(key)
+        if hit is not None and (not isinstance(step, FormulaResult) or hit[0] is step.expr):
+            return hit[1]
+    out = _step_uncached(step)
+    if key is not None:
+        if len(_ROWS) >= _ROWS_MAX:
+            _ROWS.clear()
+        _ROWS[key] = (step.expr if isinstance(step, FormulaResult) else None, out)  # keeps the expression (and its id) alive
+    return out
+
+
+def _step_uncached(step: object) -> str:
     rows = math_rows(step)
     if rows is not None:
         return "".join(_row_html(r) for r in rows)

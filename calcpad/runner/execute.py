@@ -26,6 +26,7 @@ import math
 import os
 import sys
 import time
+import zlib
 from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 from typing import Any
@@ -37,11 +38,34 @@ from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 from calcpad.runner.progress import RunProgress, in_notebook
 
-__all__ = ["MODES", "CalcOutcome", "collect_sheets", "run_calc_inprocess", "run_job"]
+__all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "run_calc_inprocess", "run_job"]
 
 MODES = ("inprocess", "kernel")
 SHEETS_MIME = "application/vnd.calcpad.sheets+json"
 _SKIP = {"In", "Out", "exit", "quit", "get_ipython"}
+
+
+class SheetItem(dict):  # type: ignore[type-arg]
+    """One sheet of an outcome: ``{"record": ..., "html": ...}`` (and ``"text"``), with the HTML
+    kept zlib-compressed (``"html_z"``) until ``item["html"]`` reads it. A large job holds every
+    outcome until the submittal is written; MathML compresses about tenfold, so the held HTML
+    no longer dominates the memory a job grows by per calc."""
+
+    @classmethod
+    def packed(cls, item: dict[str, Any]) -> SheetItem:
+        """``item`` with its ``"html"`` compressed."""
+        out = cls(item)
+        html = out.pop("html", None)
+        if isinstance(html, str):
+            out["html_z"] = zlib.compress(html.encode("utf-8"), 1)
+        elif html is not None:
+            out["html"] = html
+        return out
+
+    def __missing__(self, key: str) -> Any:
+        if key == "html" and "html_z" in self:
+            return zlib.decompress(self["html_z"]).decode("utf-8")
+        raise KeyError(key)
 
 
 @dataclass
@@ -49,7 +73,7 @@ class CalcOutcome:
     """What running one calc produced."""
 
     calc: Calc
-    sheets: list[dict[str, Any]] = field(default_factory=list)  # {"record": ..., "html": ...}
+    sheets: list[dict[str, Any]] = field(default_factory=list)  # SheetItem: {"record": ..., "html": ...}
     error: dict[str, Any] | None = None  # {"cell": n, "message": "..."}
     seconds: float = 0.0
     notebook: Any = None  # executed notebook (kernel mode)
@@ -173,7 +197,7 @@ def run_calc_inprocess(calc: Calc, text: bool = False) -> CalcOutcome:
                     break
             if outcome.error is None:
                 try:
-                    outcome.sheets = collect_sheets(namespace, tpl.name, calc.member, text)
+                    outcome.sheets = [SheetItem.packed(s) for s in collect_sheets(namespace, tpl.name, calc.member, text)]
                 except Exception as exc:
                     outcome.error = {"cell": None, "message": f"{type(exc).__name__}: {exc}"}
     finally:
@@ -271,7 +295,7 @@ class _KernelSession:
                 outcome.error = {"cell": None, "message": "a cell failed"}
         if outcome.error is None:
             data = nb.cells[-1].outputs[0]["data"][SHEETS_MIME]
-            outcome.sheets = json.loads(json.dumps(data["sheets"]))
+            outcome.sheets = [SheetItem.packed(s) for s in json.loads(json.dumps(data["sheets"]))]
         nb.cells = [c for c in nb.cells if c.metadata.get("calcpad_cell") != "collect"]
         for c in nb.cells:
             c.metadata.pop("calcpad_cell", None)

@@ -152,3 +152,22 @@ def test_batch_stops_before_the_what_if_cell_and_leaves_no_widgets(tmp_path: Pat
     assert [o.error for o in outcomes] == [None] * 4  # the failing cell after the panel is not run
     assert [s["record"]["inputs"]["P"]["value"] for o in outcomes for s in o.sheets] == [100.0, 101.0, 102.0, 103.0]
     assert len(w._instances) == before  # the widget registry does not grow per calc
+
+
+def test_held_html_is_compressed_and_reads_back_as_printed() -> None:
+    from calcpad import Sheet
+    from calcpad.render.html import sheet_html_fragment
+    from calcpad.runner.execute import SheetItem, collect_sheets
+
+    sh = Sheet("Post")
+    sh.given("P", "1.2 kip", "Axial load")
+    sh.given("A", "1.07 in**2", "Area")
+    sh.step("f_a", "P/A", "Axial stress", unit="ksi")  # 1.2 / 1.07 = 1.121 ksi (hand arithmetic)
+    plain = collect_sheets({"sh": sh}, "t", "M1")[0]
+    item = SheetItem.packed(plain)
+    assert "html" not in item and len(item["html_z"]) < len(plain["html"].encode())
+    assert item["html"] == plain["html"] == sheet_html_fragment(sh.evaluate(), heading_level=3)
+    assert "<mn>1.121</mn>" in item["html"]
+    assert item["record"] is plain["record"]
+    with pytest.raises(KeyError):
+        item["text"]  # only the HTML is packed; a missing key stays missing

@@ -27,12 +27,17 @@ _MEMBER = "#1f3b57"
 _DEFL = "#2e86c1"
 
 
-def _figure(w: float = 7.0, h: float = 5.0) -> Figure:
+def _figure(w: float = 7.0, h: float = 5.0, rows: int = 1) -> Figure:
+    """A figure with fixed margins (in inches, so they hold at any size): room for the title, tick
+    labels, axis labels and a legend below the axes. A fixed layout draws once when saved; a
+    tight bounding box or a layout engine costs a second pass."""
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.figure import Figure
 
     fig = Figure(figsize=(w, h))
     FigureCanvasAgg(fig)
+    fig.subplots_adjust(left=0.85 / w, right=1 - 0.2 / w, bottom=0.75 / h, top=1 - 0.4 / h,
+                        hspace=0.35 if rows > 1 else 0.2)
     return fig
 
 
@@ -41,7 +46,7 @@ def png_bytes(fig: Figure, dpi: int = 100) -> bytes:
     import io
 
     buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=dpi, bbox_inches="tight", metadata={"Software": None})
+    fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
     return buf.getvalue()
 
 
@@ -130,7 +135,7 @@ def draw_frame(
             bx, by = x0 + c * dg.x, y0 + sn * dg.x
             ax.plot(bx + scale * (dg.xg - bx), by + scale * (dg.yg - by), "--", color=_DEFL, lw=1.2, zorder=1)
         ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{scale:.3g}")
-        ax.legend(loc="best", fontsize=8)
+        fig.legend(loc="lower right", fontsize=8, frameon=False)  # below the axes: no search for a spot
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
     ax.set_xlabel(f"x [{frame.lu}]")
@@ -238,7 +243,7 @@ def draw_frame_diagram(
 
 
 def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
-    fig = _figure(7.0, 2.1 * len(rows))
+    fig = _figure(7.0, 2.1 * len(rows), rows=len(rows))
     axes = [fig.add_subplot(len(rows), 1, i + 1) for i in range(len(rows))]
     for ax, (lab, y, unit) in zip(axes, rows, strict=True):
         ax.plot(x, y, color=_MEMBER, lw=1.5)
@@ -252,7 +257,6 @@ def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title:
         ax.grid(alpha=0.2)
     axes[0].set_title(title, fontsize=10)
     axes[-1].set_xlabel(xlabel)
-    fig.tight_layout()
     return fig
 
 

@@ -28,7 +28,11 @@ def draw_sections(sections: Sequence[Any], titles: Sequence[str] | None = None, 
     from matplotlib.patches import PathPatch
     from matplotlib.path import Path
 
-    fig = Figure(figsize=(size * len(sections), size), layout="constrained")
+    w, h = size * len(sections), size + 0.4
+    fig = Figure(figsize=(w, h))
+    # fixed margins (inches): the axis labels and the legend below each drawing; a layout engine
+    # would cost a second pass over the drawing each time it is saved
+    fig.subplots_adjust(left=0.6 / w, right=1 - 0.15 / w, bottom=1.05 / h, top=1 - 0.35 / h, wspace=0.3)
     axes = fig.subplots(1, len(sections), squeeze=False)[0]
     for k, (ax, sec) in enumerate(zip(axes, sections, strict=True)):
         for i, (label, regions) in enumerate(_members(sec)):

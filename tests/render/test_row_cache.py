@@ -1,0 +1,61 @@
+"""Printed rows are kept by what they depend on (render/html.py): a repeated row prints from the
+store, and a row whose values or units differ is printed anew. The moments are hand arithmetic
+(M = w L^2 / 8 for a simply supported beam under a uniform load, common practice)."""
+
+from __future__ import annotations
+
+from calcpad import Sheet
+from calcpad.render import html as html_mod
+from calcpad.render.html import sheet_html_fragment
+
+
+def _beam(w: str, span: str = "10 ft") -> str:
+    sh = Sheet("Beam")
+    sh.given("w", w, "Uniform load")
+    sh.given("L", span, "Span")
+    sh.step("M", "w*L**2/8", "Midspan moment", unit="kip*ft")
+    return sheet_html_fragment(sh.evaluate())
+
+
+def _moment_row(frag: str) -> str:
+    return frag.split('<div class="desc">Midspan moment</div>')[1].split('<div class="step')[0]
+
+
+def test_repeated_rows_print_alike_and_changed_values_print_anew() -> None:
+    html_mod._ROWS.clear()
+    first = _beam("2 kip/ft")
+    assert html_mod._ROWS  # the rows were stored
+    assert _beam("2 kip/ft") == first  # from the store: the same text as printed the first time
+    row = _moment_row(first)
+    assert "<mn>25.00</mn>" in row  # 2 x 10^2 / 8 = 25 kip-ft
+    other = _moment_row(_beam("3 kip/ft"))
+    assert "<mn>37.50</mn>" in other and "<mn>25.00</mn>" not in other  # 3 x 10^2 / 8 = 37.5 kip-ft
+    assert "<mn>3</mn>" in other or "<mn>3.000</mn>" in other
+
+
+def test_other_values_with_the_same_result_print_their_own_values() -> None:
+    html_mod._ROWS.clear()
+    a = _moment_row(_beam("2 kip/ft", "10 ft"))
+    b = _moment_row(_beam("8 kip/ft", "5 ft"))  # 8 x 5^2 / 8 = 25 kip-ft, as 2 x 10^2 / 8
+    assert "<mn>25.00</mn>" in a and "<mn>25.00</mn>" in b
+    assert "<mn>10</mn>" in a or "<mn>10.00</mn>" in a
+    assert "<mn>5</mn>" in b or "<mn>5.000</mn>" in b
+    assert a != b
+
+
+def test_same_number_other_unit_is_not_taken_from_the_store() -> None:
+    html_mod._ROWS.clear()
+    kip = _beam("2 kip/ft")
+    lbf = _beam("2 lbf/ft")
+    assert "<mn>25.00</mn>" in _moment_row(kip)
+    assert "<mn>0.02500</mn>" in _moment_row(lbf)  # 2 lbf/ft x 100 ft^2 / 8 = 25 lbf-ft = 0.025 kip-ft
+    assert 'mathvariant="normal">lbf' in lbf.split('<div class="desc">Uniform load</div>')[1].split("</div></div>")[0]
+
+
+def test_store_is_bounded(monkeypatch) -> None:
+    html_mod._ROWS.clear()
+    monkeypatch.setattr(html_mod, "_ROWS_MAX", 3)
+    for w in ("1 kip/ft", "2 kip/ft", "3 kip/ft", "4 kip/ft"):
+        _beam(w)
+        assert len(html_mod._ROWS) <= 3
+    assert "<mn>50.00</mn>" in _moment_row(_beam("4 kip/ft"))  # 4 x 100 / 8
