@@ -19,6 +19,7 @@ from typing import Any
 
 from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
+from calcpad.runner.execute import sheets_bound
 from calcpad.runner.job import CONTEXT_PARAMETERS
 from calcpad.runner.template import Template
 
@@ -30,27 +31,6 @@ NO_DISPLAY_ENV = "CALCPAD_NO_DISPLAY"
 
 class SheetBuildError(InputError):
     """A template could not build its sheets with the given values (names the cell and the message)."""
-
-
-def _sheets_in(namespace: dict[str, Any]) -> list[Sheet]:
-    seen: set[int] = set()
-    out: list[Sheet] = []
-    for name, value in namespace.items():
-        if name.startswith("_"):
-            continue
-        if isinstance(value, Sheet):
-            found = [value]
-        elif isinstance(value, (list, tuple)):
-            found = [v for v in value if isinstance(v, Sheet)]
-        elif isinstance(value, dict):
-            found = [v for v in value.values() if isinstance(v, Sheet)]
-        else:
-            continue
-        for s in found:
-            if id(s) not in seen:
-                seen.add(id(s))
-                out.append(s)
-    return out
 
 
 class SheetBuilder:
@@ -92,7 +72,7 @@ class SheetBuilder:
         plt = sys.modules.get("matplotlib.pyplot")
         if plt is not None:
             plt.close("all")
-        return _sheets_in(ns)
+        return sheets_bound(ns)
 
     def _run(self, ns: dict[str, Any], sink: io.StringIO) -> None:
         with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink), warnings.catch_warnings():

@@ -38,7 +38,7 @@ from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 from calcpad.runner.progress import RunProgress, in_notebook
 
-__all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "run_calc_inprocess", "run_job"]
+__all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "run_calc_inprocess", "run_job", "sheets_bound"]
 
 MODES = ("inprocess", "kernel")
 SHEETS_MIME = "application/vnd.calcpad.sheets+json"
@@ -99,16 +99,14 @@ def _finite(obj: Any) -> Any:
     return obj
 
 
-def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> list[dict[str, Any]]:
-    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel);
-    with ``text=True`` also the plain-text hand calc (printed by a ``--set`` run)."""
+def sheets_bound(namespace: dict[str, Any]) -> list[Any]:
+    """Every ``Sheet`` bound to a global name of ``namespace`` (also inside top-level lists,
+    tuples and dicts), once each, in the order the names were first bound; names starting with
+    ``_`` and IPython's own are skipped. The one rule for which sheets a template made."""
     from calcpad.core.sheet import Sheet
-    from calcpad.render.html import sheet_html_fragment
-    from calcpad.render.record import sheet_record
-    from calcpad.render.text import sheet_text
 
     seen: set[int] = set()
-    out: list[dict[str, Any]] = []
+    out: list[Any] = []
     for name, value in list(namespace.items()):
         if name.startswith("_") or name in _SKIP:
             continue
@@ -121,16 +119,28 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: 
         else:
             continue
         for sheet in found:
-            if id(sheet) in seen:
-                continue
-            seen.add(id(sheet))
-            result = sheet.evaluate()
-            rec = sheet_record(result)
-            rec["meta"] = {**rec["meta"], "template": template, "member": member}
-            item = {"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)}
-            if text:
-                item["text"] = sheet_text(result)
-            out.append(item)
+            if id(sheet) not in seen:
+                seen.add(id(sheet))
+                out.append(sheet)
+    return out
+
+
+def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> list[dict[str, Any]]:
+    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel);
+    with ``text=True`` also the plain-text hand calc (printed by a ``--set`` run)."""
+    from calcpad.render.html import sheet_html_fragment
+    from calcpad.render.record import sheet_record
+    from calcpad.render.text import sheet_text
+
+    out: list[dict[str, Any]] = []
+    for sheet in sheets_bound(namespace):
+        result = sheet.evaluate()
+        rec = sheet_record(result)
+        rec["meta"] = {**rec["meta"], "template": template, "member": member}
+        item = {"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)}
+        if text:
+            item["text"] = sheet_text(result)
+        out.append(item)
     return out
 
 
