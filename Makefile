@@ -22,12 +22,12 @@ demo: $(STAMP)
 	  echo "submittal: $$(dirname $$rec)/submittal.pdf (when Chromium is installed) and submittal.html; record: $$rec"
 
 test: $(STAMP)
-	$(VENV)/bin/ruff check calcpad tests benchmarks
+	$(VENV)/bin/ruff check calcpad tests benchmarks tools
 	$(VENV)/bin/pytest -q tests
 	$(VENV)/bin/pytest -q --nbval notebooks/ --nbval-current-env --nbval-sanitize-with notebooks/nbval-sanitize.cfg -p no:randomly
 
 lint: $(STAMP)
-	$(VENV)/bin/ruff check calcpad tests benchmarks
+	$(VENV)/bin/ruff check calcpad tests benchmarks tools
 
 # Plants each bug of tests/mutation/mutants.toml in a temporary copy and runs its tests (slow; not part of test/CI).
 mutation: $(STAMP)
