@@ -180,11 +180,15 @@ def _umask() -> int:
 
 
 def _is_scratch(out: Path, name: str) -> bool:
-    """A lock file, a manifest temp file, or a scratch folder carrying calcpad's marker."""
+    """A lock file, a manifest temp file, or a scratch folder carrying calcpad's marker (or empty:
+    a kill between creating the folder and writing its marker leaves it so; removing an empty
+    folder loses nothing)."""
     if name == LOCK_NAME or _SCRATCH_FILE.match(name):
         return True
     p = out / name
-    return bool(_SCRATCH.match(name)) and p.is_dir() and not p.is_symlink() and (p / SCRATCH_MARKER).is_file()
+    if not (_SCRATCH.match(name) and p.is_dir() and not p.is_symlink()):
+        return False
+    return (p / SCRATCH_MARKER).is_file() or not any(p.iterdir())
 
 
 def _make_scratch(out: Path, kind: str, revision: str) -> Path:
