@@ -10,6 +10,7 @@ __all__ = [
     "InputError",
     "NonFiniteError",
     "NotCoveredError",
+    "ProblemListError",
     "SheetError",
     "UnitInputError",
 ]
@@ -21,6 +22,23 @@ class CalcpadError(Exception):
 
 class InputError(CalcpadError, ValueError):
     """A value given to an engineering function is out of range or inconsistent."""
+
+
+class ProblemListError(InputError):
+    """Bad input with every problem found listed; ``problems`` holds ``(location, message)`` pairs.
+
+    Subclasses set ``heading``: a format with ``{source}`` and ``{count}`` ("3 problems").
+    """
+
+    heading = "{source}: {count}"
+
+    def __init__(self, source: str, problems: list[tuple[str, str]]) -> None:
+        self.source = source
+        self.problems = problems
+        count = f"{len(problems)} problem{'s' if len(problems) != 1 else ''}"
+        lines = [self.heading.format(source=source, count=count)]
+        lines += [f"  {loc}: {msg}" if loc else f"  {msg}" for loc, msg in problems]
+        super().__init__("\n".join(lines))
 
 
 class UnitInputError(InputError):

@@ -61,7 +61,7 @@ from typing import Any
 
 import pint
 
-from calcpad.core.errors import InputError
+from calcpad.core.errors import InputError, ProblemListError
 from calcpad.core.units import parse_quantity, unit_symbol
 from calcpad.eng.sections.shop import ShopTable, ShopTableError, load_shop_table
 from calcpad.runner.template import Template, TemplateError, find_template, library_template, load_template
@@ -93,15 +93,8 @@ _MARK = re.compile(r"^[A-Za-z0-9][A-Za-z0-9 ._/-]{0,31}$")
 _TOML_POS = re.compile(r"\(at line (\d+), column (\d+)\)")
 
 
-class JobError(InputError):
+class JobError(ProblemListError):
     """A job file with problems; ``problems`` lists ``(location, message)`` pairs."""
-
-    def __init__(self, source: str, problems: list[tuple[str, str]]) -> None:
-        self.source = source
-        self.problems = problems
-        lines = [f"{source}: {len(problems)} problem{'s' if len(problems) != 1 else ''}"]
-        lines += [f"  {loc}: {msg}" if loc else f"  {msg}" for loc, msg in problems]
-        super().__init__("\n".join(lines))
 
 
 @dataclass

@@ -55,7 +55,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-from calcpad.core.errors import InputError
+from calcpad.core.errors import InputError, ProblemListError
 from calcpad.core.units import Q_, parse_quantity, parse_unit
 from calcpad.eng.sections.props import STEEL_DENSITY_PCF
 from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape
@@ -125,15 +125,10 @@ _ALWAYS = ("A", "weight")
 _HEADER = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_]*)\s*(?:\[(.*)\])?\s*$")
 
 
-class ShopTableError(InputError):
+class ShopTableError(ProblemListError):
     """A shop table with problems; ``problems`` lists ``(location, message)`` pairs."""
 
-    def __init__(self, source: str, problems: list[tuple[str, str]]) -> None:
-        self.source = source
-        self.problems = problems
-        lines = [f"shop table {source}: {len(problems)} problem{'s' if len(problems) != 1 else ''}; nothing loaded"]
-        lines += [f"  {loc}: {msg}" if loc else f"  {msg}" for loc, msg in problems]
-        super().__init__("\n".join(lines))
+    heading = "shop table {source}: {count}; nothing loaded"
 
 
 @dataclass(frozen=True)
