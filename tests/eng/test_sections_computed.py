@@ -4,7 +4,8 @@ The properties a shop size gets (the shape classes with fillets and toe radii, c
 dimensions) are compared with the published values of a sample of every family (every
 ``STEP[family]``-th row of the data files the catalog ships, which hold the AISC Shapes Database
 v16.0 values; independent of calcpad's code). A property agrees when it is within 1 % plus half a
-unit of the table's third figure. Models:
+unit of the table's third figure. C_w of I-shapes and C_w, x_o of channels are compared as the
+checks compute them for a computed section (``_warping``). Models:
 
 * W, M, HP: :class:`RolledIShape`, fillet r = k_des - t_f, parallel flanges; J by El Darwish and
   Johnston with the T-junction alpha (:func:`~calcpad.eng.sections.rolled.tee_junction`).
@@ -32,6 +33,7 @@ from fractions import Fraction
 
 import pytest
 
+from calcpad.eng.checks._section import channel_warping
 from calcpad.eng.sections import BuiltUp
 from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape, RolledTee
 from calcpad.eng.sections.rolled_sloped import SlopedIShape, SlopedTee
@@ -101,15 +103,30 @@ def _close(ours: float, printed: float) -> bool:
     return abs(ours - printed) <= half_unit + TOL * abs(printed)
 
 
+def _warping(family: str, r: dict[str, str], p) -> dict[str, float]:
+    """C_w (and x_o of channels) as the checks compute them for a section that does not carry them:
+    I-shapes C_w = I_y h_o²/4 with h_o = d - t_f (AISC 360-16 F2 User Note, ``checks/flexure.py``);
+    channels the thin-wall C_w and x_o of ``checks/_section.py``, with our I_y and x̄."""
+    f = {k: float(r[k]) for k in ("d", "bf", "tf", "tw")}
+    if family in ("w", "m", "s", "hp"):
+        return {"Cw": p.Iy * (f["d"] - f["tf"]) ** 2 / 4.0}
+    cw, xo = channel_warping(f["d"], f["bf"], f["tf"], f["tw"], p.xc)
+    return {"Cw": cw, "x_o": xo, "x_o_table": float(r["x_bar"]) + float(r["e_o"])}
+
+
 def deviations(family: str, r: dict[str, str]) -> list[str]:
     """Properties of row ``r`` the model does not reproduce within 1 %, with the numbers."""
     p = _model(family, r).props
+    extra = _warping(family, r, p) if family in ("w", "m", "s", "hp", "c", "mc") else {}
     bad = []
-    for col in PROPS[family]:
+    if "x_o" in extra and not _close(extra["x_o"], extra["x_o_table"]):
+        bad.append(f"x_o {extra['x_o']:.4g} vs x̄ + e_o = {extra['x_o_table']:g} "
+                   f"({(extra['x_o'] / extra['x_o_table'] - 1) * 100:+.1f} %)")
+    for col in PROPS[family] + (("Cw",) if extra else ()):
         text = r.get(col, "").strip()
         if not text or float(text) == 0.0:
             continue
-        got, printed = float(getattr(p, OURS.get(col, col))), float(text)
+        got, printed = float(extra[col] if col in extra else getattr(p, OURS.get(col, col))), float(text)
         if col == "J" and family in J_LOWER_BOUND:
             if got > printed:
                 bad.append(f"J {got:.4g} above the table's {printed:g} (documented as a lower bound)")
@@ -125,7 +142,7 @@ def sample(family: str) -> list[dict[str, str]]:
 
 #: Sample rows outside 1 % (measured on this branch; see DEVELOPERS.md, "Computed geometry").
 KNOWN_MISSES: dict[str, str] = {
-    "w:W18x130": "Iy 281.4 vs 278 (+1.2 %)",
+    "w:W18x130": "Iy 281.4 vs 278 (+1.2 %); Cw 2.305e+04 vs 22700 (+1.5 %)",
     "m:M12.5x12.4": "A 3.673 vs 3.63 (+1.2 %); Ix 90.36 vs 89.3 (+1.2 %); Sx 14.46 vs 14.2 (+1.8 %); J 0.05481 vs 0.0493 (+11.2 %)",
     "m:M12x11.8": "A 3.524 vs 3.47 (+1.6 %); Ix 73.81 vs 72.2 (+2.2 %); Sx 12.3 vs 12 (+2.5 %); Zx 14.6 vs 14.3 (+2.1 %); Zy 1.167 vs 1.15 (+1.5 %); J 0.05606 vs 0.05 (+12.1 %)",
     "m:M12x10": "A 2.992 vs 2.95 (+1.4 %); Ix 63.36 vs 61.7 (+2.7 %); Sx 10.56 vs 10.3 (+2.5 %); Zx 12.47 vs 12.2 (+2.2 %); J 0.03267 vs 0.0292 (+11.9 %)",
@@ -158,19 +175,19 @@ KNOWN_MISSES: dict[str, str] = {
     "c:C8x11.5": "J 0.1269 vs 0.13 (-2.4 %)",
     "c:C7x9.8": "J 0.09614 vs 0.0996 (-3.5 %)",
     "c:C6x8.2": "J 0.07166 vs 0.0736 (-2.6 %)",
-    "c:C4x7.25": "J 0.06977 vs 0.0817 (-14.6 %)",
-    "c:C4x4.5": "J 0.03112 vs 0.0306 (+1.7 %)",
-    "c:C3x4.1": "Iy 0.1945 vs 0.191 (+1.8 %); Sy 0.1998 vs 0.196 (+2.0 %); ry 0.4038 vs 0.398 (+1.5 %); J 0.02449 vs 0.0269 (-9.0 %)",
+    "c:C4x7.25": "J 0.06977 vs 0.0817 (-14.6 %); Cw 1.22 vs 1.24 (-1.6 %)",
+    "c:C4x4.5": "J 0.03112 vs 0.0306 (+1.7 %); Cw 0.7624 vs 0.778 (-2.0 %)",
+    "c:C3x4.1": "Iy 0.1945 vs 0.191 (+1.8 %); Sy 0.1998 vs 0.196 (+2.0 %); ry 0.4038 vs 0.398 (+1.5 %); J 0.02449 vs 0.0269 (-9.0 %); Cw 0.3007 vs 0.307 (-2.1 %)",
     "mc:MC18x58": "Ix 666.6 vs 675 (-1.2 %); Iy 18.33 vs 17.6 (+4.1 %); Sx 74.07 vs 75 (-1.2 %); Sy 5.509 vs 5.28 (+4.3 %); Zx 94.26 vs 95.4 (-1.2 %); ry 1.041 vs 1.02 (+2.0 %); J 2.529 vs 2.81 (-10.0 %)",
-    "mc:MC13x50": "Iy 19.42 vs 16.4 (+18.4 %); Sy 5.758 vs 4.77 (+20.7 %); Zy 11.06 vs 10.2 (+8.4 %); ry 1.153 vs 1.06 (+8.8 %); J 2.515 vs 2.96 (-15.0 %)",
+    "mc:MC13x50": "x_o 1.852 vs x̄ + e_o = 1.789 (+3.5 %); Iy 19.42 vs 16.4 (+18.4 %); Sy 5.758 vs 4.77 (+20.7 %); Zy 11.06 vs 10.2 (+8.4 %); ry 1.153 vs 1.06 (+8.8 %); J 2.515 vs 2.96 (-15.0 %)",
     "mc:MC12x50": "Sx 44.35 vs 44.9 (-1.2 %); Zx 55.84 vs 56.5 (-1.2 %); J 2.891 vs 3.23 (-10.5 %)",
-    "mc:MC12x31": "A 8.994 vs 9.12 (-1.4 %); Ix 198.9 vs 202 (-1.5 %); Sx 33.15 vs 33.7 (-1.6 %); Zx 39.06 vs 39.7 (-1.6 %); J 0.9103 vs 1 (-9.0 %)",
-    "mc:MC10x33.6": "A 9.759 vs 9.87 (-1.1 %); Ix 137.1 vs 139 (-1.4 %); Iy 13.69 vs 13.1 (+4.5 %); Sx 27.42 vs 27.8 (-1.4 %); Sy 4.579 vs 4.35 (+5.3 %); Zx 33.27 vs 33.7 (-1.3 %); Zy 8.451 vs 8.28 (+2.1 %); ry 1.184 vs 1.15 (+3.0 %); J 1.034 vs 1.2 (-13.8 %)",
-    "mc:MC10x8.4": "Ix 31.52 vs 31.9 (-1.2 %); Iy 0.3805 vs 0.326 (+16.7 %); Sx 6.304 vs 6.39 (-1.4 %); Sy 0.3182 vs 0.268 (+18.7 %); Zx 7.819 vs 7.92 (-1.3 %); Zy 0.5924 vs 0.548 (+8.1 %); ry 0.3954 vs 0.364 (+8.6 %); J 0.03453 vs 0.0413 (-16.4 %)",
-    "mc:MC8x22.8": "A 6.606 vs 6.7 (-1.4 %); Ix 62.87 vs 63.8 (-1.5 %); Iy 7.311 vs 7.01 (+4.3 %); Sy 2.969 vs 2.81 (+5.6 %); Zx 18.76 vs 19.1 (-1.8 %); Zy 5.488 vs 5.37 (+2.2 %); ry 1.052 vs 1.02 (+3.1 %); J 0.4813 vs 0.572 (-15.9 %)",
-    "mc:MC8x8.5": "Ix 23 vs 23.3 (-1.3 %); Iy 0.7434 vs 0.624 (+19.1 %); Sx 5.751 vs 5.82 (-1.2 %); Sy 0.5316 vs 0.431 (+23.3 %); Zx 6.858 vs 6.95 (-1.3 %); Zy 0.9747 vs 0.875 (+11.4 %); ry 0.5485 vs 0.5 (+9.7 %); J 0.04728 vs 0.0587 (-19.5 %)",
-    "mc:MC6x15.3": "Iy 5.258 vs 4.91 (+7.1 %); Sy 2.191 vs 2.01 (+9.0 %); Zy 4.042 vs 3.85 (+5.0 %); ry 1.087 vs 1.05 (+3.5 %); J 0.1914 vs 0.223 (-14.2 %)",
-    "mc:MC6x7": "A 2.053 vs 2.09 (-1.8 %); Ix 11.21 vs 11.4 (-1.7 %); Iy 0.6632 vs 0.603 (+10.0 %); Sx 3.735 vs 3.81 (-2.0 %); Sy 0.4898 vs 0.439 (+11.6 %); Zx 4.405 vs 4.5 (-2.1 %); Zy 0.9042 vs 0.865 (+4.5 %); ry 0.5684 vs 0.537 (+5.9 %); J 0.03786 vs 0.0464 (-18.4 %)",
+    "mc:MC12x31": "A 8.994 vs 9.12 (-1.4 %); Ix 198.9 vs 202 (-1.5 %); Sx 33.15 vs 33.7 (-1.6 %); Zx 39.06 vs 39.7 (-1.6 %); J 0.9103 vs 1 (-9.0 %); Cw 262.7 vs 267 (-1.6 %)",
+    "mc:MC10x33.6": "A 9.759 vs 9.87 (-1.1 %); Ix 137.1 vs 139 (-1.4 %); Iy 13.69 vs 13.1 (+4.5 %); Sx 27.42 vs 27.8 (-1.4 %); Sy 4.579 vs 4.35 (+5.3 %); Zx 33.27 vs 33.7 (-1.3 %); Zy 8.451 vs 8.28 (+2.1 %); ry 1.184 vs 1.15 (+3.0 %); J 1.034 vs 1.2 (-13.8 %); Cw 221.2 vs 224 (-1.3 %)",
+    "mc:MC10x8.4": "x_o 0.6366 vs x̄ + e_o = 0.616 (+3.3 %); Ix 31.52 vs 31.9 (-1.2 %); Iy 0.3805 vs 0.326 (+16.7 %); Sx 6.304 vs 6.39 (-1.4 %); Sy 0.3182 vs 0.268 (+18.7 %); Zx 7.819 vs 7.92 (-1.3 %); Zy 0.5924 vs 0.548 (+8.1 %); ry 0.3954 vs 0.364 (+8.6 %); J 0.03453 vs 0.0413 (-16.4 %)",
+    "mc:MC8x22.8": "x_o 2.08 vs x̄ + e_o = 2.05 (+1.5 %); A 6.606 vs 6.7 (-1.4 %); Ix 62.87 vs 63.8 (-1.5 %); Iy 7.311 vs 7.01 (+4.3 %); Sy 2.969 vs 2.81 (+5.6 %); Zx 18.76 vs 19.1 (-1.8 %); Zy 5.488 vs 5.37 (+2.2 %); ry 1.052 vs 1.02 (+3.1 %); J 0.4813 vs 0.572 (-15.9 %); Cw 74.06 vs 75.2 (-1.5 %)",
+    "mc:MC8x8.5": "x_o 1.012 vs x̄ + e_o = 0.97 (+4.3 %); Ix 23 vs 23.3 (-1.3 %); Iy 0.7434 vs 0.624 (+19.1 %); Sx 5.751 vs 5.82 (-1.2 %); Sy 0.5316 vs 0.431 (+23.3 %); Zx 6.858 vs 6.95 (-1.3 %); Zy 0.9747 vs 0.875 (+11.4 %); ry 0.5485 vs 0.5 (+9.7 %); J 0.04728 vs 0.0587 (-19.5 %)",
+    "mc:MC6x15.3": "x_o 2.265 vs x̄ + e_o = 2.21 (+2.5 %); Iy 5.258 vs 4.91 (+7.1 %); Sy 2.191 vs 2.01 (+9.0 %); Zy 4.042 vs 3.85 (+5.0 %); ry 1.087 vs 1.05 (+3.5 %); J 0.1914 vs 0.223 (-14.2 %)",
+    "mc:MC6x7": "x_o 1.111 vs x̄ + e_o = 1.084 (+2.5 %); A 2.053 vs 2.09 (-1.8 %); Ix 11.21 vs 11.4 (-1.7 %); Iy 0.6632 vs 0.603 (+10.0 %); Sx 3.735 vs 3.81 (-2.0 %); Sy 0.4898 vs 0.439 (+11.6 %); Zx 4.405 vs 4.5 (-2.1 %); Zy 0.9042 vs 0.865 (+4.5 %); ry 0.5684 vs 0.537 (+5.9 %); J 0.03786 vs 0.0464 (-18.4 %); Cw 3.945 vs 4 (-1.4 %)",
     "l:L12x12x1-3/8": "Iz 171.8 vs 165 (+4.1 %); rz 2.348 vs 2.3 (+2.1 %); J 18.92 vs 19.9 (-4.9 %)",
     "l:L10x10x1-1/4": "Ix 216.4 vs 213 (+1.6 %); Iy 216.4 vs 213 (+1.6 %); Sx 30.68 vs 30.2 (+1.6 %); Sy 30.68 vs 30.2 (+1.6 %); Iz 89.48 vs 85.4 (+4.8 %); rz 1.952 vs 1.91 (+2.2 %); J 11.74 vs 12.3 (-4.6 %)",
     "l:L8x8x1-1/8": "J 6.752 vs 7.13 (-5.3 %)",
