@@ -73,6 +73,9 @@ class SlopedIShape(_OutlineProps, _Sloped, IShape):
     S-shapes. Frame as :class:`~calcpad.eng.sections.shapes.IShape`.
     """
 
+    table_agreement = ("computed sloped-flange I-shape properties: S-shapes of the AISC Shapes Database v16.0 within "
+                       "about 1 % (Z_y of S3x5.7 -1.4 %); J is a lower bound, 18 % to 32 % below the table (conservative)")
+
     def __init__(self, d: object, bf: object, tf: object, tw: object, r1: object = 0.0, r2: object | None = None, *,
                  slope: float = S_FLANGE_SLOPE, name: str | None = None, **kw: object) -> None:
         super().__init__(d, bf, tf, tw, 0.0, name=name, **kw)  # type: ignore[arg-type]
@@ -135,6 +138,10 @@ class SlopedIShape(_OutlineProps, _Sloped, IShape):
 
 class SlopedTee(_OutlineProps, _Sloped, Tee):
     """Tee cut from a sloped-flange I-shape (ST): flange up, stem down; radii as :class:`SlopedIShape`."""
+
+    table_agreement = ("computed sloped-flange tee properties: ST-shapes of the AISC Shapes Database v16.0 within "
+                       "1 % to 4 % (I_x, S_x of the smallest above the table); J is a lower bound, 18 % to 34 % "
+                       "below the table (conservative)")
 
     def __init__(self, d: object, bf: object, tf: object, tw: object, r1: object = 0.0, r2: object | None = None, *,
                  slope: float = S_FLANGE_SLOPE, name: str | None = None, **kw: object) -> None:
