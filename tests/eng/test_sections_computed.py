@@ -250,3 +250,19 @@ def test_computed_properties_match_the_table(family, row):
 def test_every_family_is_sampled():
     for fam in STEP:
         assert len(sample(fam)) >= 5, fam
+
+
+def test_a_check_sheet_says_how_close_a_computed_section_is():
+    from calcpad.core.sheet import Sheet
+    from calcpad.eng.checks import check_member
+    from calcpad.eng.sections import get_section
+    from calcpad.render import sheet_text
+
+    def notes(section) -> list[str]:
+        sh = Sheet("angle strut")
+        check_member(sh, section, F_y="36 ksi", L="4 ft", P="5 kip", connected_leg="long")
+        return [ln for ln in sheet_text(sh.evaluate()).splitlines() if ln.startswith("Note:") and "AISC Shapes" in ln]
+
+    computed = notes(RolledAngle(4, 4, 0.25))
+    assert len(computed) == 1 and "above the table (unconservative)" in computed[0]
+    assert notes(get_section("L4x4x1/4")) == []  # the catalog row carries the published values

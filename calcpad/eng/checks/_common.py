@@ -194,6 +194,10 @@ class Calc:
             text = f"{label}: section properties as tabulated in the {cite}"
             if not any(getattr(s, "text", None) == text for s in self.sh.steps):
                 self.sh.reference(text)
+        if caveat := getattr(source, "caveat", ""):
+            text = f"{label}: {caveat}"
+            if not any(getattr(s, "text", None) == text for s in self.sh.steps):
+                self.sh.note(text)
         note_shop_section(self.sh, label)
 
     def in_system(self, value: float, unit: str) -> str | pint.Quantity:

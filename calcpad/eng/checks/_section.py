@@ -99,6 +99,9 @@ _CLASS_KIND = {
     "RolledAngle": "angle",
     "RolledChannel": "channel",
     "RolledIShape": "i_shape",
+    "RolledTee": "tee",
+    "SlopedIShape": "i_shape",
+    "SlopedTee": "tee",
 }
 
 
@@ -113,6 +116,9 @@ class Sec:
     notes: list[str] = field(default_factory=list)
     #: The published table the properties come from (catalog shapes), else "".
     cite: str = ""
+    #: How a computed section's properties compare with the published tables (the shape's
+    #: ``table_agreement``), printed once per sheet; "" for catalog sections.
+    caveat: str = ""
 
     def get(self, name: str) -> float | None:
         """Property in inch units, or None."""
@@ -216,7 +222,8 @@ def _from_shape(shape: Any) -> Sec:
         v.update(D=shape.D)
     notes = list(getattr(p, "notes", []))
     cite = getattr(p, "source", "")
-    return Sec(kind, shape.name, v, cite or "section properties computed by calcpad.eng.sections", notes, cite)
+    caveat = "" if cite else str(getattr(shape, "table_agreement", ""))
+    return Sec(kind, shape.name, v, cite or "section properties computed by calcpad.eng.sections", notes, cite, caveat)
 
 
 def resolve_section(section: Any, kind: str | None = None) -> Sec:
