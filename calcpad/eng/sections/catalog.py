@@ -645,6 +645,8 @@ def _limit_value(name: str, value: Any) -> float:
         return float(value)
     q = parse_quantity(value, f"limit on {name}")
     unit = UNITS.get(name, "")
+    if name == "weight" and q.check("[mass]/[length]"):  # '10 kg/m': a mass per length weighs m*g
+        q = q * Q_(1.0, "standard_gravity")
     try:
         return float(q.to(unit).magnitude) if unit else float(q.to("").magnitude)
     except Exception:
@@ -662,8 +664,9 @@ def find_sections(
 ) -> pd.DataFrame:
     """Sizes of a family whose properties fall within limits, sorted (lightest first by default).
 
-    Limits are floats in the table units (in, in^2, in^3, in^4, lb/ft) or strings with units,
-    e.g. ``find_sections("hss_square", min={"Ix": "5 in^4"}, max={"b/t": 30})``.
+    Limits are floats in the table units (in, in^2, in^3, in^4; weight in lbf/ft) or strings with
+    units, e.g. ``find_sections("hss_square", min={"Ix": "5 in^4"}, max={"b/t": 30, "weight": "12 lbf/ft"})``
+    (a weight may also be written as a mass per length, ``"18 kg/m"``).
     """
     df = section_table(family, wall)
     for bounds, keep in ((min or {}, lambda s, v: s >= v), (max or {}, lambda s, v: s <= v)):
