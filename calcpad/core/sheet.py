@@ -128,7 +128,9 @@ def _fixed(x: float, decimals: int | None, sig: int) -> str:
     if decimals is None or not math.isfinite(x):
         return format_number(x, sig)
     text = f"{x:,.{decimals}f}"
-    return text[1:] if text.startswith("-") and not text.strip("-0.,") else text
+    if text.startswith("-"):  # the minus sign format_number prints, and never "-0"
+        text = "−" + text[1:] if text.strip("-0.,") else text[1:]
+    return text
 
 
 class Sheet:

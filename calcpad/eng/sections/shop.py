@@ -24,6 +24,12 @@ old rolling kept in the yard). Their table is a CSV file, one section per row::
   ========== ========================================== ==========================
 
   Every row also states ``A`` (area) and ``weight`` (per length), as the shop verified them.
+* A row may state section properties in extra columns (``J [in^4]``, ``Cw [in^6]``, ``x_bar [in]``
+  ...; which ones per family: :data:`~calcpad.eng.sections.shop_props.FAMILY_PROPERTIES`). They
+  must be positive (``H_flex`` at most 1), in a unit of their kind, and agree with the value
+  computed from the dimensions within the tolerances of :mod:`calcpad.eng.sections.shop_props`
+  (5 %; positions 5 % or 0.02 in; J of open shapes 30 %); the checks then use them, and the
+  sheet note names them.
 * Properties used by the checks are computed from the row's dimensions with the rolled
   outline (:mod:`calcpad.eng.sections.rolled`: fillets and toe radii) or the closed-form
   shapes; ``A`` must lie within :data:`AREA_TOLERANCE` of the modelled area and ``weight``
