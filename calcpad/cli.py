@@ -243,7 +243,7 @@ def job_what_if(job: Any, sets: list[str]) -> Any:
 
     from calcpad.core.errors import CalcpadError
     from calcpad.core.units import parse_quantity
-    from calcpad.runner.job import JobError
+    from calcpad.runner.job import JobError, section_problem
 
     problems: list[tuple[str, str]] = []
     changed: dict[int, Any] = {}
@@ -273,6 +273,10 @@ def job_what_if(job: Any, sets: list[str]) -> Any:
                 if calc.template.parameters[n].kind != "text":
                     qs[n] = parse_quantity(v, n)
             param.check_range(coerced, qs, where)
+            unknown = section_problem(calc.template, name, coerced, job.shop_table)
+            if unknown is not None:
+                problems.append((where, unknown))
+                continue
         except CalcpadError as exc:
             problems.append((where, str(exc).removeprefix(f"{where}: ")))
             continue

@@ -122,6 +122,17 @@ def _column_scale(rows: list[list[Any]], j: int) -> float:
     return max(mags, default=0.0)
 
 
+def _fixed(x: float, decimals: int | None, sig: int) -> str:
+    """``x`` with a column's fixed decimals (thousands separated; never "-0"), or with ``sig``
+    significant figures when the column has no fixed rule."""
+    if decimals is None or not math.isfinite(x):
+        return format_number(x, sig)
+    text = f"{x:,.{decimals}f}"
+    if text.startswith("-"):  # the minus sign format_number prints, and never "-0"
+        text = "−" + text[1:] if text.strip("-0.,") else text[1:]
+    return text
+
+
 class Sheet:
     """An ordered calc sheet of givens, steps, branches, selections and checks.
 
@@ -391,22 +402,55 @@ class Sheet:
             cols = [str(c) for c in columns]
             raw_rows = data
         raw_rows = [list(r) for r in raw_rows]
-        rows = [[self._cell(v, _column_scale(raw_rows, j)) for j, v in enumerate(row)] for row in raw_rows]
+        formats = [self._column_format(raw_rows, j) for j in range(len(cols))]
+        rows = [[self._cell(v, *formats[j]) if j < len(formats) else self._cell(v) for j, v in enumerate(row)] for row in raw_rows]
         for i, row in enumerate(rows):
             if len(row) != len(cols):
                 raise SheetError(f"table {title!r}: row {i + 1} has {len(row)} cells; expected {len(cols)}")
         self._add(Table(title, cols, rows, note))
 
-    def _cell(self, v: Any, scale: float = 0.0) -> str:
+    def _column_format(self, rows: list[list[Any]], j: int) -> tuple[float, Any, int | None]:
+        """(largest magnitude, display unit, decimals) of table column ``j``.
+
+        One column prints with one rule: its numbers (floats, or quantities of one kind, shown
+        in the unit its largest value takes) get the decimals that give the largest one the
+        sheet's significant figures, so ``1,606`` and ``0.07276`` do not stand in one column
+        as ``1,606`` and ``0.07276`` but as ``1,606`` and ``0``. Columns of mixed kinds, or
+        whose largest value needs powers of ten, keep the per-cell figures (decimals None).
+        """
+        cells = [row[j] for row in rows if j < len(row) and isinstance(row[j], (pint.Quantity, float))]
+        if not cells:
+            return 0.0, None, None
+        unit = None
+        if all(isinstance(v, pint.Quantity) for v in cells):
+            dims = {v.dimensionality for v in cells}
+            if len(dims) != 1:
+                return _column_scale(rows, j), None, None
+            unit = self.prefs.unit_for(max(cells, key=lambda v: abs(float(v.to_base_units().magnitude))))
+            mags = [abs(float(v.to(unit).magnitude)) for v in cells]
+        elif any(isinstance(v, pint.Quantity) for v in cells):
+            return _column_scale(rows, j), None, None
+        else:
+            mags = [abs(float(v)) for v in cells]
+        finite = [m for m in mags if math.isfinite(m)]
+        top = max(finite, default=0.0)
+        sig = self.prefs.sig
+        if top == 0.0 or sig <= 0 or top >= 1e9 or top < 1e-4:
+            return _column_scale(rows, j), unit, None
+        exponent = math.floor(math.log10(float(format_number(top, sig).replace(",", ""))))
+        return top, unit, max(sig - 1 - exponent, 0)
+
+    def _cell(self, v: Any, scale: float = 0.0, unit: Any = None, decimals: int | None = None) -> str:
         if isinstance(v, (pint.Quantity, float)) and scale > 0:
-            mag = float(v.magnitude) if isinstance(v, pint.Quantity) else v
+            mag = float(v.to(unit).magnitude) if isinstance(v, pint.Quantity) and unit is not None else (
+                float(v.magnitude) if isinstance(v, pint.Quantity) else v)
             if abs(mag) < 1e-9 * scale:  # round-off noise from an analysis, e.g. 1.8e-16
                 v = v * 0.0
         if isinstance(v, pint.Quantity):
-            unit = self.prefs.unit_for(v)
-            return f"{format_number(v.to(unit).magnitude, self.prefs.sig)} {unit_symbol(unit)}".strip()
+            unit = unit if unit is not None else self.prefs.unit_for(v)
+            return f"{_fixed(float(v.to(unit).magnitude), decimals, self.prefs.sig)} {unit_symbol(unit)}".strip()
         if isinstance(v, float):
-            return format_number(v, self.prefs.sig)
+            return _fixed(v, decimals, self.prefs.sig)
         return str(v)
 
     def figure(self, title: str, fig: Any, caption: str = "") -> None:

@@ -77,6 +77,8 @@ __all__ = [
     "load_job",
     "parse_job",
     "print_mode",
+    "section_parameters",
+    "section_problem",
     "single_template_job",
 ]
 
@@ -312,7 +314,77 @@ def _marks(raw: dict[str, Any], loc: str, problems: list[tuple[str, str]]) -> li
     return out
 
 
-def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], require_all: bool) -> dict[str, str | float]:
+def section_parameters(tpl: Template) -> dict[str, bool]:
+    """The template's section parameters: name -> True when it takes a comma-separated list.
+
+    A text parameter is a section parameter when its default names a catalog section (or is a
+    comma-separated list of them, e.g. the sizes of a chart).
+    """
+    from calcpad.eng.sections.catalog import check_designation
+
+    cached = tpl.__dict__.get("_section_parameters")
+    if cached is not None:
+        return cached
+    out: dict[str, bool] = {}
+    for name, p in tpl.parameters.items():
+        if p.kind != "text" or not isinstance(p.default, str) or not p.default.strip() or name in CONTEXT_PARAMETERS:
+            continue
+        items = [x.strip() for x in p.default.split(",")] if "," in p.default else [p.default]
+        try:
+            for x in items:
+                check_designation(x, _NO_SHOP)
+        except InputError:
+            continue
+        out[name] = len(items) > 1
+    tpl.__dict__["_section_parameters"] = out
+    return out
+
+
+class _NoShop:
+    """Stands for "no shop table" (check_designation's None means "the table in use")."""
+
+    name = ""
+    rows: tuple[Any, ...] = ()
+
+    def get(self, _designation: str) -> None:
+        return None
+
+
+_NO_SHOP = _NoShop()
+#: The shop table of a job whose ``shop_sections`` file had problems (already reported).
+UNREAD_SHOP: Any = _NoShop()
+
+
+def section_problem(tpl: Template, name: str, value: Any, shop: ShopTable | None) -> str | None:
+    """The message for a section parameter's value that names no section, else None.
+
+    ``shop`` is the job's shop table (None: none; :data:`UNREAD_SHOP` when the job names one
+    that could not be read, so its names are not reported again as unknown).
+
+    The value must be a catalog designation (US or AISC metric), a flat bar, or a row of the
+    job's shop table. A word without digits that the parameter's own description offers (the
+    ``custom`` of "..., or custom for D_o and t") is left to the template.
+    """
+    from calcpad.eng.sections.catalog import UnknownSectionError, check_designation
+
+    listed = section_parameters(tpl).get(name)
+    if listed is None or not isinstance(value, str) or shop is UNREAD_SHOP:
+        return None
+    items = [x.strip() for x in value.split(",")] if listed else [value.strip()]
+    for item in items:
+        if not re.search(r"\d", item) and re.search(rf"\b{re.escape(item.lower())}\b", tpl.parameters[name].description.lower()):
+            continue
+        try:
+            check_designation(item, shop if shop is not None else _NO_SHOP)
+        except UnknownSectionError as exc:
+            return str(exc)
+        except InputError as exc:
+            return str(exc)
+    return None
+
+
+def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], require_all: bool,
+            shop: ShopTable | None = None) -> dict[str, str | float]:
     if raw is None:
         raw = {}
     if not isinstance(raw, dict):
@@ -334,6 +406,10 @@ def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], 
         except InputError as exc:
             problems.append((where, str(exc).removeprefix(f"{where}: ")))
             bad = True
+            continue
+        unknown = section_problem(tpl, name, values[name], shop)
+        if unknown is not None:
+            problems.append((where, unknown))
     missing = [n for n in tpl.parameters if n not in raw and n not in CONTEXT_PARAMETERS]
     if missing and require_all:
         problems.append((f"{loc}.inputs", f"missing parameter{'s' if len(missing) > 1 else ''} {', '.join(repr(m) for m in missing)} of template {tpl.name!r}"))
@@ -409,6 +485,8 @@ def parse_job(
     if isinstance(raw.get("job"), dict) and "shop_sections" in raw["job"]:
         base = Path(base_dir) if base_dir is not None else Path(folder) if folder is not None else Path(source).parent
         shop = _shop_sections(raw["job"]["shop_sections"], base, shop_table, problems)
+    named = isinstance(raw.get("job"), dict) and "shop_sections" in raw["job"]
+    names_shop = UNREAD_SHOP if named and shop[0] is None else shop[0]
     calcs_raw = raw.get("calcs")
     calcs: list[Calc] = []
     if not isinstance(calcs_raw, list) or not calcs_raw or not all(isinstance(c, dict) for c in calcs_raw):
@@ -441,13 +519,13 @@ def parse_job(
             continue
         design = design_settings(c.get("design"), tpl, f"{loc}.design", problems) if "design" in c else None
         if "table" in c:
-            shared = _inputs(tpl, c.get("inputs"), loc, problems, require_all=False)
+            shared = _inputs(tpl, c.get("inputs"), loc, problems, require_all=False, shop=names_shop)
             shared = {n: v for n, v in shared.items() if n in (c.get("inputs") or {})}
             table = _member_table(c, loc, folder, tables, problems)
             if table is None:
                 continue
             read_tables[table.name] = table
-            for row in table_rows(table, tpl, shared, loc, problems):
+            for row in table_rows(table, tpl, shared, loc, problems, shop=names_shop):
                 key = (tpl.name, row.mark)
                 if key in seen:
                     problems.append((f"{loc}.table {table.name} row {row.row}", f"duplicate member mark {row.mark!r}: already checked with template {tpl.name!r} in {seen[key]}"))
@@ -460,7 +538,7 @@ def parse_job(
             continue
         if "table_sheet" in c:
             problems.append((f"{loc}.table_sheet", "table_sheet goes with table = \"members.xlsx\""))
-        inputs = _inputs(tpl, c.get("inputs"), loc, problems, require_all=True)
+        inputs = _inputs(tpl, c.get("inputs"), loc, problems, require_all=True, shop=names_shop)
         for where, mark in marks:
             key = (tpl.name, mark)
             if key in seen:

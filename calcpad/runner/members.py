@@ -13,7 +13,8 @@ The header names the columns: ``mark`` (the member mark) and template parameters
 optional unit in brackets (``L [in]``); a cell with a plain number takes the header's unit, a
 cell may also carry its own (``30 in``). Every cell goes through the template parameter's own
 checks (``Parameter.coerce``: the value parser of ``core/value_text.py``, kind, dimension;
-``check_range``). A parameter whose default is a catalog section must name a catalog section.
+``check_range``). A parameter whose default is a catalog section must name a catalog section or a
+row of the job's shop table (``[job] shop_sections``).
 Every problem is collected with its row number (as a spreadsheet shows it: the header is row 1)
 and column into one :class:`~calcpad.runner.job.JobError`.
 
@@ -139,25 +140,14 @@ def read_member_table(path: Path, name: str, sheet: str | None = None) -> Member
     return MemberTable(name, tuple(header), rows, hashlib.sha256(data).hexdigest())
 
 
-def _is_section(default: Any) -> bool:
-    from calcpad.eng.sections.catalog import get_entry
-
-    if not isinstance(default, str):
-        return False
-    try:
-        get_entry(default)
-    except InputError:
-        return False
-    return True
-
-
 def table_rows(
-    table: MemberTable, tpl: Template, shared: dict[str, str | float], loc: str, problems: list[tuple[str, str]]
+    table: MemberTable, tpl: Template, shared: dict[str, str | float], loc: str, problems: list[tuple[str, str]],
+    shop: Any = None,
 ) -> list[MemberRow]:
     """Check a table against ``tpl``; one :class:`MemberRow` per row. Problems are appended, each
-    with ``loc``, the table name, the row number and the column."""
-    from calcpad.eng.sections.catalog import get_entry
-    from calcpad.runner.job import CONTEXT_PARAMETERS, _suggest
+    with ``loc``, the table name, the row number and the column. Section cells must name a
+    catalog section or a row of ``shop`` (the job's shop table)."""
+    from calcpad.runner.job import CONTEXT_PARAMETERS, _suggest, section_problem
 
     where = f"{loc}.table {table.name}"
     params = {n: p for n, p in tpl.parameters.items() if n not in CONTEXT_PARAMETERS}
@@ -217,7 +207,6 @@ def table_rows(
         problems.append((where, "no member rows below the header"))
     if mark_col is None:
         return []
-    sections = {n for n, p in params.items() if p.kind == "text" and _is_section(p.default)}
     out: list[MemberRow] = []
     marks: dict[str, int] = {}
     for i, cells in enumerate(table.rows, start=2):
@@ -255,13 +244,11 @@ def table_rows(
                 problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
                 row_ok = False
                 continue
-            if pname in sections:
-                try:
-                    get_entry(str(values[pname]))
-                except InputError as exc:
-                    problems.append((cell_at, f"unknown section: {exc}"))
-                    row_ok = False
-                    continue
+            unknown = section_problem(tpl, pname, values[pname], shop)
+            if unknown is not None:
+                problems.append((cell_at, unknown))
+                row_ok = False
+                continue
             typed[pname] = text
         if not row_ok:
             continue
@@ -376,7 +363,9 @@ def run_table(
             shared[n] = tpl.parameters[n].coerce(v, f"inputs.{n}")
         except InputError as exc:
             problems.append((f"inputs.{n}", str(exc)))
-    rows = table_rows(data, tpl, shared, "calc", problems)
+    from calcpad.eng.sections.shop import active_shop_table
+
+    rows = table_rows(data, tpl, shared, "calc", problems, shop=active_shop_table())
     if problems:
         raise JobError(str(path), problems)
     calcs = [Calc(i, f"table row {r.row}", tpl, r.mark, r.inputs, "", r.typed, table=data.name, row=r.row) for i, r in enumerate(rows, start=1)]

@@ -65,9 +65,9 @@ def test_bad_table_is_refused_with_every_problem_and_its_row(tmp_path: Path, cap
     assert "missing column 'N'" in text
     assert "row 2, column B (P): 'abc'" in text
     assert "row 3, column C (L): empty cell" in text
-    assert "row 3, column D (leg): unknown section" in text and "Pipe 9 Std" in text
+    assert "row 3, column D (leg): section designation: 'Pipe 9 Std' is not in the catalog; did you mean" in text
     assert "row 4, column C (L): '36 kg' is a mass" in text
-    assert "row 4, column D (leg): unknown section" in text
+    assert "row 4, column D (leg): section designation: 'W99x1' is not in the catalog" in text
     out = tmp_path / "out"
     assert main(["run", str(jp), "--out", str(out), "--no-pdf"]) == 2
     assert not out.exists()  # nothing written

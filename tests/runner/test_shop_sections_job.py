@@ -7,6 +7,7 @@ L2-1/2x2-1/2x1/4: A = 1.19 in^2, 4.1 lb/ft (from memory). Digests are computed h
 
 from __future__ import annotations
 
+import dataclasses
 import hashlib
 import json
 from pathlib import Path
@@ -130,5 +131,13 @@ def test_a_job_without_shop_sections_ignores_a_table_named_in_the_environment(tm
     monkeypatch.setenv(ENV_SHA256, hashlib.sha256(SHOP.encode("utf-8")).hexdigest())
     job = tmp_path / "job.toml"
     job.write_text(JOB_HEAD + BRACE, encoding="utf-8")
-    (outcome,) = run_job(load_job(job))
+    with pytest.raises(JobError) as err:  # the job is read without the stray table: the name is unknown
+        load_job(job)
+    assert "'L2-1/2x2-1/2x1/4 KYF' is not in the catalog" in str(err.value)
+    # and a calc that reaches the kernel anyway (its inputs changed after reading) does not see it either
+    job.write_text(JOB_HEAD + BRACE.replace("L2-1/2x2-1/2x1/4 KYF", "L2-1/2x2-1/2x1/4"), encoding="utf-8")
+    loaded = load_job(job)
+    calc = loaded.calcs[0]
+    loaded.calcs[0] = dataclasses.replace(calc, inputs={**calc.inputs, "brace": "L2-1/2x2-1/2x1/4 KYF"})
+    (outcome,) = run_job(loaded)
     assert outcome.error is not None and "is not in the catalog" in outcome.error["message"]

