@@ -68,7 +68,7 @@ class _Pool:
     allocator, whose fresh pages cost more than the arithmetic. One per thread (Dask workers may
     run threads), kept between calls and bounded."""
 
-    MAX_BUFFERS = 64
+    MAX_BUFFERS = 32
 
     def __init__(self) -> None:
         self.free: dict[tuple[int, ...], list[np.ndarray]] = {}
@@ -80,6 +80,11 @@ class _Pool:
             self.count -= 1
             return stack.pop()
         return np.empty(shape)
+
+    def keep_rows(self, rows: set[int]) -> None:
+        """Drop the buffers whose first dimension is none of ``rows`` (another call's blocks)."""
+        self.free = {s: v for s, v in self.free.items() if s and s[0] in rows}
+        self.count = sum(len(v) for v in self.free.values())
 
     def give(self, a: Any) -> None:
         if self.count < self.MAX_BUFFERS and a.base is None and a.dtype == np.float64:  # never a view (an output)
@@ -622,8 +627,18 @@ class CompiledSheet:
         into whole-size arrays in ``env``, failures into whole-size masks in ``fails``."""
         plan = [(name, fn) for name, fn in self._plan if name in blocked]
         cut = [n for n in env if n in blocked]  # the givens cut into blocks
+        last_use = {}  # step -> index in plan of the last step that reads it (its buffer is free after)
+        for i, (name, _fn) in enumerate(plan):
+            last_use[name] = i
+            for r in self._reads[name]:
+                if r in last_use:
+                    last_use[r] = i
+        free_after: list[list[str]] = [[] for _ in plan]
+        for name, i in last_use.items():
+            free_after[i].append(name)
         out: dict[str, np.ndarray] = {}
         pool = _thread_pool()
+        pool.keep_rows({step_rows, shape[0] % step_rows or step_rows})
         block = dict(env)
         block[_POOL] = pool
         block[_TARGET] = None
@@ -631,13 +646,13 @@ class CompiledSheet:
             rows = slice(start, min(start + step_rows, shape[0]))
             for n in cut:
                 block[n] = env[n][rows]
-            made = []  # this block's own step arrays: back to the pool when the block is done
-            for name, fn in plan:
+            made = {}  # this block's own step arrays: back to the pool after their last reader
+            for i, (name, fn) in enumerate(plan):
                 target = block[_TARGET] = out[name][rows] if name in out else None
                 v, own = fn(block)
                 block[name] = v
                 if own:
-                    made.append(v)
+                    made[name] = v
                 if keep is None or name in keep:
                     if name not in out:
                         vshape = np.broadcast_shapes(np.shape(v), (rows.stop - rows.start,) + (1,) * (len(shape) - 1))
@@ -649,8 +664,9 @@ class CompiledSheet:
                     if name not in fails:
                         fails[name] = np.zeros(shape, dtype=bool)
                     fails[name][rows] |= bad_here
-            for v in made:
-                pool.give(v)
+                for done in free_after[i]:
+                    if done in made:
+                        pool.give(made.pop(done))
         env.update(out)
 
     def describe_failure(self, name: str, env: dict[str, Any], shape: tuple[int, ...], idx: tuple[int, ...]) -> str:
