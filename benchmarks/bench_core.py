@@ -29,10 +29,15 @@
    hardly moved by other work on the shared cores) and as wall time (``perf_counter``); the
    ratio lines use CPU time, the wall-time median ratio is printed beside them.
 
-2. Compiled sheet vs per-case sympy substitution (goal >= 1000x faster per case).
-3. ``import calcpad`` vs ``import sympy, pint`` in fresh interpreters (goal <= 1.2x).
+2. Design search over the whole pipe family (every size) for ``--members`` leg members
+   (template leg_bending, loads and lengths varying): cases (members x sizes) per second, with
+   the time split into the compiled evaluation of every case (``CompiledSheet.ratios``) and the
+   ordinary build that re-checks each member's chosen size and runner-up (``search._scalar_ok``).
+3. Compiled sheet vs per-case sympy substitution (goal >= 1000x faster per case).
+4. ``import calcpad`` vs ``import sympy, pint`` in fresh interpreters (goal <= 1.2x).
 
-Run: ``.venv/bin/python benchmarks/bench_core.py [--rounds 15] [--big-rounds 7] [--skip-import]``
+Run: ``.venv/bin/python benchmarks/bench_core.py [--rounds 15] [--big-rounds 7] [--members 1000]
+[--only-compiled] [--skip-search] [--skip-import]``
 """
 
 from __future__ import annotations
@@ -210,16 +215,61 @@ def compiled_section(rounds: int, big_rounds: int) -> float:
     return per_case
 
 
+def search_section(n_members: int) -> None:
+    """Part 2: design search throughput, serial, with the compiled and re-check parts timed apart."""
+    from calcpad.core.compiled import CompiledSheet
+    from calcpad.runner import search as search_mod
+    from calcpad.runner.template import find_template, load_template
+
+    tpl = load_template(find_template("leg_bending"))
+    base = {k: p.default for k, p in tpl.parameters.items() if k not in ("member_mark", "calc_title")}
+    members = [(f"M{i}", {**base, "P": f"{30 + (i * 13) % 900} lbf", "L": f"{12 + (i * 7) % 150} in", "N": f"{(i * 11) % 400} lbf"})
+               for i in range(n_members)]
+    settings = {"parameter": "leg", "family": "pipe"}
+    n_sizes = len(search_mod.candidates("pipe"))
+    spent = {"compiled": 0.0, "recheck": 0.0}
+
+    def timed(key, fn):
+        def run(*a, **k):
+            t0 = time.process_time()
+            try:
+                return fn(*a, **k)
+            finally:
+                spent[key] += time.process_time() - t0
+        return run
+
+    search_mod.search(tpl, members[:3], settings)  # warm-up: template, catalog, compiled code paths
+    ratios, scalar_ok = CompiledSheet.ratios, search_mod._scalar_ok
+    CompiledSheet.ratios = timed("compiled", ratios)
+    search_mod._scalar_ok = timed("recheck", scalar_ok)
+    try:
+        w0, c0 = time.perf_counter(), time.process_time()
+        found = search_mod.search(tpl, members, settings)
+        cpu, wall = time.process_time() - c0, time.perf_counter() - w0
+    finally:
+        CompiledSheet.ratios, search_mod._scalar_ok = ratios, scalar_ok
+    cases = n_members * n_sizes
+    chosen = sum(r.chosen is not None for r in found)
+    print(f"design search, {n_members} members x {n_sizes} pipe sizes = {cases:,} cases (serial; {chosen} members found a size):")
+    print(f"  {cases / cpu:,.0f} cases/s CPU time ({cpu:.2f} s), {cases / wall:,.0f} cases/s wall time ({wall:.2f} s)")
+    print(f"  of which compiled evaluation of every case: {spent['compiled']:.3f} s CPU ({cases / max(spent['compiled'], 1e-9):,.0f} cases/s); "
+          f"ordinary build re-checking chosen size and runner-up ({2 * n_members} builds at most): {spent['recheck']:.2f} s CPU")
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--rounds", type=int, default=15, help="interleaved rounds at 1e6 cases")
     ap.add_argument("--big-rounds", type=int, default=7, help="interleaved rounds at 1e7 cases")
     ap.add_argument("--skip-import", action="store_true", help="skip part 3 (import times)")
     ap.add_argument("--only-compiled", action="store_true", help="part 1 only")
+    ap.add_argument("--skip-search", action="store_true", help="skip part 2 (design search)")
+    ap.add_argument("--members", type=int, default=1000, help="members in the design search")
     args = ap.parse_args()
     per_case_compiled = compiled_section(args.rounds, args.big_rounds)
     if args.only_compiled:
         return
+    if not args.skip_search:
+        search_section(args.members)
     rng = np.random.default_rng(2)
     P, L = rng.uniform(50, 500, 200), rng.uniform(24, 120, 200)
     syms = {n: sp.Symbol(n) for n in ("P", "L", "D_o", "t", "F_y")}
