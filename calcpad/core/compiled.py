@@ -381,7 +381,8 @@ class CompiledResult(dict[str, Any]):
     Attributes:
         valid: Boolean array over the cases (the broadcast shape of the inputs; ``()`` for one
             case): True where every step value and check ratio is finite and every check
-            capacity is greater than zero. Values of invalid cases are NaN.
+            capacity is greater than zero. Values of invalid cases are NaN. Read-only (a
+            broadcast view when every case is valid).
     """
 
     def __init__(
@@ -593,8 +594,8 @@ class CompiledSheet:
         raw = dict(env)
         if keep is not None:
             env = {k: env[k] for k in self._checks}
-        if not fails:
-            return CompiledResult(env, np.ones(shape, dtype=bool), [], self, raw)
+        if not fails:  # every case valid: a read-only view, not an array of a byte per case
+            return CompiledResult(env, np.broadcast_to(np.True_, shape), [], self, raw)
         bad = np.zeros(shape, dtype=bool)
         failures: list[tuple[str, np.ndarray]] = []
         for name, _fn in self._plan:  # first failing step per case, in evaluation order
