@@ -139,6 +139,19 @@ def compiled_before(sheet: Sheet, tmp: Path):
 WALL: dict[str, list[float]] = {}  # wall seconds of the last interleaved() run, per side
 
 
+def agreement(f, ins: dict[str, np.ndarray], si: tuple[np.ndarray, ...]) -> float:
+    """Largest relative difference between the compiled outputs (display units, taken to SI base
+    with pint) and the hand chain's: the two sides compute the same numbers."""
+    from calcpad.core.units import Q_
+
+    out, hand = f(**ins), hand_numpy(*si)
+    worst = 0.0
+    for name, key in (("M", "M"), ("I", "I"), ("sigma_b", "sigma_b"), ("FS", "FS"), ("chk_yield", "ratio")):
+        k = float(Q_(1.0, f.units[name]).to_base_units().magnitude) if f.units[name] else 1.0
+        worst = max(worst, float(np.max(np.abs(out[name] * k / hand[key] - 1.0))))
+    return worst
+
+
 def interleaved(sides: dict[str, object], rounds: int) -> dict[str, list[float]]:
     """CPU seconds per side per round (wall seconds in ``WALL``); the order alternates (forward,
     then backward) every round. The result of each call is dropped before the next one runs."""
@@ -202,6 +215,8 @@ def compiled_section(rounds: int, big_rounds: int) -> float:
                  "tuned": lambda si=si: hand_numpy_tuned(*si), "same": lambda si=si: hand_numpy_same_work(*si),
                  "now_ratios": lambda ins=ins: f.ratios(**ins), "before_ratios": lambda ins=ins: f_old.ratios(**ins),
                  "hand_ratio": lambda si=si: hand_numpy_ratio(*si)}
+        if n == N:
+            print(f"  same numbers: largest relative difference compiled vs hand numpy over M, I, sigma_b, FS, ratio = {agreement(f, ins, si):.1e}")
         t = interleaved(sides, rounds if n == N else big_rounds)
         speeds = ", ".join(f"{k} {n / np.median(v) / 1e6:.1f}" for k, v in t.items())
         print(f"all five inputs varying, {n:.0e} cases (M cases/s, CPU-time medians): {speeds}")
