@@ -197,7 +197,7 @@ def _ltb_f2(calc: Calc, sec: Sec, *, channel: bool) -> None:
         calc.step("c", "h_o/2*sqrt(I_y/C_w)", "Factor c for channels", ref="AISC 360-16 Eq. F2-8b")
         jc, note = "J*c", ""
     elif sec.get("Cw") is not None:
-        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant, as tabulated", sec, shared=True)
+        calc.prop("C_w", sec.need("Cw", "F2"), "in**6", "Warping constant", sec, shared=True)
         jc, note = "J", " (c = 1)"
     else:
         calc.step_once("C_w", "I_y*h_o**2/4", "Warping constant, doubly symmetric I", unit="in^6", ref="AISC 360-16 F2 User Note")

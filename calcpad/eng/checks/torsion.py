@@ -97,11 +97,11 @@ def add_torsion_check(
 
 
 def _torsional_constant(calc: Calc, sec: Any, formula: str) -> None:
-    """C_T: the tabulated HSS torsional constant when the section carries one (catalog shapes),
-    else the H3.1 User Note formula."""
+    """C_T: the HSS torsional constant the section carries (catalog shapes: as tabulated; computed
+    round tubes: 2J/D as the tables compute it), else the H3.1 User Note formula."""
     tabulated = sec.get("C")
     if tabulated is not None:
-        calc.prop("C_T", tabulated, "in**3", "HSS torsional constant, as tabulated", sec)
+        calc.prop("C_T", tabulated, "in**3", "HSS torsional constant", sec)
     else:
         calc.step("C_T", formula, "Torsional constant", unit="in^3", ref="AISC 360-16 H3.1 User Note")
 

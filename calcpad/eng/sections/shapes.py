@@ -263,9 +263,10 @@ class RoundTube(Shape):
             Zx=(D**3 - Di**3) / 6.0,
             Zy=(D**3 - Di**3) / 6.0,
             J=2.0 * I,
-            C=math.pi * (D - t) ** 2 * t / 2.0,
+            C=2.0 * (2.0 * I) / D,
             ratios={"D/t": D / t},
-            notes=["J = 2*I (exact); C = pi*(D - t)**2*t/2 per AISC 360-16 H3.1"],
+            notes=["J = 2*I (exact); C = 2*J/D, the elastic value the AISC Manual tables list (the H3.1 User "
+                   "Note's pi*(D - t)**2*t/2 is 1-10 % larger)"],
         )
 
 
