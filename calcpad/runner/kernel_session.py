@@ -31,6 +31,11 @@ from calcpad.runner.template import Template, is_what_if_cell
 __all__ = ["KernelSession"]
 
 
+_WARM_UP = """\
+import calcpad.runner.kernel_calc, calcpad.runner.execute, calcpad.render.html, calcpad.render.record, calcpad.render.text
+"""
+
+
 class _KernelLostError(Exception):
     """The kernel died or did not answer in time (the message says which)."""
 
@@ -72,6 +77,11 @@ class KernelSession:
         self.kc.start_channels()
         self.kc.wait_for_ready(timeout=120)
         self.defined.clear()
+        # The kernel imports the engine while this process imports what writes the notebooks
+        # (papermill takes seconds); the first calc's request queues behind it.
+        self.kc.execute(_WARM_UP, silent=True, store_history=False, allow_stdin=False)
+        import nbformat  # noqa: F401
+        import papermill.parameterize  # noqa: F401
 
     def close(self) -> None:
         """Stop the kernel."""
