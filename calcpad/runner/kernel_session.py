@@ -65,7 +65,8 @@ class KernelSession:
             env.pop(ENV_PATH, None)
             env.pop(ENV_SHA256, None)
         self.env = env
-        self.defined: dict[str, str] = {}  # template key -> the key it has in the kernel
+        self.defined: set[str] = set()  # keys of the templates defined in the current kernel
+        self._specs: dict[int, tuple[Template, str, str]] = {}  # id(template) -> (template, key, spec)
         self._start()
 
     def _start(self) -> None:
@@ -134,15 +135,18 @@ class KernelSession:
         return payload, failure
 
     def _define(self, tpl: Template) -> str:
-        cells = _cells_to_run(tpl)
-        spec = json.dumps({"name": tpl.name, "cells": cells})
-        digest = hashlib.sha256(spec.encode("utf-8")).hexdigest()[:16]
-        key = f"{tpl.name}-{digest}"
-        if self.defined.get(key) is None:
+        """The key of ``tpl`` in the kernel, its cells sent and compiled there on first use."""
+        known = self._specs.get(id(tpl))
+        if known is None or known[0] is not tpl:
+            spec = json.dumps({"name": tpl.name, "cells": _cells_to_run(tpl)})
+            known = (tpl, f"{tpl.name}-{hashlib.sha256(spec.encode('utf-8')).hexdigest()[:16]}", spec)
+            self._specs[id(tpl)] = known
+        _tpl, key, spec = known
+        if key not in self.defined:
             _payload, failure = self._request(f"__import__('calcpad.runner.kernel_calc', fromlist=['define']).define({key!r}, {spec!r})")
             if failure is not None:
                 raise _DefineError(failure)
-            self.defined[key] = key
+            self.defined.add(key)
         return key
 
     # ------------------------------------------------------------------ calcs
