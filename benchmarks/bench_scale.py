@@ -4,15 +4,22 @@
 2. A large generated sweep (lateral load x leg length x pipe size) with the envelope, no table.
 3. Design search over the whole pipe family for many members (cases = members x sizes per second).
 
-Run: ``.venv/bin/python benchmarks/bench_scale.py [--calcs 2000] [--sweep 20000000] [--members 1000]``
-(2-core shared machine, other work running: read the ratios, not the absolutes; goal >= 1.6x).
-The cluster start-up is timed apart and not counted in the ratios.
+Then the machine's ideal for the batch and the sweep: the same work split between ``--workers``
+independent serial processes started together (no Dask) against one process doing all of it,
+each warmed up first; the cluster's ratio is printed as a share of that ideal (on a shared machine
+whose cores are busy with other work, two processes may not be faster than one).
+
+Run: ``.venv/bin/python benchmarks/bench_scale.py [--calcs 2000] [--sweep 20000000] [--members 1000]
+[--no-search] [--no-ideal]`` (2-core shared machine, other work running: read the ratios, not the
+absolutes; goal >= 1.6x). The cluster start-up is timed apart and not counted in the ratios.
 """
 
 from __future__ import annotations
 
 import argparse
+import json
 import math
+import subprocess
 import sys
 import time
 from pathlib import Path
@@ -49,17 +56,95 @@ def _warm() -> None:
     SheetBuilder(tpl).sheets({k: p.default for k, p in tpl.parameters.items()})
 
 
+#: A child process for the machine's ideal: imports and warms up, says "ready", waits for "go",
+#: runs its part of the work serially and prints the seconds. argv: kind, n, part, parts.
+IDEAL_CHILD = r"""
+import sys, time
+sys.path.insert(0, sys.argv[5])
+sys.path.insert(0, sys.argv[5] + "/benchmarks")
+import bench_scale as b
+kind, n, part, parts = sys.argv[1], int(sys.argv[2]), int(sys.argv[3]), int(sys.argv[4])
+work = b.ideal_part(kind, n, part, parts)
+work(warm=True)
+print("ready", flush=True)
+sys.stdin.readline()
+t = time.perf_counter()
+work(warm=False)
+print(time.perf_counter() - t, flush=True)
+"""
+
+
+def _sweep_axes(cases: int, p_part: int = 0, parts: int = 1) -> dict[str, list[str]]:
+    """The benchmark sweep's axes (lateral load x leg length x pipe size); ``p_part`` of ``parts``
+    takes that share of the load axis (the ideal's split of the work)."""
+    sizes = ["Pipe 1 Std", "Pipe 1-1/2 Std", "Pipe 2 Std", "Pipe 2-1/2 Std", "Pipe 3 Std"]
+    side = max(2, int(math.sqrt(cases / len(sizes))))
+    loads = steps("20 lbf", "900 lbf", side)
+    a, b = p_part * len(loads) // parts, (p_part + 1) * len(loads) // parts
+    return {"leg": sizes, "P": loads[a:b], "L": steps("6 in", "160 in", side)}
+
+
+def ideal_part(kind: str, n: int, part: int, parts: int):
+    """The work of one process of the ideal: part ``part`` of ``parts`` of the batch (its calcs)
+    or of the sweep (its share of the load axis), as a callable ``work(warm)``."""
+    tpl = load_template(find_template("leg_bending"))
+    if kind == "batch":
+        job = _job(n)
+        a, b = part * n // parts, (part + 1) * n // parts
+        mine = Job(job.info, job.calcs[a:b])
+        return lambda warm: run_job(Job(job.info, job.calcs[:2]) if warm else mine)
+    axes = _sweep_axes(n, part, parts)
+    small = {k: v[:3] for k, v in axes.items()}
+    return lambda warm: sweep(tpl, {}, small if warm else axes, envelope="L", table=False, chunk_cases=1_000_000)
+
+
+def ideal(kind: str, n: int, parts: int) -> tuple[float, float]:
+    """What the machine gives: (seconds of one process doing all the work, wall seconds of
+    ``parts`` independent processes doing a share each at the same time), each process warmed
+    up before the clock starts."""
+
+    def run(k: int) -> float:
+        procs = [subprocess.Popen([sys.executable, "-c", IDEAL_CHILD, kind, str(n), str(i), str(k), str(ROOT)],
+                                  stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True) for i in range(k)]
+        try:
+            for p in procs:
+                if p.stdout.readline().strip() != "ready":
+                    raise SystemExit(f"ideal child ({kind}) failed to start")
+            t = time.perf_counter()
+            for p in procs:
+                p.stdin.write("go\n")
+                p.stdin.flush()
+            for p in procs:
+                json.loads(p.stdout.readline())
+            return time.perf_counter() - t
+        finally:
+            for p in procs:
+                p.wait()
+
+    return run(1), run(parts)
+
+
+def print_ideal(calcs: int, cases: int, workers: int, batch_ratio: float, sweep_ratio: float) -> None:
+    """The machine's ideal beside the cluster's ratios: ``workers`` independent serial processes
+    on a share of the work each vs one process on all of it (no Dask; each warmed up)."""
+    print(f"ideal on this machine: {workers} independent serial processes (a share each) vs 1 process (all), no Dask:")
+    for kind, n, ratio in (("batch", calcs, batch_ratio), ("sweep", cases, sweep_ratio)):
+        one, many = ideal(kind, n, workers)
+        print(f"  {kind:6s} 1 process {one:7.1f} s, {workers} processes {many:7.1f} s: ideal {one / many:5.2f}x; "
+              f"dask {ratio:5.2f}x = {ratio / (one / many):4.0%} of the ideal")
+
+
 def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--calcs", type=int, default=2000)
     ap.add_argument("--sweep", type=int, default=20_000_000, help="sweep cases (about)")
     ap.add_argument("--members", type=int, default=1000)
     ap.add_argument("--workers", type=int, default=2)
+    ap.add_argument("--no-ideal", action="store_true", help="skip the machine's ideal (independent serial processes)")
+    ap.add_argument("--no-search", action="store_true", help="skip the design search workload")
     args = ap.parse_args()
     tpl = load_template(find_template("leg_bending"))
-    sizes = ["Pipe 1 Std", "Pipe 1-1/2 Std", "Pipe 2 Std", "Pipe 2-1/2 Std", "Pipe 3 Std"]
-    side = max(2, int(math.sqrt(args.sweep / len(sizes))))
-    axes = {"leg": sizes, "P": steps("20 lbf", "900 lbf", side), "L": steps("6 in", "160 in", side)}
+    axes = _sweep_axes(args.sweep)
     job = _job(args.calcs)
     members = _members(args.members)
     settings = {"parameter": "leg", "family": "pipe"}
@@ -85,10 +170,14 @@ def main() -> None:
     # each workload serial then on the cluster, one right after the other (the machine is shared)
     t_batch_serial, serial_batch = serial(lambda: run_job(job))
     t_batch_dask, dask_batch = on_cluster(lambda c: run_calcs_on_cluster(job, c))
-    t_sweep_serial, s1 = serial(lambda: sweep(tpl, {}, axes, envelope="L", table=False))
+    t_sweep_serial, s1 = serial(lambda: sweep(tpl, {}, axes, envelope="L", table=False, chunk_cases=1_000_000))
     t_sweep_dask, s2 = on_cluster(lambda c: sweep(tpl, {}, axes, envelope="L", table=False, client=c, chunk_cases=1_000_000))
-    t_search_serial, r1 = serial(lambda: search(tpl, members, settings))
-    t_search_dask, r2 = on_cluster(lambda c: search_on_cluster(c, tpl, members, settings))
+    if args.no_search:
+        t_search_serial = t_search_dask = float("nan")
+        r1 = r2 = None
+    else:
+        t_search_serial, r1 = serial(lambda: search(tpl, members, settings))
+        t_search_dask, r2 = on_cluster(lambda c: search_on_cluster(c, tpl, members, settings))
     t_start = max(startup)
     same_batch = [o.sheets for o in serial_batch] == [o.sheets for o in dask_batch]
     same_sweep = s1.passed == s2.passed and s1.envelope.equals(s2.envelope)
@@ -97,10 +186,14 @@ def main() -> None:
     print(f"{'workload':44s} {'serial s':>9s} {'dask s':>9s} {'speed-up':>9s}  identical")
     print(f"{f'batch: {args.calcs} leg calcs, full rendering':44s} {t_batch_serial:9.1f} {t_batch_dask:9.1f} {t_batch_serial / t_batch_dask:8.2f}x  {same_batch}")
     print(f"{f'sweep: {s1.cases:,} cases, envelope':44s} {t_sweep_serial:9.1f} {t_sweep_dask:9.1f} {t_sweep_serial / t_sweep_dask:8.2f}x  {same_sweep}")
-    print(f"{f'search: {args.members} members x {n_sizes} pipe sizes':44s} {t_search_serial:9.1f} {t_search_dask:9.1f} {t_search_serial / t_search_dask:8.2f}x  {same_search}")
+    if not args.no_search:
+        print(f"{f'search: {args.members} members x {n_sizes} pipe sizes':44s} {t_search_serial:9.1f} {t_search_dask:9.1f} {t_search_serial / t_search_dask:8.2f}x  {same_search}")
+    if not args.no_ideal:
+        print_ideal(args.calcs, args.sweep, args.workers, t_batch_serial / t_batch_dask, t_sweep_serial / t_sweep_dask)
     cases = args.members * n_sizes
-    print(f"design search throughput: serial {cases / t_search_serial:,.0f} cases/s ({args.members / t_search_serial:.0f} members/s), "
-          f"dask {cases / t_search_dask:,.0f} cases/s (each chosen size and runner-up re-checked by an ordinary build)")
+    if not args.no_search:
+        print(f"design search throughput: serial {cases / t_search_serial:,.0f} cases/s ({args.members / t_search_serial:.0f} members/s), "
+              f"dask {cases / t_search_dask:,.0f} cases/s (each chosen size and runner-up re-checked by an ordinary build)")
 
 
 if __name__ == "__main__":

@@ -5,11 +5,13 @@ Two modes give the same sheets (and so the same record):
 - ``inprocess`` (default): each code cell of the template (trusted engineering code) is compiled
   and run in a fresh namespace in this process. The parameters cell is *not* run: the job's
   values are placed in the namespace as plain Python strings/numbers — they are data, never code.
-- ``kernel``: papermill-style — the notebook gets a cell tagged ``injected-parameters`` after the
-  ``parameters`` cell (papermill writes the values as string/number literals), and nbclient runs
-  it in one Jupyter kernel shared by all calcs of the run (namespace reset between calcs), the
-  ``calcpad`` kernel the set-up registers (``runner.kernel``; ``python3`` when it is missing). The
-  executed notebooks are kept and ask for that kernel, like the stored templates. nbclient/nbformat/papermill are imported only on this path.
+- ``kernel``: one Jupyter kernel for the run (the ``calcpad`` kernel the set-up registers,
+  ``runner.kernel``; ``python3`` when it is missing): each template's cells are sent to it once,
+  then each calc is one request with the job's values as JSON (``runner.kernel_session`` and, in
+  the kernel, ``runner.kernel_calc``). The kernel runs the same cells in a fresh namespace and
+  returns the same collected sheets, plus each cell's outputs: the executed notebooks are kept
+  (papermill-style ``injected-parameters`` cell) and ask for that kernel, like the stored
+  templates. jupyter_client/nbformat/papermill are imported only on this path.
 
 Sheets are the :class:`~calcpad.core.sheet.Sheet` objects bound to the template's global names
 (also inside top-level lists, tuples and dicts), in the order the names were first bound —
@@ -21,7 +23,6 @@ from __future__ import annotations
 
 import contextlib
 import io
-import json
 import math
 import os
 import sys
@@ -35,13 +36,11 @@ from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
-from calcpad.runner.kernel import KERNEL, kernel_to_run, kernelspec_metadata
 from calcpad.runner.progress import RunProgress, in_notebook
 
 __all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "run_calc_inprocess", "run_job", "sheets_bound"]
 
 MODES = ("inprocess", "kernel")
-SHEETS_MIME = "application/vnd.calcpad.sheets+json"
 _SKIP = {"In", "Out", "exit", "quit", "get_ipython"}
 
 
@@ -144,13 +143,6 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: 
     return out
 
 
-def _emit(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> None:
-    """Kernel side: display the collected sheets as one JSON output."""
-    from IPython.display import display
-
-    display({SHEETS_MIME: {"sheets": collect_sheets(namespace, template, member, text)}}, raw=True)
-
-
 def _close_figures() -> None:
     plt = sys.modules.get("matplotlib.pyplot")
     if plt is not None:
@@ -221,107 +213,15 @@ def run_calc_inprocess(calc: Calc, text: bool = False) -> CalcOutcome:
 # ----------------------------------------------------------------------------- kernel
 
 
-_RESET = """\
-import sys as _calcpad_sys
-_calcpad_plt = _calcpad_sys.modules.get("matplotlib.pyplot")
-if _calcpad_plt is not None:
-    _calcpad_plt.close("all")
-_calcpad_w = _calcpad_sys.modules.get("ipywidgets.widgets.widget")
-if _calcpad_w is not None:  # the previous calc's what-if panel: ipywidgets keeps widgets until closed
-    for _calcpad_x in list(_calcpad_w._instances.values()):
-        _calcpad_x.close()
-get_ipython().run_line_magic("reset", "-f")
-"""
-
-
-class _KernelSession:
-    """One Jupyter kernel shared by the calcs of a run (reset between calcs)."""
-
-    def __init__(self, timeout: int, units: str = "US", extra_env: dict[str, str] | None = None) -> None:
-        from jupyter_client.manager import KernelManager
-
-        self.timeout = timeout
-        self.kernel = kernel_to_run()
-        self.km = KernelManager(kernel_name=self.kernel, transport="ipc")  # local sockets, not TCP
-        env = dict(os.environ, MPLBACKEND="Agg", **{SYSTEM_ENV: units}, **(extra_env or {}))
-        if not extra_env or ENV_PATH not in extra_env:
-            env.pop(ENV_PATH, None)
-            env.pop(ENV_SHA256, None)
-        self.km.start_kernel(env=env, cwd=os.getcwd())
-        self.kc = self.km.client()
-        self.kc.start_channels()
-        self.kc.wait_for_ready(timeout=120)
-        self.used = False
-
-    def close(self) -> None:
-        self.kc.stop_channels()
-        self.km.shutdown_kernel(now=True)
-
-    def notebook(self, calc: Calc, text: bool = False) -> Any:
-        import nbformat
-        from papermill.parameterize import parameterize_notebook
-
-        tpl = calc.template
-        nb = nbformat.v4.new_notebook()
-        nb.metadata["kernelspec"] = kernelspec_metadata()
-        nb.metadata["language_info"] = {"name": "python"}
-        nb.metadata["papermill"] = {}
-        for cell in tpl.cells:
-            new = nbformat.v4.new_markdown_cell(cell.source) if cell.kind == "markdown" else nbformat.v4.new_code_cell(cell.source)
-            new.metadata["tags"] = list(cell.tags)  # papermill reads .tags on every cell
-            new.metadata["calcpad_cell"] = cell.index
-            nb.cells.append(new)
-        nb = parameterize_notebook(nb, _values(calc), comment="Parameters from the calcpad job", kernel_name=KERNEL, language="python")
-        collect = nbformat.v4.new_code_cell(
-            "from calcpad.runner.execute import _emit as _calcpad_emit\n"
-            f"_calcpad_emit(globals(), {tpl.name!r}, {calc.member!r}, {text!r})"
-        )
-        collect.metadata["calcpad_cell"] = "collect"
-        nb.cells.append(collect)
-        return nb
-
-    def run(self, calc: Calc, text: bool = False) -> CalcOutcome:
-        from nbclient import NotebookClient
-        from nbclient.exceptions import CellExecutionError
-
-        start = time.perf_counter()
-        outcome = CalcOutcome(calc)
-        if self.used:
-            self.kc.execute_interactive(_RESET, silent=True, store_history=False, timeout=self.timeout)
-        self.used = True
-        nb = self.notebook(calc, text)
-        client = NotebookClient(nb, km=self.km, timeout=self.timeout, kernel_name=self.kernel, allow_errors=False)
-        client.kc = self.kc
-        try:
-            client.execute(cleanup_kc=False)
-        except CellExecutionError:
-            for cell in nb.cells:
-                errs = [o for o in cell.get("outputs", []) if o.get("output_type") == "error"]
-                if errs:
-                    where = cell.metadata.get("calcpad_cell")
-                    outcome.error = {"cell": where if isinstance(where, int) else None, "message": f"{errs[0]['ename']}: {errs[0]['evalue']}"}
-                    break
-            else:  # pragma: no cover - nbclient always stores the error output
-                outcome.error = {"cell": None, "message": "a cell failed"}
-        if outcome.error is None:
-            data = nb.cells[-1].outputs[0]["data"][SHEETS_MIME]
-            outcome.sheets = [SheetItem.packed(s) for s in json.loads(json.dumps(data["sheets"]))]
-        nb.cells = [c for c in nb.cells if c.metadata.get("calcpad_cell") != "collect"]
-        for c in nb.cells:
-            c.metadata.pop("calcpad_cell", None)
-            if not c.metadata.get("tags"):
-                c.metadata.pop("tags", None)
-        outcome.notebook = nb
-        outcome.seconds = time.perf_counter() - start
-        return outcome
-
-
 @contextlib.contextmanager
-def _session(mode: str, timeout: int, units: str = "US", extra_env: dict[str, str] | None = None) -> Iterator[_KernelSession | None]:
+def _session(mode: str, timeout: int, units: str = "US", extra_env: dict[str, str] | None = None) -> Iterator[Any]:
+    """None for in-process runs, else a :class:`~calcpad.runner.kernel_session.KernelSession`."""
     if mode == "inprocess":
         yield None
         return
-    session = _KernelSession(timeout, units, extra_env)
+    from calcpad.runner.kernel_session import KernelSession  # lazy: jupyter_client only for kernel runs
+
+    session = KernelSession(timeout, units, extra_env)
     try:
         yield session
     finally:

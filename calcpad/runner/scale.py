@@ -13,6 +13,7 @@ never dropped: a batch turns it into failed calcs in the record, a search or swe
 from __future__ import annotations
 
 import contextlib
+import dataclasses
 import functools
 import logging
 import math
@@ -73,7 +74,9 @@ def cluster_client(workers: int | None = None, scheduler: str | None = None) -> 
     # mmap threshold: every large numpy temporary is then mmapped and page-faulted afresh, and a
     # sweep chunk ran 3.5x slower on a worker than in this process (measured). Leave it unset.
     environ = {k: v for k, v in dask.config.get("distributed.nanny.pre-spawn-environ", {}).items() if k != "MALLOC_TRIM_THRESHOLD_"}
-    with dask.config.set({"distributed.nanny.pre-spawn-environ": environ}):
+    # The workers' statistical profiler samples every task's stack every 10 ms (for the
+    # dashboard); calcs are pure Python, so that is CPU taken from them. Off for our clusters.
+    with dask.config.set({"distributed.nanny.pre-spawn-environ": environ, "distributed.worker.profile.enabled": False}):
         cluster = LocalCluster(n_workers=n, threads_per_worker=1, processes=True, dashboard_address=":0",
                                silence_logs=logging.ERROR, memory_limit="auto")
     client = Client(cluster)
@@ -146,13 +149,16 @@ def _run_calcs(calcs: list[Any], units: str, text: bool = False) -> list[Any]:
     return [run_calc_inprocess(c, text=text) for c in calcs]
 
 
-def _run_chunk(task: Callable[[list[Any], str], list[Any]], shop_table: Any, calcs: list[Any], units: str) -> list[Any]:
+def _run_chunk(task: Callable[[list[Any], str], list[Any]], shop_table: Any, calcs: list[Any], units: str) -> list[dict[str, Any]]:
     """Worker side: ``task`` with the job's own section table in use (a worker is another process:
-    the table the job named must travel with the chunk)."""
+    the table the job named must travel with the chunk). Each outcome comes back without its
+    calc (the client has it): the calc holds the template, whose compiled cells and parameter
+    quantities would otherwise be pickled back with every chunk."""
     from calcpad.eng.sections.shop import shop_table_in_use
 
     with shop_table_in_use(shop_table):
-        return task(calcs, units)
+        outcomes = task(calcs, units)
+    return [{f.name: getattr(o, f.name) for f in dataclasses.fields(o) if f.init and f.name != "calc"} for o in outcomes]
 
 
 def run_calcs_on_cluster(
@@ -175,13 +181,18 @@ def run_calcs_on_cluster(
         a, b = ranges[i]
         return f"calcs {calcs[a].number}-{calcs[b - 1].number} (members {', '.join(c.member for c in calcs[a:b])})"
 
-    def tick(_i: int, result: Any) -> None:
-        if progress is not None and result is not None:
-            for o in result:
-                progress(o)
+    built: dict[int, list[Any]] = {}  # chunk -> its outcomes, made as the chunk comes back
+
+    def tick(i: int, result: Any) -> None:
+        if result is not None:
+            a, b = ranges[i]
+            built[i] = [CalcOutcome(c, **fields) for c, fields in zip(calcs[a:b], result, strict=True)]
+            if progress is not None:
+                for o in built[i]:
+                    progress(o)
 
     run = functools.partial(_run_chunk, task or functools.partial(_run_calcs, text=text), getattr(job, "shop_table", None))
-    results, failures = map_chunks(client, run, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
+    _results, failures = map_chunks(client, run, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
     by_chunk = {f.index - 1: f for f in failures}
     outcomes: list[Any] = []
     for i, (a, b) in enumerate(ranges):
@@ -193,7 +204,7 @@ def run_calcs_on_cluster(
                 if progress is not None:
                     progress(o)
         else:
-            outcomes.extend(results[i])
+            outcomes.extend(built[i])
     return outcomes
 
 

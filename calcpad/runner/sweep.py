@@ -17,6 +17,7 @@ With a Dask ``client`` the chunks run on the cluster, generated on the workers.
 
 from __future__ import annotations
 
+import functools
 import itertools
 import math
 from collections.abc import Callable, Mapping, Sequence
@@ -75,6 +76,16 @@ def steps(start: str, stop: str, count: int) -> list[str]:
     return [f"{float(v):.10g} {unit_symbol(unit, 'ascii')}" for v in np.linspace(float(a.magnitude), hi, count)]
 
 
+@functools.lru_cache(maxsize=64)
+def _column(name: str, values: tuple[Any, ...], unit: Any) -> np.ndarray:
+    """An axis's values as magnitudes in ``unit``, parsed once per process (every plan of a
+    sweep, one per section or grade, shares its grid axes; parsing thousands of value texts
+    was most of a plan's cost, paid again by each Dask worker for each plan)."""
+    col = np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in values])
+    col.setflags(write=False)
+    return col
+
+
 class _Plan:
     """The compiled sheets for one combination of the build axes, and how to feed the grid axes."""
 
@@ -89,8 +100,7 @@ class _Plan:
             for name, vals in grid.items():
                 g = mapping[name][si]
                 if g is not None:
-                    unit = comp.given_units[g]
-                    cols.append((g, np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in vals])))
+                    cols.append((g, _column(name, tuple(vals), comp.given_units[g])))
                 else:
                     cols.append(("", np.empty(0)))
             self.columns.append(cols)
@@ -209,7 +219,7 @@ def sweep(
     env_vals = None
     if envelope is not None:
         unit = params[envelope].unit
-        env_vals = [float(parse_quantity(v, envelope).to(unit).magnitude) for v in ax[envelope]]
+        env_vals = _column(envelope, tuple(ax[envelope]), unit).tolist()
     jobs = []
     for combo in itertools.product(*(ax[n] for n in build_axes)):
         values = {**first, **dict(zip(build_axes, combo, strict=True))}

@@ -28,8 +28,19 @@ def test_inprocess_and_kernel_records_are_identical() -> None:
     assert ra["summary"]["errors"] == 0 and ra["summary"]["checks"] > 0
     assert _strip_run(ra) == _strip_run(rb)
     assert [s["html"] for o in a for s in o.sheets] == [s["html"] for o in b for s in o.sheets]
+    assert [len(o.sheets) for o in a] == [len(o.sheets) for o in b]
+    for x, y in zip(a, b, strict=True):  # calc by calc, each sheet's record and printed HTML
+        assert x.error is None and y.error is None
+        assert [s["record"] for s in x.sheets] == [s["record"] for s in y.sheets], x.calc.member
     assert all(o.notebook is not None for o in b)
-    assert all(c.get("execution_count") for c in b[0].notebook.cells if c.cell_type == "code")
+    for o in b:  # the kernel ran the cells an in-process run runs: up to the what-if cell
+        code = [c for c in o.notebook.cells if c.cell_type == "code"]
+        ran = [c for c in code if c.execution_count]
+        assert [c.execution_count for c in ran] == list(range(1, len(ran) + 1))
+        assert all("what_if(" not in c.source for c in ran)
+        assert all(c.execution_count is None and not c.outputs for c in code[len(ran):])
+    shown = [out for c in b[1].notebook.cells if c.cell_type == "code" for out in c.outputs]
+    assert any("text/html" in out.get("data", {}) for out in shown)  # the live sheet display is kept
     tags = [c.metadata.get("tags", []) for c in b[0].notebook.cells]
     assert ["injected-parameters"] in tags  # papermill-style injection kept in the stored notebook
     # the kept notebooks ask for the kernel the set-up registers, like the stored templates
