@@ -16,7 +16,6 @@ from __future__ import annotations
 import difflib
 import hashlib
 import importlib
-import io
 import math
 import os
 import re
@@ -27,6 +26,7 @@ import pint
 import sympy as sp
 
 from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, NonFiniteError, SheetError
+from calcpad.core.figure_png import figure_png
 from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_from_sympy, parse_condition, parse_formula
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
@@ -412,13 +412,12 @@ class Sheet:
     def figure(self, title: str, fig: Any, caption: str = "") -> None:
         """Add a figure (a matplotlib figure or PNG bytes). A figure is saved at its own size and
         layout (no tight bounding box, which costs a second drawing): give it fixed margins or a
-        layout engine so nothing is clipped."""
+        layout engine so nothing is clipped. A figure marked with what it draws
+        (:func:`calcpad.core.figure_png.mark_content`) is saved once per distinct drawing."""
         if isinstance(fig, (bytes, bytearray)):
             png = bytes(fig)
         elif hasattr(fig, "savefig"):
-            buf = io.BytesIO()
-            fig.savefig(buf, format="png", dpi=110, metadata={"Software": None})
-            png = buf.getvalue()
+            png = figure_png(fig, 110)
         else:
             raise SheetError(f"figure {title!r}: expected a matplotlib figure or PNG bytes, got {type(fig).__name__}")
         self._add(Figure(title, png, caption))
