@@ -87,3 +87,15 @@ def test_other_matplotlib_settings_are_drawn_anew():
 def test_drawing_png_refuses_a_function_it_cannot_key():
     with pytest.raises(InputError, match="draw"):
         drawing_png(print, 1)
+
+
+def test_sections_png_is_the_drawing_of_these_sections():
+    from calcpad.eng.sections import RoundTube
+    from calcpad.eng.sections.plot import draw_sections, sections_png
+
+    thin, thick = RoundTube("2.375 in", "0.143 in", name="leg"), RoundTube("2.375 in", "0.200 in", name="leg")
+    first = sections_png([thin], ["Before"], dpi=100)
+    assert first == _saved(draw_sections([thin], ["Before"]), dpi=100)
+    assert sections_png([thin], ["Before"], dpi=100) == first
+    other = sections_png([thick], ["Before"], dpi=100)  # same name, another wall: drawn anew
+    assert other != first and other == _saved(draw_sections([thick], ["Before"]), dpi=100)
