@@ -145,12 +145,14 @@ def _table_ratios(sh: Sheet) -> dict[str, str]:
 
 
 def test_scratch_sheets_kept_between_calls_give_each_call_its_own_ratios():
-    """A second call on the same section re-evaluates kept scratch sheets: every case's ratio is the
-    direct check_member ratio of that call's forces; a changed yield stress is not served from a
-    sheet kept for another (a kept sheet is never stale)."""
+    """A second call on the same section re-evaluates kept scratch sheets (or repeats the kept
+    answer for the same forces): every case's ratio is the direct check_member ratio of that call's
+    forces; a changed yield stress is not served from a sheet or answer kept for another (nothing
+    kept is ever stale)."""
     from calcpad.eng.checks import frame_member
 
     frame_member._KEPT.clear()
+    frame_member._ANSWERS.clear()
     check_frame_member(Sheet("first", method="ASD"), _post(), "AB", HSS, L="10 ft", K=2.1, F_y="50 ksi")
     assert frame_member._KEPT  # the sign patterns of this member are kept
     for fy in ("50 ksi", "46 ksi"):

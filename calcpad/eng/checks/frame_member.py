@@ -76,6 +76,9 @@ def _sign(q: pint.Quantity) -> int:
 #: the same member in another direction, or a calc like an earlier one, re-evaluates a kept sheet.
 _KEPT: OrderedDict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]] = OrderedDict()
 KEPT_LIMIT = 48
+#: Governing limit state and ratio by member content, force signs and the forces' exact values.
+_ANSWERS: dict[tuple[Any, ...], tuple[str, float]] = {}
+ANSWERS_LIMIT = 20_000
 
 
 class _Scratches:
@@ -145,9 +148,24 @@ class _Scratches:
         return name, checks[key].ratio
 
     def check(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[str, float]:
-        """The governing limit state and its ratio for one case's forces."""
+        """The governing limit state and its ratio for one case's forces (an answer for the same
+        member content and the same forces is taken from the previous evaluation)."""
         key = (_sign(P), _sign(M), _sign(V))
         forces = self._forces(P, M, V)
+        memo = None
+        if self.key is not None:
+            memo = (self.key, key, tuple((n, repr(q.magnitude), q.units._units) for n, q in forces.items()))
+            if memo in _ANSWERS:
+                return _ANSWERS[memo]
+        answer = self._evaluate(key, forces, P, M, V)
+        if memo is not None:
+            if len(_ANSWERS) >= ANSWERS_LIMIT:
+                _ANSWERS.clear()
+            _ANSWERS[memo] = answer
+        return answer
+
+    def _evaluate(self, key: tuple[int, int, int], forces: dict[str, pint.Quantity], P: pint.Quantity, M: pint.Quantity,
+                  V: pint.Quantity) -> tuple[str, float]:
         entry = self._kept(key)
         if entry is not None:
             scratch, out = entry
