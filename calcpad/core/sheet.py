@@ -22,6 +22,7 @@ import re
 from collections.abc import Iterable, Mapping, Sequence
 from typing import Any
 
+import numpy as np
 import pint
 import sympy as sp
 
@@ -108,6 +109,11 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
     if part:
         head = f"{head}, {part}"
     return f"{mark.strip()} - {head}" if mark and mark.strip() else head
+
+
+#: Table cell texts of quantities (see ``Sheet._cell``), bounded.
+_CELLS: dict[tuple[Any, ...], str] = {}
+_CELLS_MAX = 20_000
 
 
 def _column_scale(rows: list[list[Any]], j: int) -> float:
@@ -391,13 +397,30 @@ class Sheet:
             cols = [str(c) for c in columns]
             raw_rows = data
         raw_rows = [list(r) for r in raw_rows]
-        rows = [[self._cell(v, _column_scale(raw_rows, j)) for j, v in enumerate(row)] for row in raw_rows]
+        width = max((len(r) for r in raw_rows), default=0)
+        scales = [_column_scale(raw_rows, j) for j in range(width)]  # once per column
+        rows = [[self._cell(v, scales[j]) for j, v in enumerate(row)] for row in raw_rows]
         for i, row in enumerate(rows):
             if len(row) != len(cols):
                 raise SheetError(f"table {title!r}: row {i + 1} has {len(row)} cells; expected {len(cols)}")
         self._add(Table(title, cols, rows, note))
 
     def _cell(self, v: Any, scale: float = 0.0) -> str:
+        """A table cell's text; a quantity's text is kept by its exact magnitude, units and the
+        sheet's display preferences (tables of frame results repeat many values)."""
+        if isinstance(v, pint.Quantity) and type(v.magnitude) in (float, int, np.float64):
+            noise = scale > 0 and abs(float(v.magnitude)) < 1e-9 * scale
+            key = (repr(v.magnitude), tuple(v._units.items()), noise, self.prefs.system, self.prefs.sig, tuple(self.prefs.overrides.items()))
+            text = _CELLS.get(key)
+            if text is None:
+                text = self._cell_text(v, scale)
+                if len(_CELLS) >= _CELLS_MAX:
+                    _CELLS.clear()
+                _CELLS[key] = text
+            return text
+        return self._cell_text(v, scale)
+
+    def _cell_text(self, v: Any, scale: float) -> str:
         if isinstance(v, (pint.Quantity, float)) and scale > 0:
             mag = float(v.magnitude) if isinstance(v, pint.Quantity) else v
             if abs(mag) < 1e-9 * scale:  # round-off noise from an analysis, e.g. 1.8e-16

@@ -13,6 +13,7 @@ import pytest
 from calcpad import Sheet
 from calcpad.core.errors import CalcpadError, FormulaError, UnitInputError
 from calcpad.core.formula import parse_formula
+from calcpad.core.results import TableResult
 from calcpad.core.units import parse_unit, unit_symbol, ureg
 from calcpad.render.html import sheet_html_fragment
 
@@ -78,3 +79,24 @@ def test_printed_formula_keeps_each_authors_term_order():
     assert html[0] != html[1]
     assert html[0].index("<mi>a</mi>") < html[0].index("<mi>b</mi>")
     assert html[1].index("<mi>b</mi>") < html[1].index("<mi>a</mi>")
+
+
+def _cells(sheet: Sheet, rows: list[list[object]]) -> list[str]:
+    sheet.table("t", rows, columns=[f"c{i}" for i in range(len(rows[0]))])
+    return [s for s in sheet.evaluate().steps if isinstance(s, TableResult)][-1].rows[0]
+
+
+def test_table_cell_texts_are_kept_per_value_units_and_display_preferences():
+    from calcpad.core.units import Q_
+
+    us = _cells(Sheet("a"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert _cells(Sheet("b"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]]) == us  # from the store
+    si = _cells(Sheet("c", system="SI"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert si[0] == "304.8 mm" and us[0] == "12.00 in"  # 12 in = 304.8 mm exactly
+    assert si[1] == si[2] and si[1] != us[1]
+    three = _cells(Sheet("d", sig=3), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert three[0] == "12.0 in"
+    # round-off noise beside a large value prints as zero; the same tiny value alone prints as it is
+    noisy = _cells(Sheet("e"), [[Q_(1e-13, "kip"), Q_(1e-13, "kip")], [Q_(100.0, "kip"), Q_(1e-13, "kip")]])
+    alone = _cells(Sheet("f"), [[Q_(1e-13, "kip")]])
+    assert noisy[0].startswith("0") and noisy[1] == alone[0] and not alone[0].startswith("0 ")
