@@ -111,6 +111,25 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
     return f"{mark.strip()} - {head}" if mark and mark.strip() else head
 
 
+#: A formula's value and its shown value by the formula (identity), the exact values it reads
+#: (magnitude ``repr`` and units in order), the unit asked and the display preferences: the
+#: calcs of a template evaluate many formulas on the same values. Bounded.
+_VALUES: dict[tuple[Any, ...], tuple[Any, pint.Quantity, pint.Quantity]] = {}
+_VALUES_MAX = 20_000
+_EXACT = (float, int, np.float64)
+
+
+def _value_key(expr: Any, env: Mapping[str, pint.Quantity], unit: Any, prefs: DisplayPrefs) -> tuple[Any, ...] | None:
+    """Key of :data:`_VALUES`, or None when a value is not a plain number with units."""
+    vals = []
+    for n, q in env.items():
+        m = q.magnitude
+        if type(m) not in _EXACT:
+            return None
+        vals.append((n, repr(m), tuple(q._units.items())))
+    return (id(expr), tuple(vals), unit, prefs.system, prefs.sig, tuple(prefs.overrides.items()))
+
+
 #: Table cell texts of quantities (see ``Sheet._cell``), bounded.
 _CELLS: dict[tuple[Any, ...], str] = {}
 _CELLS_MAX = 20_000
@@ -559,8 +578,18 @@ class Sheet:
 
     def _formula_result(self, name: str, step: Any, formula: Formula) -> FormulaResult:
         env = self._env(formula.names)
-        value = evaluate_expr(formula.expr, env, name)
-        shown = self._show(name, value, step.unit)
+        key = _value_key(formula.expr, env, step.unit, self.prefs)
+        hit = _VALUES.get(key) if key is not None else None
+        if hit is not None and hit[0] is formula.expr:
+            value, shown = hit[1], hit[2]
+            self._values[name], self._shown[name] = value, shown
+        else:
+            value = evaluate_expr(formula.expr, env, name)
+            shown = self._show(name, value, step.unit)
+            if key is not None:
+                if len(_VALUES) >= _VALUES_MAX:
+                    _VALUES.clear()
+                _VALUES[key] = (formula.expr, value, shown)  # keeps the expression (and its id) alive
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
         return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 
