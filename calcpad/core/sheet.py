@@ -115,7 +115,7 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
 #: (magnitude ``repr`` and units in order), the unit asked and the display preferences: the
 #: calcs of a template evaluate many formulas on the same values. Bounded.
 _VALUES: dict[tuple[Any, ...], tuple[Any, pint.Quantity, pint.Quantity]] = {}
-_VALUES_MAX = 20_000
+_VALUES_MAX = 5_000
 _EXACT = (float, int, np.float64)
 
 
@@ -132,7 +132,7 @@ def _value_key(expr: Any, env: Mapping[str, pint.Quantity], unit: Any, prefs: Di
 
 #: Table cell texts of quantities (see ``Sheet._cell``), bounded.
 _CELLS: dict[tuple[Any, ...], str] = {}
-_CELLS_MAX = 20_000
+_CELLS_MAX = 5_000
 
 
 def _column_scale(rows: list[list[Any]], j: int) -> float:

@@ -78,7 +78,7 @@ _KEPT: OrderedDict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]]
 KEPT_LIMIT = 48
 #: Governing limit state and ratio by member content, force signs and the forces' exact values.
 _ANSWERS: dict[tuple[Any, ...], tuple[str, float]] = {}
-ANSWERS_LIMIT = 20_000
+ANSWERS_LIMIT = 5_000
 
 
 class _Scratches:
