@@ -14,7 +14,6 @@ drawing library.
 from __future__ import annotations
 
 import io
-from collections import OrderedDict
 from collections.abc import Callable
 from typing import Any
 
@@ -24,9 +23,9 @@ __all__ = ["figure_png", "mark_content", "png_once"]
 
 #: Figure attribute holding the content mark (dropped when the figure changes).
 KEY_ATTR = "_calcpad_content_key"
-#: Distinct drawings kept (a PNG is some 30-60 kB).
+#: Distinct drawings kept, the oldest dropped first (a PNG is some 30-60 kB).
 LIMIT = 64
-_PNG: OrderedDict[tuple[str, int], bytes] = OrderedDict()
+_PNG: dict[tuple[str, int], bytes] = {}
 
 
 def _settings() -> str:
@@ -62,7 +61,11 @@ def mark_content(fig: Any, *content: Any) -> Any:
 def _keep(key: tuple[str, int], png: bytes) -> None:
     _PNG[key] = png
     while len(_PNG) > LIMIT:
-        _PNG.popitem(last=False)
+        _PNG.pop(next(iter(_PNG)), None)  # the oldest (first kept)
+
+
+def _kept(key: tuple[str, int]) -> bytes | None:
+    return _PNG.get(key)
 
 
 def png_once(content: tuple[Any, ...], build: Callable[[], Any], dpi: int) -> bytes:
@@ -72,9 +75,9 @@ def png_once(content: tuple[Any, ...], build: Callable[[], Any], dpi: int) -> by
     if digest is None:
         return figure_png(build(), dpi)
     key = (digest, dpi)
-    if key in _PNG:
-        _PNG.move_to_end(key)
-        return _PNG[key]
+    png = _kept(key)
+    if png is not None:
+        return png
     png = figure_png(build(), dpi)
     _keep(key, png)
     return png
@@ -84,9 +87,9 @@ def figure_png(fig: Any, dpi: int) -> bytes:
     """The PNG of ``fig`` at ``dpi``, at the figure's own size and layout, without date metadata
     (reruns give the same bytes); a marked figure is saved once per distinct drawing."""
     key = getattr(fig, KEY_ATTR, None)
-    if key is not None and (key, dpi) in _PNG:
-        _PNG.move_to_end((key, dpi))
-        return _PNG[(key, dpi)]
+    png = _kept((key, dpi)) if key is not None else None
+    if png is not None:
+        return png
     buf = io.BytesIO()
     fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
     png = buf.getvalue()

@@ -11,8 +11,8 @@ sheet in full (:func:`check_member`), after a table of the governing ratio of ev
 
 from __future__ import annotations
 
+import threading
 import warnings
-from collections import OrderedDict
 from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any
@@ -74,7 +74,7 @@ def _sign(q: pint.Quantity) -> int:
 
 #: Scratch sheets kept between calls, by the content of what they check and the force signs:
 #: the same member in another direction, or a calc like an earlier one, re-evaluates a kept sheet.
-_KEPT: OrderedDict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]] = OrderedDict()
+_KEPT: dict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]] = {}
 KEPT_LIMIT = 48
 #: Governing limit state and ratio by member content, force signs and the forces' exact values.
 _ANSWERS: dict[tuple[Any, ...], tuple[str, float]] = {}
@@ -96,14 +96,17 @@ class _Scratches:
     def __init__(self, sh: Sheet, section: Any, L: Any, options: dict[str, Any]) -> None:
         self.sh, self.section, self.L, self.options = sh, section, L, options
         self.sheets: dict[tuple[int, int, int], tuple[Sheet, MemberChecks]] = {}
-        self.key = content_key("check_member", type(section), section, L, options, sh.method, sh.prefs.system)
+        key = content_key("check_member", type(section), section, L, options, sh.method, sh.prefs.system)
+        # a kept sheet is re-evaluated in place: never share one between threads
+        self.key = None if key is None else f"{key}:{threading.get_ident()}"
 
     def _kept(self, signs: tuple[int, int, int]) -> tuple[Sheet, MemberChecks] | None:
         entry = self.sheets.get(signs)
-        if entry is None and self.key is not None and (self.key, signs) in _KEPT:
-            _KEPT.move_to_end((self.key, signs))
-            entry = self.sheets[signs] = _KEPT[(self.key, signs)]
-            entry[0].title = self.sh.title  # messages name this calc's sheet
+        if entry is None and self.key is not None:
+            entry = _KEPT.get((self.key, signs))
+            if entry is not None:
+                self.sheets[signs] = entry
+                entry[0].title = self.sh.title  # messages name this calc's sheet
         return entry
 
     def _keep(self, signs: tuple[int, int, int], entry: tuple[Sheet, MemberChecks]) -> None:
@@ -111,7 +114,7 @@ class _Scratches:
         if self.key is not None:
             _KEPT[(self.key, signs)] = entry
             while len(_KEPT) > KEPT_LIMIT:
-                _KEPT.popitem(last=False)
+                _KEPT.pop(next(iter(_KEPT)), None)
 
     def _build(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Sheet, MemberChecks]:
         sh = self.sh
