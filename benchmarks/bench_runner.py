@@ -4,7 +4,9 @@
    collected as `calcpad run` does): ms per calc now and at the baseline, and the ratio
    (goal <= 0.1). Each code runs its own example job (today's has heavier templates: frame
    analyses, the canopy frame), so a second line runs the same calcs in both: the baseline's
-   example job without wind_rooftop_stand (whose parameters changed since).
+   example job without wind_rooftop_stand (whose parameters changed since). The example mix
+   repeats the example job's calcs (and the warm-up ran them), so a third line runs it with the
+   loads scaled a little on each repetition: what content caches cannot serve.
 2. A large generated job (leg_bending, one calc per member, loads varying): time and peak
    memory now for 1,000 and 10,000 calcs, the baseline for 1,000 (goal: 10,000 in under a
    minute, memory flat in the number of members: the growth per calc printed).
@@ -12,7 +14,8 @@
 
 The baseline is the code of commit ``BASELINE`` (the runner before the speed work), taken with
 ``git archive`` into a temporary folder and run in its own interpreter, alternating with the
-current code so machine noise hits both alike; the best of the rounds is kept. Each measurement
+current code so machine noise hits both alike; the best of the rounds is kept, for wall time and
+for the process's CPU time (the steadier of the two on a shared machine). Each measurement
 runs in a fresh interpreter (peak memory is that process's ``ru_maxrss``).
 
 Run: ``.venv/bin/python benchmarks/bench_runner.py [--rounds 2] [--big 10000] [--no-kernel]``
@@ -39,13 +42,22 @@ sys.path.insert(0, root)
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import load_job, parse_job
 
-def mix(n, job=None):
+def mix(n, job=None, distinct=False):
     job = job or load_job(root + "/examples/harbor_ridge_condenser_stand.toml")
-    calcs = []
+    calcs, k = [], 0
     while len(calcs) < n:
+        k += 1
         for c in job.calcs:
-            calcs.append(dataclasses.replace(c, number=len(calcs) + 1, member=f"{c.member}-{len(calcs)}"))
+            inputs = {a: scaled(v, 1 + 0.01 * k) for a, v in c.inputs.items()} if distinct else c.inputs
+            calcs.append(dataclasses.replace(c, number=len(calcs) + 1, member=f"{c.member}-{len(calcs)}", inputs=inputs))
     return dataclasses.replace(job, calcs=calcs[:n])
+
+import re
+LOAD = re.compile(r"^\s*([0-9]*\.?[0-9]+)\s*(lbf|kip|lbf/ft|kip/ft|psf|mph)\s*$")
+def scaled(v, f):
+    # a load, pressure or wind speed written as text, times f (other inputs as they are)
+    m = LOAD.match(v) if isinstance(v, str) else None
+    return f"{float(m.group(1)) * f:.6g} {m.group(2)}" if m else v
 
 def generated(n):
     head = ('[job]\nnumber = "B-1"\ntitle = "Generated"\nclient = "c"\nsite = "s"\nengineer = "e"\n'
@@ -64,14 +76,15 @@ def common(n):
     keep = [b for b in blocks if 'template = "wind_rooftop_stand"' not in b]
     return mix(n, parse_job(head + "".join(keep), "baseline-example.toml"))
 
-job = mix(n) if what == "mix" else common(n) if what == "common" else generated(n) if what == "big" else warm
+job = (mix(n) if what == "mix" else mix(n, distinct=True) if what == "distinct" else common(n) if what == "common"
+       else generated(n) if what == "big" else warm)
 mode = "kernel" if what == "kernel" else "inprocess"
 rss0 = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
-t = time.perf_counter()
+t, c = time.perf_counter(), time.process_time()
 out = run_job(job, mode=mode)
-dt = time.perf_counter() - t
+dt, cpu = time.perf_counter() - t, time.process_time() - c
 errors = sum(o.error is not None for o in out)
-print(json.dumps({"seconds": dt, "calcs": len(out), "errors": errors,
+print(json.dumps({"seconds": dt, "cpu": cpu, "calcs": len(out), "errors": errors,
                   "rss_mib": resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024, "rss0_mib": rss0 / 1024}))
 """
 
@@ -94,8 +107,11 @@ def baseline_tree(tmp: Path) -> Path:
     return tmp
 
 
-def best(runs: list[dict[str, float]]) -> dict[str, float]:
-    return min(runs, key=lambda r: r["seconds"])
+def per_calc(runs: list[dict[str, float]], key: str) -> float:
+    """Best of the rounds, ms per calc: ``seconds`` (wall) or ``cpu`` (this process's CPU time,
+    less disturbed by other work on a shared machine)."""
+    r = min(runs, key=lambda r: r[key])
+    return r[key] / r["calcs"] * 1e3
 
 
 def main() -> None:
@@ -112,21 +128,32 @@ def main() -> None:
         for _ in range(args.rounds):
             base_runs.append(measure(base, "mix", args.mix))
             now_runs.append(measure(ROOT, "mix", args.mix))
-        b, n = best(base_runs), best(now_runs)
-        per_b, per_n = b["seconds"] / b["calcs"] * 1e3, n["seconds"] / n["calcs"] * 1e3
-        print(f"example mix, {n['calcs']} calcs in-process: baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, "
-              f"ratio now/baseline = {per_n / per_b:.2f}   (goal <= 0.1; each code runs its own example job, "
-              "and today's has heavier templates)")
+        per_b, per_n = per_calc(base_runs, "seconds"), per_calc(now_runs, "seconds")
+        cpu_b, cpu_n = per_calc(base_runs, "cpu"), per_calc(now_runs, "cpu")
+        print(f"example mix, {now_runs[0]['calcs']} calcs in-process: baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, "
+              f"ratio now/baseline = {per_n / per_b:.2f}; CPU time {cpu_b:.1f} vs {cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}   "
+              "(goal <= 0.1; each code runs its own example job, and today's has heavier templates)")
+        db, dn = [], []
+        for _ in range(args.rounds):
+            db.append(measure(base, "distinct", args.mix))
+            dn.append(measure(ROOT, "distinct", args.mix))
+        per_b, per_n = per_calc(db, "seconds"), per_calc(dn, "seconds")
+        cpu_b, cpu_n = per_calc(db, "cpu"), per_calc(dn, "cpu")
+        print(f"example mix with distinct loads (the k-th repetition's loads, pressures and wind speed x (1 + k/100): no "
+              f"calc repeats the warm-up's or another's numbers, so caches of content serve only what really repeats): "
+              f"baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio = {per_n / per_b:.2f}; CPU time {cpu_b:.1f} vs "
+              f"{cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}")
         old_job = Path(tmp) / "baseline-example.toml"  # the same calcs for both codes
         old_job.write_bytes((base / "examples" / "harbor_ridge_condenser_stand.toml").read_bytes())
         cb, cn = [], []
         for _ in range(args.rounds):
             cb.append(measure(base, "common", args.mix, str(old_job)))
             cn.append(measure(ROOT, "common", args.mix, str(old_job)))
-        b, n = best(cb), best(cn)
-        per_b, per_n = b["seconds"] / b["calcs"] * 1e3, n["seconds"] / n["calcs"] * 1e3
-        print(f"same calcs, {n['calcs']} in-process (the baseline's example job without wind_rooftop_stand, whose "
-              f"parameters changed): baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio = {per_n / per_b:.2f}")
+        per_b, per_n = per_calc(cb, "seconds"), per_calc(cn, "seconds")
+        cpu_b, cpu_n = per_calc(cb, "cpu"), per_calc(cn, "cpu")
+        print(f"same calcs, {cn[0]['calcs']} in-process (the baseline's example job without wind_rooftop_stand, whose "
+              f"parameters changed): baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio = {per_n / per_b:.2f}; "
+              f"CPU time {cpu_b:.1f} vs {cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}")
 
         small = args.small
         if small > 0:

@@ -29,8 +29,6 @@ calc_title = ""  # calc title (the runner fills it from the job)
 calc_note = ""  # the job's note on this calc, printed on its sheets (the runner fills it from the job)
 
 # %%
-import io
-
 from IPython.display import Image
 
 from calcpad import Q_, Sheet, calc_heading
@@ -38,7 +36,7 @@ from calcpad.eng.checks import add_fillet_weld_check, add_stitch_weld_check
 from calcpad.eng.materials import get_material, hss_material
 from calcpad.eng.sections import Angle, get_section
 from calcpad.eng.sections.builtup import BuiltUp, compare_sections
-from calcpad.eng.sections.plot import draw_sections
+from calcpad.eng.sections.plot import sections_png
 from calcpad.eng.sections.steps import add_builtup_steps, add_section_steps, add_shape_props
 
 ASSUMPTIONS = [
@@ -62,10 +60,8 @@ if isinstance(add_shape_, Angle):
 else:
     reinforced.add(add_shape_, at=((B_leg - add_shape_.width) / 2, H_leg), label="added member")
 
-fig = draw_sections([leg_shape, reinforced], ["Before: " + leg, "After: " + reinforced.name])
-png = io.BytesIO()
-fig.savefig(png, format="png", dpi=100, metadata={"Software": None})
-Image(png.getvalue())  # drawn once: the same picture goes into the sheet below
+png = sections_png([leg_shape, reinforced], ["Before: " + leg, "After: " + reinforced.name], dpi=100)
+Image(png)  # drawn once: the same picture goes into the sheet below
 
 # %% [markdown]
 # ## Existing leg
@@ -104,7 +100,7 @@ for text in ASSUMPTIONS:
     after.assume(text)
 if calc_note.strip():
     after.note(calc_note.strip())
-after.figure("Existing and reinforced sections", png.getvalue())
+after.figure("Existing and reinforced sections", png)
 after.heading("Added member")
 a = add_shape_props(after, add_shape_, suffix="a", names=["A", "I_x", "I_y"])
 after.heading("Composite section")

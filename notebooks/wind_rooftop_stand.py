@@ -61,7 +61,7 @@ from IPython.display import Image, display
 
 from calcpad.core.units import parse_quantity
 
-from calcpad.eng.analysis.diagrams import plot_member
+from calcpad.eng.analysis.diagrams import drawing_png, plot_member
 from calcpad.eng.analysis.frame import Frame, add_frame_results
 from calcpad.eng.analysis.serviceability import add_deflection_check, add_result_given
 from calcpad.eng.checks import (add_anchorage_check, add_base_plate_check, add_leg_base_uplift_check, add_second_order,
@@ -185,7 +185,7 @@ sh.note("Combinations: " + "; ".join(f"{c.name} = {c.label()} ({c.ref})" for c i
 sh.note(f"Wind in direction {gov_dir} gives the larger leg base moment ({leg_M} leg, {case_M}).")
 shown = [n for n in names if n in ("AC1", "AC5+", "AC7-", case_M)]
 add_frame_results(sh, res_gov, shown, figure_case=case_M, members=["windward", "leeward", "R"])
-sh.figure(f"The {leg_M} leg internal forces ({case_M}, direction {gov_dir})", plot_member(res_gov, leg_M, case_M, ("N", "V", "M")))
+sh.figure(f"The {leg_M} leg internal forces ({case_M}, direction {gov_dir})", drawing_png(plot_member, res_gov, leg_M, case_M, ("N", "V", "M")))
 
 sh.heading("Leg at base plate")
 add_result_given(sh, "M_b", abs(M_base), f"Governing base moment, {leg_M} leg, direction {gov_dir}", f"frame analysis, {case_M}")

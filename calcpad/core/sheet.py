@@ -16,17 +16,18 @@ from __future__ import annotations
 import difflib
 import hashlib
 import importlib
-import io
 import math
 import os
 import re
 from collections.abc import Iterable, Mapping, Sequence
 from typing import Any
 
+import numpy as np
 import pint
 import sympy as sp
 
 from calcpad.core.errors import CalcpadError, DimensionError, FormulaError, NonFiniteError, SheetError
+from calcpad.core.figure_png import figure_png
 from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_from_sympy, parse_condition, parse_formula
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
@@ -108,6 +109,30 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
     if part:
         head = f"{head}, {part}"
     return f"{mark.strip()} - {head}" if mark and mark.strip() else head
+
+
+#: A formula's value and its shown value by the formula (identity), the exact values it reads
+#: (magnitude ``repr`` and units in order), the unit asked and the display preferences: the
+#: calcs of a template evaluate many formulas on the same values. Bounded.
+_VALUES: dict[tuple[Any, ...], tuple[Any, pint.Quantity, pint.Quantity]] = {}
+_VALUES_MAX = 5_000
+_EXACT = (float, int, np.float64)
+
+
+def _value_key(expr: Any, env: Mapping[str, pint.Quantity], unit: Any, prefs: DisplayPrefs) -> tuple[Any, ...] | None:
+    """Key of :data:`_VALUES`, or None when a value is not a plain number with units."""
+    vals = []
+    for n, q in env.items():
+        m = q.magnitude
+        if type(m) not in _EXACT:
+            return None
+        vals.append((n, repr(m), tuple(q._units.items())))
+    return (id(expr), tuple(vals), unit, prefs.system, prefs.sig, tuple(prefs.overrides.items()))
+
+
+#: Table cell texts of quantities (see ``Sheet._cell``), bounded.
+_CELLS: dict[tuple[Any, ...], str] = {}
+_CELLS_MAX = 5_000
 
 
 def _column_scale(rows: list[list[Any]], j: int) -> float:
@@ -441,6 +466,23 @@ class Sheet:
         return top, unit, max(sig - 1 - exponent, 0)
 
     def _cell(self, v: Any, scale: float = 0.0, unit: Any = None, decimals: int | None = None) -> str:
+        """A table cell's text; a quantity's text is kept by its exact magnitude, units, the
+        column's unit and decimals and the sheet's display preferences (tables of frame results
+        repeat many values)."""
+        if isinstance(v, pint.Quantity) and type(v.magnitude) in (float, int, np.float64):
+            noise = scale > 0 and abs(float(v.magnitude)) < 1e-9 * scale
+            key = (repr(v.magnitude), tuple(v._units.items()), noise, str(unit), decimals, self.prefs.system,
+                   self.prefs.sig, tuple(self.prefs.overrides.items()))
+            text = _CELLS.get(key)
+            if text is None:
+                text = self._cell_text(v, scale, unit, decimals)
+                if len(_CELLS) >= _CELLS_MAX:
+                    _CELLS.clear()
+                _CELLS[key] = text
+            return text
+        return self._cell_text(v, scale, unit, decimals)
+
+    def _cell_text(self, v: Any, scale: float = 0.0, unit: Any = None, decimals: int | None = None) -> str:
         if isinstance(v, (pint.Quantity, float)) and scale > 0:
             mag = float(v.to(unit).magnitude) if isinstance(v, pint.Quantity) and unit is not None else (
                 float(v.magnitude) if isinstance(v, pint.Quantity) else v)
@@ -456,13 +498,12 @@ class Sheet:
     def figure(self, title: str, fig: Any, caption: str = "") -> None:
         """Add a figure (a matplotlib figure or PNG bytes). A figure is saved at its own size and
         layout (no tight bounding box, which costs a second drawing): give it fixed margins or a
-        layout engine so nothing is clipped."""
+        layout engine so nothing is clipped. A figure marked with what it draws
+        (:func:`calcpad.core.figure_png.mark_content`) is saved once per distinct drawing."""
         if isinstance(fig, (bytes, bytearray)):
             png = bytes(fig)
         elif hasattr(fig, "savefig"):
-            buf = io.BytesIO()
-            fig.savefig(buf, format="png", dpi=110, metadata={"Software": None})
-            png = buf.getvalue()
+            png = figure_png(fig, 110)
         else:
             raise SheetError(f"figure {title!r}: expected a matplotlib figure or PNG bytes, got {type(fig).__name__}")
         self._add(Figure(title, png, caption))
@@ -581,8 +622,18 @@ class Sheet:
 
     def _formula_result(self, name: str, step: Any, formula: Formula) -> FormulaResult:
         env = self._env(formula.names)
-        value = evaluate_expr(formula.expr, env, name)
-        shown = self._show(name, value, step.unit)
+        key = _value_key(formula.expr, env, step.unit, self.prefs)
+        hit = _VALUES.get(key) if key is not None else None
+        if hit is not None and hit[0] is formula.expr:
+            value, shown = hit[1], hit[2]
+            self._values[name], self._shown[name] = value, shown
+        else:
+            value = evaluate_expr(formula.expr, env, name)
+            shown = self._show(name, value, step.unit)
+            if key is not None:
+                if len(_VALUES) >= _VALUES_MAX:
+                    _VALUES.clear()
+                _VALUES[key] = (formula.expr, value, shown)  # keeps the expression (and its id) alive
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
         return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 

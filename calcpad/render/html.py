@@ -10,7 +10,9 @@ import base64
 import html
 from typing import Any
 
-from calcpad.core.results import FigureResult, FormulaResult, GivenResult, HeadingResult, SheetResult, TableResult, TextResult
+import numpy as np
+
+from calcpad.core.results import BranchResult, FigureResult, FormulaResult, GivenResult, HeadingResult, SheetResult, TableResult, TextResult
 from calcpad.render.latex import text_lead
 from calcpad.render.layout import mathml_lines
 from calcpad.render.rows import MathRow, math_rows
@@ -82,7 +84,7 @@ def _value_key(q: Any) -> tuple[Any, ...] | None:
     """A quantity as it prints: the exact magnitude (``repr``: 1 and 1.0, 0.0 and -0.0 differ) and
     its units; None for anything else (an array, a plain object), which is never cached."""
     m = getattr(q, "magnitude", None)
-    if type(m) not in (float, int):
+    if type(m) not in (float, int, np.float64):  # a numpy float's repr is exact too (and differs from float's)
         return None
     return (repr(m), q.units._units)
 
@@ -104,12 +106,28 @@ def _row_key(step: object) -> tuple[Any, ...] | None:
             return None
         return ("f", id(step.expr), step.name, tuple(vals), v, step.description, step.ref, step.sig,
                 tuple(step.sigs.items()), step.quiet)
+    if isinstance(step, BranchResult):
+        f = _row_key(step.formula)
+        sides = () if step.condition_sides is None else tuple(_value_key(q) for q in step.condition_sides)
+        if f is None or None in sides:
+            return None
+        return ("b", f, id(step.cases[step.tested].condition), step.cases[step.chosen].label, step.description, step.ref,
+                step.words, step.condition_held, sides)
     return None
 
 
-#: Printed rows of givens and formulas by what they depend on: the calcs of one template print
-#: many identical rows (constants, section and material values, repeated members). Bounded.
-_ROWS: dict[tuple[Any, ...], tuple[object, str]] = {}
+def _alive(step: object) -> tuple[object, ...]:
+    """The objects whose ids are in the step's row key (kept alive with the row, so an id is never reused)."""
+    if isinstance(step, FormulaResult):
+        return (step.expr,)
+    if isinstance(step, BranchResult):
+        return (step.formula.expr, step.cases[step.tested].condition)
+    return ()
+
+
+#: Printed rows of givens, formulas and branches by what they depend on: the calcs of one template
+#: print many identical rows (constants, section and material values, repeated members). Bounded.
+_ROWS: dict[tuple[Any, ...], tuple[tuple[object, ...], str]] = {}
 _ROWS_MAX = 5_000
 
 
@@ -117,13 +135,13 @@ def _step(step: object) -> str:
     key = _row_key(step)
     if key is not None:
         hit = _ROWS.get(key)
-        if hit is not None and (not isinstance(step, FormulaResult) or hit[0] is step.expr):
+        if hit is not None and all(a is b for a, b in zip(hit[0], _alive(step), strict=True)):
             return hit[1]
     out = _step_uncached(step)
     if key is not None:
         if len(_ROWS) >= _ROWS_MAX:
             _ROWS.clear()
-        _ROWS[key] = (step.expr if isinstance(step, FormulaResult) else None, out)  # keeps the expression (and its id) alive
+        _ROWS[key] = (_alive(step), out)  # keeps the expressions (and their ids) alive
     return out
 
 

@@ -13,6 +13,7 @@ import pytest
 from calcpad import Sheet
 from calcpad.core.errors import CalcpadError, FormulaError, UnitInputError
 from calcpad.core.formula import parse_formula
+from calcpad.core.results import TableResult
 from calcpad.core.units import parse_unit, unit_symbol, ureg
 from calcpad.render.html import sheet_html_fragment
 
@@ -78,3 +79,44 @@ def test_printed_formula_keeps_each_authors_term_order():
     assert html[0] != html[1]
     assert html[0].index("<mi>a</mi>") < html[0].index("<mi>b</mi>")
     assert html[1].index("<mi>b</mi>") < html[1].index("<mi>a</mi>")
+
+
+def _cells(sheet: Sheet, rows: list[list[object]]) -> list[str]:
+    sheet.table("t", rows, columns=[f"c{i}" for i in range(len(rows[0]))])
+    return [s for s in sheet.evaluate().steps if isinstance(s, TableResult)][-1].rows[0]
+
+
+def test_table_cell_texts_are_kept_per_value_units_and_display_preferences():
+    from calcpad.core.units import Q_
+
+    us = _cells(Sheet("a"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert _cells(Sheet("b"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]]) == us  # from the store
+    si = _cells(Sheet("c", system="SI"), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert si[0] == "304.8 mm" and us[0] == "12.00 in"  # 12 in = 304.8 mm exactly
+    assert si[1] == si[2] and si[1] != us[1]
+    three = _cells(Sheet("d", sig=3), [[Q_(12.0, "in"), Q_(2.0, "kip*ft"), Q_(2.0, "ft*kip")]])
+    assert three[0] == "12.0 in"
+    # round-off noise beside a large value prints as zero; the same tiny value alone prints as it is
+    noisy = _cells(Sheet("e"), [[Q_(1e-13, "kip"), Q_(1e-13, "kip")], [Q_(100.0, "kip"), Q_(1e-13, "kip")]])
+    alone = _cells(Sheet("f"), [[Q_(1e-13, "kip")]])
+    assert noisy[0].startswith("0") and noisy[1] == alone[0] and not alone[0].startswith("0 ")
+
+
+def test_formula_values_are_kept_per_exact_inputs_unit_and_preferences():
+    def moment(w: str, span: str, unit: str | None = "kip*ft", system: str = "US") -> float:
+        sh = Sheet("beam", system=system)
+        sh.given("w", w)
+        sh.given("L", span)
+        sh.step("M", "w*L**2/8", unit=unit)
+        return sh["M"]
+
+    first = moment("2 kip/ft", "10 ft")
+    assert first.magnitude == 25.0 and first.units == ureg.kip * ureg.ft  # 2 x 10^2 / 8 kip-ft
+    assert moment("2 kip/ft", "10 ft").magnitude == 25.0  # from the store, the same number
+    assert moment("2 kip/ft", "10.000001 ft").magnitude != 25.0  # inputs differ in the 7th figure
+    assert moment("2 kip/ft", "120 in").to("kip*ft").magnitude == pytest.approx(25.0, rel=1e-12)  # 120 in = 10 ft
+    inch = moment("2 kip/ft", "10 ft", unit="kip*in")
+    assert inch.magnitude == 300.0 and inch.units == ureg.kip * ureg.inch  # 25 kip-ft = 300 kip-in
+    si = moment("2 kip/ft", "10 ft", unit=None, system="SI")
+    assert si.to("kN*m").magnitude == pytest.approx(25.0 * 1.3558179483314, rel=1e-9)  # 1 kip-ft = 1.35582 kN-m
+    assert si.units != ureg.kip * ureg.ft

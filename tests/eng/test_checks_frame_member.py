@@ -137,3 +137,28 @@ def test_every_case_row_matches_its_own_direct_check():
         assert (row[5], row[6]) == (f"{direct.governing_ratio:.3f}", direct.governing), row[1]
     assert signs == {True, False}  # both compression and tension cases were checked
     assert len({row[5] for row in table.rows}) == len(factors)  # every case its own ratio
+
+
+def _table_ratios(sh: Sheet) -> dict[str, str]:
+    table = next(s for s in sh.evaluate().steps if getattr(s, "title", "").startswith("Governing ratio per case"))
+    return {row[1]: row[5] for row in table.rows}
+
+
+def test_scratch_sheets_kept_between_calls_give_each_call_its_own_ratios():
+    """A second call on the same section re-evaluates kept scratch sheets (or repeats the kept
+    answer for the same forces): every case's ratio is the direct check_member ratio of that call's
+    forces; a changed yield stress is not served from a sheet or answer kept for another (nothing
+    kept is ever stale)."""
+    from calcpad.eng.checks import frame_member
+
+    frame_member._KEPT.clear()
+    frame_member._ANSWERS.clear()
+    check_frame_member(Sheet("first", method="ASD"), _post(), "AB", HSS, L="10 ft", K=2.1, F_y="50 ksi")
+    assert frame_member._KEPT  # the sign patterns of this member are kept
+    for fy in ("50 ksi", "46 ksi"):
+        sh = Sheet("second", method="ASD")
+        check_frame_member(sh, _post(), "AB", HSS, L="10 ft", K=2.1, F_y=fy)
+        for case, (p, h) in {"D": (D_KIP, 0.0), "W": (0.0, H_KIP), "D+W": (D_KIP, H_KIP)}.items():
+            s = Sheet("direct", method="ASD")
+            r = check_member(s, HSS, L="10 ft", K=2.1, F_y=fy, P=f"{p} kip", M_x=f"{h * L_IN} kip*in", V=f"{h} kip")
+            assert _table_ratios(sh)[case] == f"{r.governing_ratio:.3f}", (fy, case)

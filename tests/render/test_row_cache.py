@@ -59,3 +59,28 @@ def test_store_is_bounded(monkeypatch) -> None:
         _beam(w)
         assert len(html_mod._ROWS) <= 3
     assert "<mn>50.00</mn>" in _moment_row(_beam("4 kip/ft"))  # 4 x 100 / 8
+
+
+def _slender(kl_r: float) -> str:
+    """A column-curve branch (AISC 360-16 E3: F_cr = 0.658^(F_y/F_e) F_y when F_y/F_e <= 2.25,
+    else 0.877 F_e), as printed."""
+    sh = Sheet("Column")
+    sh.given("F_y", "50 ksi", "Yield stress")
+    sh.given("E", "29000 ksi", "Modulus")
+    sh.given("KL_r", kl_r, "Slenderness")
+    sh.step("F_e", "pi**2*E/KL_r**2", "Elastic buckling stress", unit="ksi")
+    sh.branch("F_cr", [("F_y/F_e <= 2.25", "0.658**(F_y/F_e)*F_y", "E3-2"), (None, "0.877*F_e", "E3-3")],
+              "Critical stress", unit="ksi")
+    frag = sheet_html_fragment(sh.evaluate())
+    return frag.split('<div class="desc">Critical stress</div>')[1]
+
+
+def test_branch_rows_repeat_from_the_store_and_other_cases_print_anew() -> None:
+    html_mod._ROWS.clear()
+    inelastic = _slender(50.0)  # F_e = pi^2 x 29000 / 50^2 = 114.5 ksi; 50/114.5 = 0.437 <= 2.25: E3-2
+    assert "E3-2" in inelastic and "E3-3" not in inelastic
+    assert _slender(50.0) == inelastic  # from the store
+    elastic = _slender(150.0)  # F_e = 12.72 ksi; 50/12.72 = 3.93 > 2.25: E3-3, 0.877 x 12.72 = 11.16 ksi
+    assert "E3-3" in elastic and "<mn>11.16</mn>" in elastic
+    other = _slender(60.0)  # F_e = 79.51 ksi, the same case with other numbers
+    assert "E3-2" in other and other != inelastic and "<mn>79.51</mn>" in other

@@ -8,11 +8,13 @@ notebooks alike and can go straight into ``Sheet.figure``.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
 import numpy as np
 
 from calcpad.core.errors import InputError
+from calcpad.core.figure_png import figure_png, mark_content, png_once
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -20,7 +22,7 @@ if TYPE_CHECKING:  # pragma: no cover
     from calcpad.eng.analysis.beams import BeamSolution
     from calcpad.eng.analysis.frame import Frame, FrameResult
 
-__all__ = ["draw_frame", "draw_frame_diagram", "plot_beam", "plot_member", "png_bytes"]
+__all__ = ["draw_frame", "draw_frame_diagram", "drawing_png", "plot_beam", "plot_member", "png_bytes"]
 
 _LOAD = "#b03a2e"
 _MEMBER = "#1f3b57"
@@ -42,12 +44,19 @@ def _figure(w: float = 7.0, h: float = 5.0, rows: int = 1) -> Figure:
 
 
 def png_bytes(fig: Figure, dpi: int = 100) -> bytes:
-    """PNG of a figure (for ``IPython.display.Image`` or files); no date metadata, so reruns match."""
-    import io
+    """PNG of a figure (for ``IPython.display.Image`` or files); no date metadata, so reruns match.
+    A drawing of this module is saved once per distinct content (:mod:`calcpad.core.figure_png`)."""
+    return figure_png(fig, dpi)
 
-    buf = io.BytesIO()
-    fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
-    return buf.getvalue()
+
+def _model(frame: Frame) -> tuple[Any, ...]:
+    """Everything of the frame model a drawing can show."""
+    return (frame.fu, frame.lu, frame.nodes, frame.members, frame.supports, frame.cases, frame.combos)
+
+
+def _solution(result: FrameResult) -> tuple[Any, ...]:
+    """Everything of a solved frame a drawing reads: the model and the solution's arrays."""
+    return (_model(result.frame), result.names, result.U, result.R, result._factors, result._elem, result.end_forces_local)
 
 
 def _extent(frame: Frame) -> float:
@@ -142,7 +151,14 @@ def draw_frame(
     ax.set_ylabel(f"y [{frame.lu}]")
     ax.set_title(title or ("Frame model" + (f" - {case}" if case else "")), fontsize=10)
     ax.grid(alpha=0.2)
-    return fig
+    return mark_content(fig, *_draw_frame_content(frame, result, case, show_loads=show_loads,
+                                                  deflection_scale=deflection_scale, title=title))
+
+
+def _draw_frame_content(frame: Frame, result: FrameResult | None = None, case: str | None = None, *, show_loads: bool = True,
+                        deflection_scale: float | None = None, title: str | None = None) -> tuple[Any, ...]:
+    return ("draw_frame", _model(frame), None if result is None else _solution(result), case, show_loads, deflection_scale,
+            title)
 
 
 def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arrow: Any) -> None:
@@ -239,7 +255,12 @@ def draw_frame_diagram(
     ax.margins(0.15)
     ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
     ax.grid(alpha=0.2)
-    return fig
+    return mark_content(fig, *_draw_frame_diagram_content(result, case, quantity, scale=scale, members=members))
+
+
+def _draw_frame_diagram_content(result: FrameResult, case: str, quantity: str = "M", *, scale: float | None = None,
+                                members: list[str] | None = None) -> tuple[Any, ...]:
+    return ("draw_frame_diagram", _solution(result), case, quantity, scale, None if members is None else list(members))
 
 
 def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
@@ -266,7 +287,8 @@ def plot_beam(sol: BeamSolution, title: str = "Beam") -> Figure:
     rows = [("V", sol.V, u.get("force", "")), ("M", sol.M, u.get("moment", ""))]
     if sol.delta is not None:
         rows.append(("deflection (down +)", sol.delta, u.get("length", "")))
-    return _three_panels(sol.x, rows, title, f"x [{u.get('length', '')}]")
+    fig = _three_panels(sol.x, rows, title, f"x [{u.get('length', '')}]")
+    return mark_content(fig, "plot_beam", sol.x, rows, title, u)
 
 
 def plot_member(result: FrameResult, member: str, case: str, quantities: tuple[str, ...] = ("N", "V", "M", "delta_rel")) -> Figure:
@@ -279,4 +301,24 @@ def plot_member(result: FrameResult, member: str, case: str, quantities: tuple[s
         if q not in units:
             raise InputError(f"quantities: {q!r}; expected some of {list(units)}")
         rows.append((q, getattr(dg, q), units[q]))
-    return _three_panels(dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
+    fig = _three_panels(dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
+    return mark_content(fig, *_plot_member_content(result, member, case, quantities))
+
+
+def _plot_member_content(result: FrameResult, member: str, case: str,
+                         quantities: tuple[str, ...] = ("N", "V", "M", "delta_rel")) -> tuple[Any, ...]:
+    return ("plot_member", _solution(result), member, case, tuple(quantities))
+
+
+_CONTENT: dict[Callable[..., Figure], Callable[..., tuple[Any, ...]]] = {
+    draw_frame: _draw_frame_content, draw_frame_diagram: _draw_frame_diagram_content, plot_member: _plot_member_content}
+
+
+def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwargs: Any) -> bytes:
+    """PNG of ``draw(*args, **kwargs)`` (``draw_frame``, ``draw_frame_diagram`` or ``plot_member``) at
+    ``dpi`` (110: as ``Sheet.figure`` saves a figure), drawn only when the same drawing was not made
+    before in this process (the inputs decide). For ``Sheet.figure``: the same bytes as passing the
+    figure, without building it again for a frame drawn before."""
+    if draw not in _CONTENT:
+        raise InputError(f"draw: got {getattr(draw, '__name__', draw)!r}; expected one of {[f.__name__ for f in _CONTENT]}")
+    return png_once(_CONTENT[draw](*args, **kwargs), lambda: draw(*args, **kwargs), dpi)

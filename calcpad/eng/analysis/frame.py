@@ -673,12 +673,12 @@ def add_frame_results(
     deflected shape of ``figure_case``), reaction and member-end-force tables for ``cases``
     (default: all; member forces for ``members``, default all) and, optionally, the moment
     diagram of ``figure_case``."""
-    from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram
+    from calcpad.eng.analysis.diagrams import draw_frame, draw_frame_diagram, drawing_png
 
     case = figure_case or (cases or result.names)[0]
     sh.heading(title, level=2)
-    sh.figure(f"Frame model, loads and deflected shape ({case})", draw_frame(result.frame, result, case))
+    sh.figure(f"Frame model, loads and deflected shape ({case})", drawing_png(draw_frame, result.frame, result, case))
     sh.table("Support reactions (global axes; moment counter-clockwise +)", result.reactions_frame(cases))
     sh.table("Member end forces (N tension +, M sagging +)", result.member_forces_frame(cases, members))
     if moment_diagram:
-        sh.figure(f"Bending moment diagram ({case})", draw_frame_diagram(result, case, "M", members=members))
+        sh.figure(f"Bending moment diagram ({case})", drawing_png(draw_frame_diagram, result, case, "M", members=members))

@@ -11,6 +11,7 @@ sheet in full (:func:`check_member`), after a table of the governing ratio of ev
 
 from __future__ import annotations
 
+import threading
 import warnings
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -19,6 +20,7 @@ from typing import Any
 import numpy as np
 import pint
 
+from calcpad.core.content_key import content_key
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import Q_
 from calcpad.eng.checks._common import CheckInputError
@@ -70,6 +72,15 @@ def _sign(q: pint.Quantity) -> int:
     return int(np.sign(float(q.magnitude)))
 
 
+#: Scratch sheets kept between calls, by the content of what they check and the force signs:
+#: the same member in another direction, or a calc like an earlier one, re-evaluates a kept sheet.
+_KEPT: dict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]] = {}
+KEPT_LIMIT = 48
+#: Governing limit state and ratio by member content, force signs and the forces' exact values.
+_ANSWERS: dict[tuple[Any, ...], tuple[str, float]] = {}
+ANSWERS_LIMIT = 5_000
+
+
 class _Scratches:
     """The per-case member checks of :func:`check_frame_member`, on reused scratch sheets.
 
@@ -78,11 +89,32 @@ class _Scratches:
     through :meth:`Sheet.set`, which recomputes only what depends on them. Reuse needs the
     forces as givens named as :func:`check_member` writes them (``P_r`` or ``T_r``, ``M_r``,
     ``V_r``) holding the values passed; a sheet built otherwise is used for its own case only.
+    Reusable sheets are also kept between calls (``_KEPT``, bounded), keyed by the exact content
+    of the section, length, options and design method (:func:`content_key`; no key, no keeping).
     """
 
     def __init__(self, sh: Sheet, section: Any, L: Any, options: dict[str, Any]) -> None:
         self.sh, self.section, self.L, self.options = sh, section, L, options
         self.sheets: dict[tuple[int, int, int], tuple[Sheet, MemberChecks]] = {}
+        key = content_key("check_member", type(section), section, L, options, sh.method, sh.prefs.system)
+        # a kept sheet is re-evaluated in place: never share one between threads
+        self.key = None if key is None else f"{key}:{threading.get_ident()}"
+
+    def _kept(self, signs: tuple[int, int, int]) -> tuple[Sheet, MemberChecks] | None:
+        entry = self.sheets.get(signs)
+        if entry is None and self.key is not None:
+            entry = _KEPT.get((self.key, signs))
+            if entry is not None:
+                self.sheets[signs] = entry
+                entry[0].title = self.sh.title  # messages name this calc's sheet
+        return entry
+
+    def _keep(self, signs: tuple[int, int, int], entry: tuple[Sheet, MemberChecks]) -> None:
+        self.sheets[signs] = entry
+        if self.key is not None:
+            _KEPT[(self.key, signs)] = entry
+            while len(_KEPT) > KEPT_LIMIT:
+                _KEPT.pop(next(iter(_KEPT)), None)
 
     def _build(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Sheet, MemberChecks]:
         sh = self.sh
@@ -119,10 +151,25 @@ class _Scratches:
         return name, checks[key].ratio
 
     def check(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[str, float]:
-        """The governing limit state and its ratio for one case's forces."""
+        """The governing limit state and its ratio for one case's forces (an answer for the same
+        member content and the same forces is taken from the previous evaluation)."""
         key = (_sign(P), _sign(M), _sign(V))
         forces = self._forces(P, M, V)
-        entry = self.sheets.get(key)
+        memo = None
+        if self.key is not None:
+            memo = (self.key, key, tuple((n, repr(q.magnitude), q.units._units) for n, q in forces.items()))
+            if memo in _ANSWERS:
+                return _ANSWERS[memo]
+        answer = self._evaluate(key, forces, P, M, V)
+        if memo is not None:
+            if len(_ANSWERS) >= ANSWERS_LIMIT:
+                _ANSWERS.clear()
+            _ANSWERS[memo] = answer
+        return answer
+
+    def _evaluate(self, key: tuple[int, int, int], forces: dict[str, pint.Quantity], P: pint.Quantity, M: pint.Quantity,
+                  V: pint.Quantity) -> tuple[str, float]:
+        entry = self._kept(key)
         if entry is not None:
             scratch, out = entry
             scratch.set(**forces)
@@ -131,7 +178,7 @@ class _Scratches:
                 return self._governing(scratch, out)
         scratch, out = self._build(P, M, V)
         if self._holds(scratch, forces):
-            self.sheets[key] = (scratch, out)
+            self._keep(key, (scratch, out))
         return out.governing, out.governing_ratio
 
 

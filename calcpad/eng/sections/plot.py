@@ -7,7 +7,9 @@ from typing import Any
 
 import numpy as np
 
-__all__ = ["draw_sections"]
+from calcpad.core.figure_png import mark_content, png_once
+
+__all__ = ["draw_sections", "sections_png"]
 
 _FILLS = ["#9fb7cf", "#e0b27a", "#a9cf9f", "#cf9fb7", "#c9c39b"]
 
@@ -54,4 +56,11 @@ def draw_sections(sections: Sequence[Any], titles: Sequence[str] | None = None, 
         ax.set_ylabel("y (in)")
         ax.set_title(titles[k] if titles else getattr(sec, "name", ""), fontsize=9)
         ax.legend(fontsize=7, loc="upper center", bbox_to_anchor=(0.5, -0.22), frameon=False, ncol=2)
-    return fig
+    return mark_content(fig, "draw_sections", list(sections), None if titles is None else list(titles), size)
+
+
+def sections_png(sections: Sequence[Any], titles: Sequence[str] | None = None, *, size: float = 3.2, dpi: int = 100) -> bytes:
+    """PNG of :func:`draw_sections` at ``dpi`` (for the notebook and ``Sheet.figure`` alike), drawn only
+    when the same sections were not drawn before in this process (their exact content decides)."""
+    content = ("draw_sections", list(sections), None if titles is None else list(titles), size)
+    return png_once(content, lambda: draw_sections(sections, titles, size=size), dpi)

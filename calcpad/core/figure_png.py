@@ -1,0 +1,98 @@
+"""PNG of a figure, drawn once per distinct drawing.
+
+A drawing function that knows what it drew (its inputs) marks the figure it returns with
+:func:`mark_content`; :func:`figure_png` then saves each distinct drawing once and hands out the
+same bytes for the next figure with the same mark (a job often draws the same frame for members
+that are alike). The mark holds only while the figure is as it was drawn: any change to the
+figure or its artists afterwards (matplotlib marks the figure *stale*) drops it, and the figure is
+saved as usual. The mark also carries matplotlib's settings (``rcParams``) when it was made.
+
+Duck-typed on matplotlib's ``Figure`` (``savefig``, ``stale_callback``): this module imports no
+drawing library.
+"""
+
+from __future__ import annotations
+
+import io
+from collections.abc import Callable
+from typing import Any
+
+from calcpad.core.content_key import content_key
+
+__all__ = ["figure_png", "mark_content", "png_once"]
+
+#: Figure attribute holding the content mark (dropped when the figure changes).
+KEY_ATTR = "_calcpad_content_key"
+#: Distinct drawings kept, the oldest dropped first (a PNG is some 30-60 kB).
+LIMIT = 64
+_PNG: dict[tuple[str, int], bytes] = {}
+
+
+def _settings() -> str:
+    import matplotlib as mpl  # loaded already when there is a figure, and about to be used otherwise
+
+    return f"{mpl.__version__}|{sorted(mpl.rcParams.items())!r}"
+
+
+def _digest(content: tuple[Any, ...]) -> str | None:
+    return content_key(content, _settings())
+
+
+def mark_content(fig: Any, *content: Any) -> Any:
+    """Mark ``fig`` as the drawing of ``content`` (what decides the drawing: names, numbers,
+    arrays, models; see :func:`calcpad.core.content_key.content_key`) and return it. The mark is
+    dropped as soon as the figure or anything in it changes."""
+    digest = _digest(content)
+    if digest is None:  # no exact description: saved every time
+        return fig
+    previous = getattr(fig, "stale_callback", None)
+
+    def changed(artist: Any, value: Any) -> None:
+        if value and hasattr(fig, KEY_ATTR):
+            delattr(fig, KEY_ATTR)
+        if previous is not None:
+            previous(artist, value)
+
+    fig.stale_callback = changed
+    setattr(fig, KEY_ATTR, digest)
+    return fig
+
+
+def _keep(key: tuple[str, int], png: bytes) -> None:
+    _PNG[key] = png
+    while len(_PNG) > LIMIT:
+        _PNG.pop(next(iter(_PNG)), None)  # the oldest (first kept)
+
+
+def _kept(key: tuple[str, int]) -> bytes | None:
+    return _PNG.get(key)
+
+
+def png_once(content: tuple[Any, ...], build: Callable[[], Any], dpi: int) -> bytes:
+    """The PNG at ``dpi`` of the figure ``build()`` returns, which draws ``content`` (as for
+    :func:`mark_content`); ``build`` is called only when this content has not been drawn before."""
+    digest = _digest(content)
+    if digest is None:
+        return figure_png(build(), dpi)
+    key = (digest, dpi)
+    png = _kept(key)
+    if png is not None:
+        return png
+    png = figure_png(build(), dpi)
+    _keep(key, png)
+    return png
+
+
+def figure_png(fig: Any, dpi: int) -> bytes:
+    """The PNG of ``fig`` at ``dpi``, at the figure's own size and layout, without date metadata
+    (reruns give the same bytes); a marked figure is saved once per distinct drawing."""
+    key = getattr(fig, KEY_ATTR, None)
+    png = _kept((key, dpi)) if key is not None else None
+    if png is not None:
+        return png
+    buf = io.BytesIO()
+    fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
+    png = buf.getvalue()
+    if key is not None:
+        _keep((key, dpi), png)
+    return png
