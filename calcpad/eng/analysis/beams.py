@@ -28,7 +28,7 @@ import pint
 from scipy.optimize import brentq
 
 from calcpad.core.errors import InputError
-from calcpad.core.units import parse_quantity
+from calcpad.core.units import format_number, parse_quantity
 from calcpad.eng.analysis._values import to_float
 
 __all__ = [
@@ -636,11 +636,11 @@ def add_beam_results(sh: Any, sol: BeamSolution, *, suffix: str = "", title: str
     lu = u["length"]
     added = [f"M_max{suffix}", f"V_max{suffix}"]
     sh.given(added[0], Q_(abs(m_val), u["moment"]), "Maximum moment magnitude",
-             source=f"beam analysis, x = {m_x:.4g} {lu}")
+             source=f"beam analysis, x = {format_number(m_x, -4)} {lu}")
     sh.given(added[1], Q_(abs(sol.V_max), u["force"]), "Maximum shear magnitude",
-             source=f"beam analysis, x = {sol.x_V_max:.4g} {lu}")
+             source=f"beam analysis, x = {format_number(sol.x_V_max, -4)} {lu}")
     if sol.delta_max is not None:
         added.append(f"delta_max{suffix}")
         sh.given(added[2], Q_(abs(sol.delta_max), lu), "Maximum deflection magnitude",
-                 source=f"beam analysis, x = {sol.x_delta_max:.4g} {lu}")
+                 source=f"beam analysis, x = {format_number(sol.x_delta_max, -4)} {lu}")
     return added

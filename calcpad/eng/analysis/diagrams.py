@@ -15,6 +15,7 @@ import numpy as np
 
 from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
+from calcpad.core.units import format_number
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -143,7 +144,7 @@ def draw_frame(
             c, sn = result.direction(dg.member)
             bx, by = x0 + c * dg.x, y0 + sn * dg.x
             ax.plot(bx + scale * (dg.xg - bx), by + scale * (dg.yg - by), "--", color=_DEFL, lw=1.2, zorder=1)
-        ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{scale:.3g}")
+        ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{_num(scale)}")
         fig.legend(loc="lower right", fontsize=8, frameon=False)  # below the axes: no search for a spot
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
@@ -161,9 +162,16 @@ def _draw_frame_content(frame: Frame, result: FrameResult | None = None, case: s
             title)
 
 
+def _num(x: float, figures: int = 3) -> str:
+    """A label value: up to ``figures`` significant figures, thousands separated, no powers of
+    ten below 1e9 (``1,330``, not ``1.33e+03``)."""
+    return format_number(float(x), -figures)
+
+
 def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arrow: Any) -> None:
     L0 = 4 * s
     nodal: dict[str, np.ndarray] = {}
+    labels: dict[tuple[float, float, str], list[str]] = {}
     for cn, f in factors.items():
         case = frame.cases[cn]
         for n, fx, fy, mz in case.node:
@@ -179,8 +187,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
                 px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
                 ax.add_patch(Arrow((px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
                                    arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
-            ax.text(x1 + 0.5 * (x2 - x1) - sign * dx * L0 * 0.8, y1 + 0.5 * (y2 - y1) - sign * dy * L0 * 0.8,
-                    f"{cn}: w={w:g}", fontsize=7, color=_LOAD, ha="center")
+            at = (x1 + 0.5 * (x2 - x1) - sign * dx * L0 * 0.8, y1 + 0.5 * (y2 - y1) - sign * dy * L0 * 0.8)
+            labels.setdefault((round(at[0], 6), round(at[1], 6), "center"), []).append(f"{cn}: w={_num(w)}")
         for mname, P, a, d in case.point:
             m = frame.members[mname]
             (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
@@ -191,7 +199,10 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             px, py = x1 + c * a, y1 + sn * a
             ax.add_patch(Arrow((px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
                                mutation_scale=12, color=_LOAD, lw=1.5))
-            ax.text(px - sign * dx * L0 * 1.1, py - sign * dy * L0 * 1.1, f"{cn}: {P:g}", fontsize=7, color=_LOAD)
+            at = (px - sign * dx * L0 * 1.1, py - sign * dy * L0 * 1.1)
+            labels.setdefault((round(at[0], 6), round(at[1], 6), "left"), []).append(f"{cn}: {_num(P)}")
+    for (tx, ty, ha), lines in labels.items():  # loads of several cases at one place share one stacked label
+        ax.text(tx, ty, "\n".join(lines), fontsize=7, color=_LOAD, ha=ha)
     for n, (fx, fy, mz) in nodal.items():
         x, y = frame.nodes[n]
         mag = np.hypot(fx, fy)
@@ -199,13 +210,13 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             ux, uy = fx / mag, fy / mag
             ax.add_patch(Arrow((x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
                                color=_LOAD, lw=1.8))
-            ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{mag:.3g} {frame.fu}", fontsize=8, color=_LOAD,
+            ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{_num(mag)} {frame.fu}", fontsize=8, color=_LOAD,
                     ha="center", va="center")
         if mz:
             ax.add_patch(Arrow((x + 1.5 * s, y - 1.0 * s), (x + 1.5 * s, y + 1.0 * s),
                                connectionstyle=f"arc3,rad={0.8 if mz > 0 else -0.8}", arrowstyle="-|>",
                                mutation_scale=10, color=_LOAD, lw=1.2))
-            ax.text(x + 2.6 * s, y, f"{mz:.3g} {frame.fu}·{frame.lu}", fontsize=7, color=_LOAD)
+            ax.text(x + 2.6 * s, y, f"{_num(mz)} {frame.fu}·{frame.lu}", fontsize=7, color=_LOAD)
 
 
 def draw_frame_diagram(
@@ -250,7 +261,7 @@ def draw_frame_diagram(
         ax.plot(ox, oy, "-", color=_LOAD, lw=1)
         for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
             if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
-                ax.text(ox[idx], oy[idx], f"{val[idx]:.3g}", fontsize=7, color=_LOAD)
+                ax.text(ox[idx], oy[idx], f"{_num(val[idx])}", fontsize=7, color=_LOAD)
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
     ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
@@ -272,7 +283,7 @@ def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title:
         ax.axhline(0, color="k", lw=0.6)
         i = int(np.argmax(np.abs(y)))
         ax.plot(x[i], y[i], "o", color=_LOAD, ms=4)
-        ax.annotate(f"{y[i]:.4g} {unit}\n@ {x[i]:.4g}", (x[i], y[i]), fontsize=7, color=_LOAD,
+        ax.annotate(f"{_num(y[i], 4)} {unit}\n@ {_num(x[i], 4)}", (x[i], y[i]), fontsize=7, color=_LOAD,
                     xytext=(4, 4), textcoords="offset points")
         ax.set_ylabel(f"{lab} [{unit}]", fontsize=8)
         ax.grid(alpha=0.2)
