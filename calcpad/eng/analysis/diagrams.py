@@ -111,8 +111,10 @@ def draw_frame(
         ax.plot([x1, x2], [y1, y2], "-", color=_MEMBER, lw=2.5, solid_capstyle="round", zorder=2)
         L = np.hypot(x2 - x1, y2 - y1)
         ux, uy = (x2 - x1) / L, (y2 - y1) / L
-        ax.text((x1 + x2) / 2 - uy * s, (y1 + y2) / 2 + ux * s, m.name, fontsize=8, color=_MEMBER,
-                ha="center", va="center")
+        # names below a beam and inside a post: loads are drawn on the other side
+        ox, oy = uy * 1.3 * s, -ux * 1.3 * s
+        ax.text((x1 + x2) / 2 + ox, (y1 + y2) / 2 + oy, m.name, fontsize=8, color=_MEMBER,
+                ha="left" if ox > 0.5 * abs(oy) else "right" if ox < -0.5 * abs(oy) else "center", va="center")
         for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)):
             if flag:
                 ax.plot(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s, "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
@@ -168,10 +170,19 @@ def _num(x: float, figures: int = 3) -> str:
     return format_number(float(x), -figures)
 
 
+def _direction(d: str) -> str:
+    return {"x": "global x", "y": "global y", "local_x": "along the member", "local_y": "across the member"}[d]
+
+
+def _member_list(names: list[str]) -> str:
+    return ", ".join(names) if len(names) <= 3 else f"{names[0]} … {names[-1]} ({len(names)} members)"
+
+
 def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arrow: Any) -> None:
     L0 = 4 * s
     nodal: dict[str, np.ndarray] = {}
     labels: dict[tuple[float, float, str], list[str]] = {}
+    spread: dict[tuple[str, str, str], list[str]] = {}  # (case, w, direction) -> members
     for cn, f in factors.items():
         case = frame.cases[cn]
         for n, fx, fy, mz in case.node:
@@ -187,8 +198,7 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
                 px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
                 ax.add_patch(Arrow((px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
                                    arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
-            at = (x1 + 0.5 * (x2 - x1) - sign * dx * L0 * 0.8, y1 + 0.5 * (y2 - y1) - sign * dy * L0 * 0.8)
-            labels.setdefault((round(at[0], 6), round(at[1], 6), "center"), []).append(f"{cn}: w={_num(w)}")
+            spread.setdefault((cn, _num(w), d), []).append(mname)
         for mname, P, a, d in case.point:
             m = frame.members[mname]
             (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
@@ -203,6 +213,10 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             labels.setdefault((round(at[0], 6), round(at[1], 6), "left"), []).append(f"{cn}: {_num(P)}")
     for (tx, ty, ha), lines in labels.items():  # loads of several cases at one place share one stacked label
         ax.text(tx, ty, "\n".join(lines), fontsize=7, color=_LOAD, ha=ha)
+    if spread:  # distributed loads are listed in a corner box, not beside arrows that crowd a beam
+        lines = [f"{cn}: w = {w} {frame.fu}/{frame.lu} ({_direction(d)}) on {_member_list(ms)}" for (cn, w, d), ms in spread.items()]
+        ax.text(0.01, 0.01, "\n".join(lines), transform=ax.transAxes, fontsize=7, color=_LOAD, ha="left", va="bottom",
+                bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.85, "pad": 2})
     for n, (fx, fy, mz) in nodal.items():
         x, y = frame.nodes[n]
         mag = np.hypot(fx, fy)

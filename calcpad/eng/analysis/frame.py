@@ -623,7 +623,7 @@ class FrameResult:
             for n in self.frame.supports:
                 i = self._idx[n]
                 rx, ry, mz = self.R[3 * i: 3 * i + 3, c]
-                rows.append({"case": cn, "node": n, f"Rx [{fu}]": rx, f"Ry [{fu}]": ry, f"Mz [{mu}]": mz})
+                rows.append({"case": cn, "node": n, f"Rx [{fu}]": rx, f"Ry [{fu}]": ry, f"Mz [{_shown(mu)}]": mz})
         return pd.DataFrame(rows)
 
     def member_forces_frame(self, cases: list[str] | None = None, members: list[str] | None = None) -> Any:
@@ -640,8 +640,8 @@ class FrameResult:
                 dg = self.diagram(mname, cn, n=2)
                 rows.append({
                     "case": cn, "member": mname,
-                    f"N start [{fu}]": dg.N[0], f"V start [{fu}]": dg.V[0], f"M start [{mu}]": dg.M[0],
-                    f"N end [{fu}]": dg.N[-1], f"V end [{fu}]": dg.V[-1], f"M end [{mu}]": dg.M[-1],
+                    f"N start [{fu}]": dg.N[0], f"V start [{fu}]": dg.V[0], f"M start [{_shown(mu)}]": dg.M[0],
+                    f"N end [{fu}]": dg.N[-1], f"V end [{fu}]": dg.V[-1], f"M end [{_shown(mu)}]": dg.M[-1],
                 })
         return pd.DataFrame(rows)
 
@@ -682,3 +682,8 @@ def add_frame_results(
     sh.table("Member end forces (N tension +, M sagging +)", result.member_forces_frame(cases, members))
     if moment_diagram:
         sh.figure(f"Bending moment diagram ({case})", drawing_png(draw_frame_diagram, result, case, "M", members=members))
+
+
+def _shown(unit: str) -> str:
+    """A unit as a table heading shows it: ``lbf*in`` → ``lbf·in``."""
+    return unit.replace("*", "·")
