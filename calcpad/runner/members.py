@@ -321,7 +321,7 @@ def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
     check_cols: list[str] = []
     extra: list[str] = []
     for o in outcomes:
-        checks = [(s["record"]["title"], ch) for s in o.sheets for ch in s["record"]["checks"]]
+        checks = [(s.title, ch) for s in o.sheets for ch in s.checks]
         names = [ch["title"] for _t, ch in checks]
         row: dict[str, Any] = {"mark": o.calc.member, "template": o.calc.template.name}
         for (sheet, ch), name in zip(checks, names, strict=True):
