@@ -230,18 +230,47 @@ def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], 
         bar.close()
 
 
+#: At most this many check rows in the terminal summary; a larger job lists its calcs that are not
+#: OK (failed first, then NG by ratio) up to it, and says where every check is.
+SUMMARY_ROWS = 200
+
+
 def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, Any]) -> None:
     from rich.table import Table
+
+    from calcpad.core.results import status_ok
 
     t = Table(title=f"{job.info.number} {job.info.title}", title_justify="left")
     for col in ("Calc", "Member", "Template", "Check", "Ratio", "Status"):
         t.add_column(col, justify="right" if col in ("Calc", "Ratio") else "left")
-    for o in outcomes:
+    rows = sum(max(1, len(o.checks)) for o in outcomes)
+    shown = outcomes
+    if rows > SUMMARY_ROWS:  # a large job: its calcs that are not OK, worst first
+        def worst(o: Any) -> tuple[int, float]:
+            ratios = [c["ratio"] for c in o.checks if c["ratio"] is not None]
+            return (0 if o.error is not None else 1, -max(ratios, default=0.0))
+
+        shown = sorted((o for o in outcomes if o.status != "OK"), key=worst)
+    listed = calcs_listed = 0
+    for o in shown:
+        if listed >= SUMMARY_ROWS:
+            break
+        calcs_listed += 1
         if o.error is not None:
             t.add_row(str(o.calc.number), o.calc.member, o.calc.template.name, f"cell {o.error['cell']}: {o.error['message']}", "—", "ERROR")
+            listed += 1
         for ch in o.checks:
+            if shown is not outcomes and status_ok(ch["status"]):
+                continue
             t.add_row(str(o.calc.number), o.calc.member, o.calc.template.name, ch["name"], f"{ch['ratio']:.3f}", ch["status"])
-    out.print(t)
+            listed += 1
+    if listed:
+        out.print(t)
+    if shown is not outcomes:
+        left = len(shown) - calcs_listed
+        not_ok = f"the calcs that are not OK ({listed} rows" + (f"; {left} more calcs not OK not listed" if left > 0 else "") + ")"
+        out.print(f"{rows} check rows: listed {not_ok if listed else 'none (every calc is OK)'}; "
+                  "every check is in record.json, the submittal and the results tables.", highlight=False)
     s = record["summary"]
     slender = f" ({s['slender']} above recommended slenderness)" if s.get("slender") else ""
     out.print(f"{s['calcs']} calcs, {s['checks']} checks: {s['ok']} OK{slender}, {s['ng']} NG, {s['errors']} failed — {s['status']}",
