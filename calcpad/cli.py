@@ -109,6 +109,10 @@ def _run(args: argparse.Namespace) -> int:
         folder_of_job = Path(args.target).parent
         protect += [Path(name) if Path(name).is_absolute() else folder_of_job / name for name in job.tables]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
+    if target is not None and job.tables:
+        from calcpad.runner.members import results_stems
+
+        results_stems(list(job.tables))  # two tables that would write the same results files: refused now
     if args.print is not None:
         check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
@@ -183,19 +187,9 @@ def _run_and_write(args: argparse.Namespace, job: Any, target: Any, mode: str, s
 
 def _table_files(job: Any, outcomes: list[Any]) -> dict[str, bytes]:
     """Each member table's results (every check ratio, governing check) as CSV and Excel."""
-    import io
+    from calcpad.runner.members import results_files
 
-    from calcpad.runner.members import results_frame
-
-    files: dict[str, bytes] = {}
-    for name in job.tables:
-        frame = results_frame([o for o in outcomes if o.calc.table == name])
-        stem = f"results-{Path(name).stem}"
-        files[f"{stem}.csv"] = frame.to_csv(index=False).encode("utf-8")
-        buf = io.BytesIO()
-        frame.to_excel(buf, index=False, sheet_name="results")
-        files[f"{stem}.xlsx"] = buf.getvalue()
-    return files
+    return results_files(list(job.tables), outcomes, job.info.date)
 
 
 def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], *, bar_on: bool, text: bool,

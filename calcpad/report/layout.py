@@ -14,6 +14,7 @@ from collections.abc import Iterator
 from dataclasses import dataclass
 from typing import Any
 
+from calcpad.core.errors import InputError
 from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
 from calcpad.report.grouping import CalcGroup, group_calcs, numbers_text
@@ -21,6 +22,7 @@ from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, print_mode
+from calcpad.runner.members import results_stems
 
 __all__ = ["CAUTIONS", "submittal_chunks", "submittal_html"]
 
@@ -267,13 +269,16 @@ def _member_table_row(o: CalcOutcome, g: CalcGroup, design: bool) -> str:
 def _member_tables(c: _Context) -> Iterator[str]:
     """One table per member table of the job: each member's row, size (chosen by a design search
     where there is one), governing check and the page of its sheet."""
+    try:
+        stems = results_stems(list(c.job.tables))
+    except InputError:  # refused before a run writes anything; a page made directly still prints
+        stems = {}
     for k, name in enumerate(_tables_printed(c), start=1):
         members = [(o, g) for g in c.printed for o in g.outcomes if o.calc.table == name]
         design = any((o.calc.design or {}).get("result") is not None for o, _g in members)
         head = ("<tr><th>Member</th><th>Row</th>" + ("<th>Size (lightest passing)</th><th>Runner-up</th>" if design else "")
                 + "<th>Governing check</th><th>Ratio</th><th>Status</th><th>Governing sheet</th><th>Page</th></tr>")
-        stem = name.rsplit("/", 1)[-1].rsplit(".", 1)[0]
-        note = (f'<p>Every check ratio of every member: results-{_e(stem)}.csv and .xlsx beside this submittal.'
+        note = (f'<p>Every check ratio of every member: {_e(stems.get(name, "results"))}.csv and .xlsx beside this submittal.'
                 + (" Sizes chosen by a design search: the lightest catalog size by weight per foot with every check OK; "
                    "each member's sheet is printed with that size." if design else "") + "</p>")
         yield _h2(f"table-{k}", f"Member table {name}") + note + f'<table class="list"><thead>{head}</thead><tbody>'

@@ -136,3 +136,65 @@ def test_run_table_returns_the_results_frame(tmp_path: Path) -> None:
     with pytest.raises(Exception, match="row 2, column B"):
         (tmp_path / "bad.csv").write_text("mark,P [lbf]\nA1,x\n", encoding="utf-8")
         run_table("leg_bending", tmp_path / "bad.csv")
+
+
+def test_results_workbook_is_byte_reproducible(tmp_path: Path) -> None:
+    import time
+
+    jp = _job(tmp_path, "legs.csv", GOOD)
+    assert main(["run", str(jp), "--out", str(tmp_path / "one"), "--no-pdf"]) == 0
+    time.sleep(2.1)  # zip entry times have a 2 s resolution: a clock-dependent writer would differ now
+    assert main(["run", str(jp), "--out", str(tmp_path / "two"), "--no-pdf"]) == 0
+    one, two = (tmp_path / "one" / "rev-A" / "results-legs.xlsx").read_bytes(), (tmp_path / "two" / "rev-A" / "results-legs.xlsx").read_bytes()
+    assert one == two
+    assert (tmp_path / "one" / "rev-A" / "results-legs.csv").read_bytes() == (tmp_path / "two" / "rev-A" / "results-legs.csv").read_bytes()
+    import io
+    import zipfile
+
+    from openpyxl import load_workbook
+
+    with zipfile.ZipFile(io.BytesIO(one)) as z:
+        assert {i.date_time for i in z.infolist()} == {(1980, 1, 1, 0, 0, 0)}
+    wb = load_workbook(io.BytesIO(one))
+    assert wb.properties.created.date().isoformat() == wb.properties.modified.date().isoformat() == "2025-03-14"  # the job's date
+    # the workbook holds what the CSV holds
+    csv_frame, xlsx_frame = pd.read_csv(tmp_path / "one" / "rev-A" / "results-legs.csv"), pd.read_excel(io.BytesIO(one))
+    pd.testing.assert_frame_equal(csv_frame, xlsx_frame, check_dtype=False)
+
+
+TWO_TABLES = JOB + textwrap.dedent("""\
+
+    [[calcs]]
+    template = "leg_bending"
+    table = "{second}"
+    title = "More legs"
+    [calcs.inputs]
+    D_o = "1.900 in"
+    t = "0.145 in"
+    F_y = "35 ksi"
+    FS_req = 1.67
+    """)
+
+
+def test_tables_of_the_same_name_in_two_folders_write_two_results(tmp_path: Path) -> None:
+    for folder, marks in (("north", "N"), ("south", "S")):
+        (tmp_path / folder).mkdir()
+        (tmp_path / folder / "legs.csv").write_text(GOOD.replace("A", marks), encoding="utf-8")
+    jp = tmp_path / "job.toml"
+    jp.write_text(TWO_TABLES.format(table="north/legs.csv", second="south/legs.csv"), encoding="utf-8")
+    assert main(["run", str(jp), "--out", str(tmp_path / "out"), "--no-pdf"]) == 0
+    rev = tmp_path / "out" / "rev-A"
+    assert pd.read_csv(rev / "results-north_legs.csv")["mark"].tolist() == ["N1", "N2", "N3"]
+    assert pd.read_csv(rev / "results-south_legs.csv")["mark"].tolist() == ["S1", "S2", "S3"]
+    assert "results-north_legs.csv and .xlsx" in (rev / "submittal.html").read_text(encoding="utf-8")
+
+
+def test_tables_that_would_write_the_same_results_are_refused(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    (tmp_path / "legs.csv").write_text(GOOD, encoding="utf-8")
+    pd.read_csv(tmp_path / "legs.csv").assign(mark=lambda f: f["mark"].str.replace("A", "B")).to_excel(tmp_path / "legs.xlsx", index=False)
+    jp = tmp_path / "job.toml"
+    jp.write_text(TWO_TABLES.format(table="legs.csv", second="legs.xlsx"), encoding="utf-8")
+    assert main(["run", str(jp), "--out", str(tmp_path / "out"), "--no-pdf"]) == 2
+    err = capsys.readouterr().err
+    assert "'legs.csv' and 'legs.xlsx' would both write results-legs.csv" in err and "Traceback" not in err
+    assert not (tmp_path / "out").exists()  # refused before anything ran or was written
