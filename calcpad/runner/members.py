@@ -267,7 +267,7 @@ def table_rows(
                 problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
                 row_ok = False
                 continue
-            if pname in sections:
+            if pname in sections and not _offered_word(params[pname], values[pname]):
                 try:
                     get_entry(str(values[pname]))
                 except InputError as exc:
@@ -297,6 +297,15 @@ def table_rows(
         if row_ok and not bad_header:
             out.append(MemberRow(i, mark, {n: full[n] for n in params}, typed))
     return out  # every cell is checked even when the header has problems (all of them reported at once)
+
+
+def _offered_word(p: Any, value: Any) -> bool:
+    """A section cell holding a word without digits that the parameter's description offers (the
+    ``custom`` of leg_bending's "..., or custom for D_o and t"): the template takes explicit
+    dimensions from its other parameters, each a column (or a shared value) checked like any cell,
+    as a calc without a table takes them."""
+    text = str(value).strip().lower()
+    return bool(text) and not re.search(r"\d", text) and re.search(rf"\b{re.escape(text)}\b", p.description.lower()) is not None
 
 
 def _plain_number(text: str) -> bool:

@@ -198,3 +198,29 @@ def test_tables_that_would_write_the_same_results_are_refused(tmp_path: Path, ca
     err = capsys.readouterr().err
     assert "'legs.csv' and 'legs.xlsx' would both write results-legs.csv" in err and "Traceback" not in err
     assert not (tmp_path / "out").exists()  # refused before anything ran or was written
+
+
+def test_custom_section_rows_take_their_dimensions_from_columns(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    # leg_bending offers "custom for D_o and t", as a calc without a table does (leg = "custom")
+    table = "mark,P [lbf],N [lbf],L [in],leg,D_o [in],t [in]\nC1,120,115,30,custom,2.000,0.120\nC2,120,115,30,Pipe 1-1/2 Std,1.900,0.145\n"
+    job = load_job(_job(tmp_path, "legs.csv", table))
+    assert [c.inputs["leg"] for c in job.calcs] == ["custom", "Pipe 1-1/2 Std"]
+    assert job.calcs[0].inputs["D_o"] == "2.000 in" and job.calcs[0].inputs["t"] == "0.120 in"
+    from calcpad.runner.execute import run_job
+
+    o = run_job(job)[0]
+    assert o.error is None
+    results = o.sheets[0]["record"]["results"]
+    # design wall 0.93 t (AISC 360-16 B4.2) and I = pi/64 (D^4 - D_i^4) of a round tube (by hand)
+    import math
+    t = 0.93 * 0.120
+    di = 2.000 - 2 * t
+    assert results["t"]["value"] == pytest.approx(t, rel=1e-4)
+    assert results["I"]["value"] == pytest.approx(math.pi / 64 * (2.000**4 - di**4), rel=1e-3)
+    # a dimension cell of a custom row goes through the value parser like any cell
+    bad = "mark,P [lbf],N [lbf],L [in],leg,D_o [in],t [in]\nC1,120,115,30,custom,2 kg,0.120\nC2,120,115,30,square,2.0,0.12\n"
+    with pytest.raises(JobError) as exc:
+        load_job(_job(tmp_path, "bad.csv", bad))
+    text = str(exc.value)
+    assert "row 2, column F (D_o)" in text and "kg" in text
+    assert "row 3, column E (leg)" in text and "unknown section" in text  # a word the template does not offer
