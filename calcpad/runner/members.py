@@ -232,6 +232,10 @@ def table_rows(
     sections = {n for n, p in params.items() if p.kind == "text" and _is_section(p.default)}
     out: list[MemberRow] = []
     marks: dict[str, int] = {}
+    coerced: dict[tuple[str, str], str | float | bool] = {}  # (parameter, cell text) -> value
+    quantities: dict[Any, Any] = {}  # value -> quantity
+    in_range: dict[tuple[Any, ...], str | None] = {}  # (parameter, value, values its bounds name) -> problem
+    refs = {n: sorted({b.ref for b in (p.lower, p.upper) if b is not None and b.ref}) for n, p in params.items()}
     for i, cells in enumerate(table.rows, start=2):
         if not any(cells):
             continue  # a blank line between groups of members
@@ -262,7 +266,9 @@ def table_rows(
                 text = f"{text} {unit}"
             p = params[pname]
             try:
-                values[pname] = p.coerce(text, cell_at)
+                if (pname, text) not in coerced:  # rows repeat values: each text is read once
+                    coerced[pname, text] = p.coerce(text, cell_at)
+                values[pname] = coerced[pname, text]
             except InputError as exc:
                 problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
                 row_ok = False
@@ -282,21 +288,42 @@ def table_rows(
         full = {n: params[n].default for n in params}
         full.update({n: v for n, v in shared.items() if n in params})
         full.update(values)
-        try:
-            qs = {n: parse_quantity(v, n) for n, v in full.items() if params[n].kind != "text"}
-        except InputError as exc:
-            problems.append((at, str(exc)))
-            continue
+        # the range check of a value depends on it and the parameters its bounds name: each
+        # combination is checked once (a large table repeats lengths, loads and sizes)
+        todo = []
         for n, v in values.items():
             cell_at = f"{at}, column {_column_letter(next(j for j, (p, _u) in columns.items() if p == n))} ({n})"
-            try:
-                params[n].check_range(v, qs, cell_at)
-            except InputError as exc:
-                problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
+            key = (n, v, tuple(full.get(r) for r in refs[n]))
+            if key not in in_range:
+                todo.append((n, v, cell_at, key))
+            elif in_range[key] is not None:
+                problems.append((cell_at, in_range[key]))
                 row_ok = False
+        if todo:
+            try:
+                qs = {n: _quantity(quantities, v, n) for n, v in full.items() if params[n].kind != "text"}
+            except InputError as exc:
+                problems.append((at, str(exc)))
+                continue
+            for n, v, cell_at, key in todo:
+                try:
+                    params[n].check_range(v, qs, cell_at)
+                    in_range[key] = None
+                except InputError as exc:
+                    in_range[key] = str(exc).removeprefix(f"{cell_at}: ")
+                    problems.append((cell_at, in_range[key]))
+                    row_ok = False
         if row_ok and not bad_header:
             out.append(MemberRow(i, mark, {n: full[n] for n in params}, typed))
     return out  # every cell is checked even when the header has problems (all of them reported at once)
+
+
+def _quantity(cache: dict[Any, Any], value: Any, name: str) -> Any:
+    """``parse_quantity(value)``, read once per value (the quantities are only read, never changed)."""
+    key = (type(value), value)
+    if key not in cache:
+        cache[key] = parse_quantity(value, name)
+    return cache[key]
 
 
 def _offered_word(p: Any, value: Any) -> bool:

@@ -224,3 +224,21 @@ def test_custom_section_rows_take_their_dimensions_from_columns(tmp_path: Path, 
     text = str(exc.value)
     assert "row 2, column F (D_o)" in text and "kg" in text
     assert "row 3, column E (leg)" in text and "unknown section" in text  # a word the template does not offer
+
+
+def test_repeated_values_are_each_checked_on_their_own_row(tmp_path: Path) -> None:
+    # leg_bending: 0 < t < D_o/2 (a bound naming another column) and L from 1 in up (template range)
+    table = ("mark,P [lbf],N [lbf],L [in],leg,D_o [in],t [in]\n"
+             "R1,120,115,30,custom,2.0,0.5\n"     # t = 0.5 < 2.0/2: in range
+             "R2,120,115,30,custom,0.8,0.5\n"     # the same t, but 0.5 >= 0.8/2: out of range
+             "R3,120,115,30,custom,0.8,0.5\n"     # the same again: reported on its own row too
+             "R4,120,115,-5,custom,2.0,0.5\n"     # L below its range
+             "R5,120,115,-5,custom,2.0,0.5\n")
+    with pytest.raises(JobError) as exc:
+        load_job(_job(tmp_path, "legs.csv", table))
+    text = str(exc.value)
+    assert "row 2," not in text
+    for row in (3, 4):
+        assert f"row {row}, column G (t)" in text
+    for row in (5, 6):
+        assert f"row {row}, column D (L)" in text
