@@ -64,8 +64,8 @@ class SpooledSheet(SheetItem):
     def __missing__(self, key: str) -> Any:
         if key == "html":
             return self["_html"].text()
-        if key == "record":
-            return json.loads(self["_record"].text())
+        if key == "record":  # the calc's record entry holds its sheets' records
+            return json.loads(self["_entry"].pretty())["sheets"][self["_index"]]
         raise KeyError(key)
 
 
@@ -124,14 +124,14 @@ class RunSpool:
         canonical = json.dumps(entry, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
         spooled = SpooledEntry(self._put(pretty), self._put(canonical), self._shas[path])
         sheets = []
-        for s in o.sheets:
+        for index, s in enumerate(o.sheets):
             item = s if isinstance(s, SheetItem) else SheetItem(s)
             rec = item["record"]
             slim = SpooledSheet(
                 title=rec["title"], method=self._text(rec.get("method") or ""),
                 assumptions=[self._text(a) for a in rec.get("assumptions", [])],
                 checks=[{k: self._text(c[k]) for k in _SLIM_CHECK} for c in rec["checks"]],
-                numbers=item.numbers, _record=self._put(json.dumps(rec, ensure_ascii=False, allow_nan=False)),
+                numbers=item.numbers, _entry=spooled, _index=index,
                 _html=self._put_compressed(item["html_z"]) if "html_z" in item else self._put(item["html"]),
             )
             if "text" in item:
