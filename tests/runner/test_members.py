@@ -242,3 +242,18 @@ def test_repeated_values_are_each_checked_on_their_own_row(tmp_path: Path) -> No
         assert f"row {row}, column G (t)" in text
     for row in (5, 6):
         assert f"row {row}, column D (L)" in text
+
+
+def test_two_sheets_of_one_workbook_are_refused(tmp_path: Path) -> None:
+    # the job keeps its tables by file name (record, verify, results files): two sheets of one
+    # workbook would be kept as one, so a second sheet is refused with what to do
+    with pd.ExcelWriter(tmp_path / "legs.xlsx") as xl:
+        pd.DataFrame({"mark": ["A1"], "P [lbf]": [120], "N [lbf]": [115], "L [in]": [30], "leg": ["Pipe 1-1/2 Std"]}).to_excel(xl, index=False, sheet_name="North")
+        pd.DataFrame({"mark": ["B1"], "P [lbf]": [150], "N [lbf]": [115], "L [in]": [36], "leg": ["Pipe 1-1/2 Std"]}).to_excel(xl, index=False, sheet_name="South")
+    text = TWO_TABLES.format(table="legs.xlsx", second="legs.xlsx")
+    text = text.replace('table = "legs.xlsx"\ntitle = "Legs from a table"', 'table = "legs.xlsx"\ntable_sheet = "North"\ntitle = "Legs from a table"')
+    text = text.replace('table = "legs.xlsx"\ntitle = "More legs"', 'table = "legs.xlsx"\ntable_sheet = "South"\ntitle = "More legs"')
+    (tmp_path / "job.toml").write_text(text, encoding="utf-8")
+    with pytest.raises(JobError) as exc:
+        load_job(tmp_path / "job.toml")
+    assert "calcs[2].table" in str(exc.value) and "another sheet" in str(exc.value)
