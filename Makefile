@@ -36,6 +36,7 @@ mutation: $(STAMP)
 benchmark: $(STAMP)
 	$(PY) benchmarks/bench_core.py
 	$(PY) benchmarks/bench_runner.py
+	$(PY) benchmarks/bench_memory.py
 
 clean:
 	rm -rf $(VENV) build

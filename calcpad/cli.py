@@ -33,6 +33,7 @@ import sys
 import tempfile
 import time
 import traceback
+from collections.abc import Callable
 from pathlib import Path
 from typing import Any
 
@@ -86,8 +87,7 @@ def _run(args: argparse.Namespace) -> int:
 
     from calcpad.core.errors import CalcpadError
     from calcpad.runner.job import check_print_mark, load_job, single_template_job
-    from calcpad.runner.outfolder import check_target, write_outputs
-    from calcpad.runner.record import job_record
+    from calcpad.runner.outfolder import check_target
 
     err = Console(stderr=True)
     out = Console()
@@ -109,11 +109,30 @@ def _run(args: argparse.Namespace) -> int:
         folder_of_job = Path(args.target).parent
         protect += [Path(name) if Path(name).is_absolute() else folder_of_job / name for name in job.tables]
     target = check_target(out_dir, job.info.revision, protect) if out_dir is not None else None  # refusals before anything runs
+    if target is not None and job.tables:
+        from calcpad.runner.members import results_stems
+
+        results_stems(list(job.tables))  # two tables that would write the same results files: refused now
     if args.print is not None:
         check_print_mark(job, args.print, "--print")
     mode = "kernel" if args.notebooks else "inprocess"
     if (args.workers or args.scheduler) and args.notebooks:
         raise CalcpadError("--notebooks runs every calc in one local kernel; leave out --workers/--scheduler to keep notebooks")
+    spool_cm: Any = contextlib.nullcontext(None)
+    if target is not None:  # records and sheets of finished calcs wait in a spool file, not in memory
+        from calcpad.runner.spool import RunSpool
+
+        spool_cm = RunSpool()
+    with spool_cm as spool:  # the spool lives until the outputs are written
+        return _run_and_write(args, job, target, mode, spool, err, out)
+
+
+def _run_and_write(args: argparse.Namespace, job: Any, target: Any, mode: str, spool: Any, err: Any, out: Any) -> int:
+    """Run the job's calcs (each kept in ``spool`` as it finishes, when there is one), write the
+    output folder ``target`` and print the summary; returns the exit code."""
+    from calcpad.runner.outfolder import write_outputs
+    from calcpad.runner.record import job_record, record_chunks
+
     start = time.perf_counter()
     failures: list[str] = []
     client_cm = contextlib.nullcontext(None)
@@ -131,7 +150,7 @@ def _run(args: argparse.Namespace) -> int:
             with progress_bar(len(searched), "design search (members)") as advance:
                 resolve_designs(job, client, advance)
         outcomes = _run_calcs(job, mode, client, err, failures, bar_on=not args.json and err.is_terminal,  # none in logs, pipes, JSON
-                              text=target is None)  # hand calcs are printed only without an output folder
+                              text=target is None, keep=spool.keep if spool is not None else None)  # hand calcs: only without an output folder
     seconds = time.perf_counter() - start
     record = job_record(job, outcomes, mode, seconds)
     pdf = None
@@ -147,7 +166,9 @@ def _run(args: argparse.Namespace) -> int:
             folder = write_outputs(target, record, submittal, outcomes=outcomes if args.notebooks else (), wait=args.wait,
                                    files=_table_files(job, outcomes))
     if args.json:
-        print(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False))
+        for chunk in record_chunks(record):  # streamed: the calcs may be in the spool
+            sys.stdout.write(chunk)
+        sys.stdout.flush()
     else:
         _print_summary(out, job, outcomes, record)
         if folder is None:
@@ -166,24 +187,16 @@ def _run(args: argparse.Namespace) -> int:
 
 def _table_files(job: Any, outcomes: list[Any]) -> dict[str, bytes]:
     """Each member table's results (every check ratio, governing check) as CSV and Excel."""
-    import io
+    from calcpad.runner.members import results_files
 
-    from calcpad.runner.members import results_frame
-
-    files: dict[str, bytes] = {}
-    for name in job.tables:
-        frame = results_frame([o for o in outcomes if o.calc.table == name])
-        stem = f"results-{Path(name).stem}"
-        files[f"{stem}.csv"] = frame.to_csv(index=False).encode("utf-8")
-        buf = io.BytesIO()
-        frame.to_excel(buf, index=False, sheet_name="results")
-        files[f"{stem}.xlsx"] = buf.getvalue()
-    return files
+    return results_files(list(job.tables), outcomes, job.info.date)
 
 
-def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], *, bar_on: bool, text: bool) -> list[Any]:
+def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], *, bar_on: bool, text: bool,
+               keep: Callable[[Any], None] | None = None) -> list[Any]:
     """Every calc of the job, serially or on the Dask ``client``, with a progress bar (``bar_on``);
-    ``text``: make each sheet's plain-text hand calc (printed when there is no output folder)."""
+    ``text``: make each sheet's plain-text hand calc (printed when there is no output folder);
+    ``keep``: called with each outcome as it finishes (the run's spool)."""
     from rich.markup import escape
 
     from calcpad.runner.execute import run_job
@@ -193,6 +206,8 @@ def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], 
     bar = RunProgress(len(job.calcs), console=err, enabled=bar_on, label=label)
 
     def tick(o: Any) -> None:
+        if keep is not None:
+            keep(o)
         bar.advance(f"{o.calc.template.name} {o.calc.member}")
         if o.error is not None:
             msg = f"calc {o.calc.number} ({o.calc.location}, member {o.calc.member}): template {o.calc.template.name!r}, cell {o.error['cell']}: {o.error['message']}"
@@ -209,18 +224,47 @@ def _run_calcs(job: Any, mode: str, client: Any, err: Any, failures: list[str], 
         bar.close()
 
 
+#: At most this many check rows in the terminal summary; a larger job lists its calcs that are not
+#: OK (failed first, then NG by ratio) up to it, and says where every check is.
+SUMMARY_ROWS = 200
+
+
 def _print_summary(out: Any, job: Any, outcomes: list[Any], record: dict[str, Any]) -> None:
     from rich.table import Table
+
+    from calcpad.core.results import status_ok
 
     t = Table(title=f"{job.info.number} {job.info.title}", title_justify="left")
     for col in ("Calc", "Member", "Template", "Check", "Ratio", "Status"):
         t.add_column(col, justify="right" if col in ("Calc", "Ratio") else "left")
-    for o, c in zip(outcomes, record["calcs"], strict=True):
+    rows = sum(max(1, len(o.checks)) for o in outcomes)
+    shown = outcomes
+    if rows > SUMMARY_ROWS:  # a large job: its calcs that are not OK, worst first
+        def worst(o: Any) -> tuple[int, float]:
+            ratios = [c["ratio"] for c in o.checks if c["ratio"] is not None]
+            return (0 if o.error is not None else 1, -max(ratios, default=0.0))
+
+        shown = sorted((o for o in outcomes if o.status != "OK"), key=worst)
+    listed = calcs_listed = 0
+    for o in shown:
+        if listed >= SUMMARY_ROWS:
+            break
+        calcs_listed += 1
         if o.error is not None:
             t.add_row(str(o.calc.number), o.calc.member, o.calc.template.name, f"cell {o.error['cell']}: {o.error['message']}", "—", "ERROR")
-        for ch in c["checks"]:
+            listed += 1
+        for ch in o.checks:
+            if shown is not outcomes and status_ok(ch["status"]):
+                continue
             t.add_row(str(o.calc.number), o.calc.member, o.calc.template.name, ch["name"], f"{ch['ratio']:.3f}", ch["status"])
-    out.print(t)
+            listed += 1
+    if listed:
+        out.print(t)
+    if shown is not outcomes:
+        left = len(shown) - calcs_listed
+        not_ok = f"the calcs that are not OK ({listed} rows" + (f"; {left} more calcs not OK not listed" if left > 0 else "") + ")"
+        out.print(f"{rows} check rows: listed {not_ok if listed else 'none (every calc is OK)'}; "
+                  "every check is in record.json, the submittal and the results tables.", highlight=False)
     s = record["summary"]
     slender = f" ({s['slender']} above recommended slenderness)" if s.get("slender") else ""
     out.print(f"{s['calcs']} calcs, {s['checks']} checks: {s['ok']} OK{slender}, {s['ng']} NG, {s['errors']} failed — {s['status']}",

@@ -7,9 +7,9 @@ checks): the last condition guards against a template that uses the mark for mor
 
 from __future__ import annotations
 
+import hashlib
 import json
 from dataclasses import dataclass
-from typing import Any
 
 from calcpad.runner.execute import CalcOutcome
 
@@ -21,7 +21,6 @@ class CalcGroup:
     """One printed calc: the outcome that is printed and every calc it stands for."""
 
     outcomes: list[CalcOutcome]
-    records: list[dict[str, Any]]  # the job record's entry of each calc, same order
 
     @property
     def first(self) -> CalcOutcome:
@@ -55,28 +54,24 @@ class CalcGroup:
 
 
 def _fingerprint(o: CalcOutcome) -> str | None:
-    """The numbers a calc printed (None for a calc that failed: never grouped)."""
+    """A digest of what a calc printed: template, title, inputs and the numbers of each sheet
+    (:attr:`~calcpad.runner.execute.SheetItem.numbers`); None for a calc that failed (never grouped)."""
     if o.error is not None:
         return None
-    sheets = [
-        {"results": s["record"].get("results"), "checks": [{k: c.get(k) for k in ("demand", "capacity", "ratio", "status")} for c in s["record"]["checks"]]}
-        for s in o.sheets
-    ]
-    key = {"template": o.calc.template.name, "title": o.calc.title, "inputs": o.calc.inputs, "sheets": sheets}
-    return json.dumps(key, sort_keys=True, default=str)
+    key = {"template": o.calc.template.name, "title": o.calc.title, "inputs": o.calc.inputs, "sheets": [s.numbers for s in o.sheets]}
+    return hashlib.sha256(json.dumps(key, sort_keys=True, default=str).encode("utf-8")).hexdigest()
 
 
-def group_calcs(outcomes: list[CalcOutcome], records: list[dict[str, Any]]) -> list[CalcGroup]:
+def group_calcs(outcomes: list[CalcOutcome]) -> list[CalcGroup]:
     """Group identical calcs, in the order each group's first calc ran."""
     groups: list[CalcGroup] = []
     by_key: dict[str, CalcGroup] = {}
-    for o, rec in zip(outcomes, records, strict=True):
+    for o in outcomes:
         key = _fingerprint(o)
         if key is not None and key in by_key:
             by_key[key].outcomes.append(o)
-            by_key[key].records.append(rec)
             continue
-        group = CalcGroup([o], [rec])
+        group = CalcGroup([o])
         groups.append(group)
         if key is not None:
             by_key[key] = group

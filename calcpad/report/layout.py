@@ -10,9 +10,11 @@ governing sheet of each calc only); ``calc:MARK`` (that member's calc only).
 from __future__ import annotations
 
 import html
+from collections.abc import Iterator
 from dataclasses import dataclass
 from typing import Any
 
+from calcpad.core.errors import InputError
 from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
 from calcpad.report.grouping import CalcGroup, group_calcs, numbers_text
@@ -20,8 +22,9 @@ from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, print_mode
+from calcpad.runner.members import results_stems
 
-__all__ = ["CAUTIONS", "submittal_html"]
+__all__ = ["CAUTIONS", "submittal_chunks", "submittal_html"]
 
 CAUTIONS = (
     CAUTION,
@@ -67,8 +70,8 @@ def _heading_text(g: CalcGroup) -> str:
     return f"{numbers_text(g.numbers)} · {g.title} — {who}"
 
 
-def _governing(rec: dict[str, Any]) -> dict[str, Any] | None:
-    checks = rec.get("checks") or []
+def _governing(checks: list[dict[str, Any]]) -> dict[str, Any] | None:
+    """The check with the highest ratio (one without a ratio counts as the highest)."""
     return max(checks, key=lambda c: c["ratio"] if c["ratio"] is not None else float("inf")) if checks else None
 
 
@@ -164,14 +167,33 @@ def _contents(c: _Context) -> str:
     return f'<section class="contents"><h2>Contents</h2>{"".join(lines)}<p class="toc-end">{_e(TOC_END)}</p></section>'
 
 
-def _h2(c: _Context, ref: str, text: str) -> str:
-    c.toc.append(_Entry(ref, text))
+def _h2(ref: str, text: str) -> str:
     return f'<h2 id="{ref}">{_e(text)}</h2>'
+
+
+def _tables_printed(c: _Context) -> list[str]:
+    """The job's member tables with a member among the printed calcs, in job order."""
+    used = {o.calc.table for g in c.printed for o in g.outcomes}
+    return [name for name in c.job.tables if name in used]
+
+
+def _toc(c: _Context) -> list[_Entry]:
+    """Every line of the contents, in document order (worked out before anything is printed, so
+    the contents can precede the sections and the sections can be streamed)."""
+    toc = [_Entry("criteria", "Design criteria"), _Entry("summary", "Summary of checks")]
+    toc += [_Entry(f"table-{k}", f"Member table {name}") for k, name in enumerate(_tables_printed(c), start=1)]
+    toc.append(_Entry("checks", "Every check"))
+    for g in c.printed:
+        toc.append(_Entry(g.anchor, _heading_text(g)))
+        sheets, _note = _sheets_to_print(g, c.mode[0])
+        if len(sheets) > 1:
+            toc += [_Entry(f"{g.anchor}-s{k}", s.title, sub=True) for k, s in enumerate(sheets, start=1)]
+    return toc
 
 
 def _criteria(c: _Context) -> str:
     info = c.job.info
-    methods = sorted({s["record"].get("method", "") for g in c.groups for s in g.first.sheets if s["record"].get("method")})
+    methods = sorted({s.method for g in c.groups for s in g.first.sheets if s.method})
     templates: dict[str, tuple[str, list[str]]] = {}
     for g in c.groups:
         t = g.first.calc.template
@@ -189,12 +211,12 @@ def _criteria(c: _Context) -> str:
     assumed: dict[str, list[str]] = {}  # each assumption once, with the members whose sheets state it
     for g in c.groups:
         for s in g.first.sheets:
-            for text in s["record"].get("assumptions", []):
+            for text in s.assumptions:
                 marks = assumed.setdefault(text, [])
                 marks.extend(m for m in g.marks if m not in marks)
     assumptions = "".join(f"<li>{_e(t)} <i>({_e(', '.join(m))})</i></li>" for t, m in assumed.items())
     return (
-        _h2(c, "criteria", "Design criteria")
+        _h2("criteria", "Design criteria")
         + (f'<h3>Design basis</h3><ul class="basis">{basis}</ul>' if basis else "")
         + (f'<h3>Model assumptions (stated on each calc)</h3><ul class="basis">{assumptions}</ul>' if assumptions else "")
         + f'<table class="facts"><tr><th>Codes and editions</th><td>{_e("; ".join(info.codes) or "(none given)")}</td></tr>'
@@ -205,80 +227,77 @@ def _criteria(c: _Context) -> str:
     )
 
 
-def _summary(c: _Context) -> str:
-    rows = []
+def _summary(c: _Context) -> Iterator[str]:
+    head = "<tr><th>Calc</th><th>Member</th><th>Calc title</th><th>Governing check</th><th>Ratio</th><th>Status</th><th>Page</th></tr>"
+    yield _h2("summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>'
     for g in c.printed:
-        for o, rec in zip(g.outcomes, g.records, strict=True):
-            gov = _governing(rec)
+        for o in g.outcomes:
+            gov = _governing(o.checks)
             cls = ' class="ng"' if o.status != "OK" else ""
             if o.error is not None:
                 check = f"calc failed to run (cell {o.error.get('cell')})"
             else:
                 check = gov["name"] if gov else "(no checks)"
-            rows.append(
+            yield (
                 f'<tr{cls}><td class="num">{o.calc.number}</td><td>{_e(o.calc.member)}</td><td>{_e(g.title)}</td>'
                 f'<td>{_e(check)}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
                 f'<td class="st">{_status_mark(o.status)}</td><td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
             )
-    head = "<tr><th>Calc</th><th>Member</th><th>Calc title</th><th>Governing check</th><th>Ratio</th><th>Status</th><th>Page</th></tr>"
-    return _h2(c, "summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
+    yield "</tbody></table>"
 
 
-def _member_tables(c: _Context) -> str:
+def _member_table_row(o: CalcOutcome, g: CalcGroup, design: bool) -> str:
+    gov = _governing(o.checks)
+    res = (o.calc.design or {}).get("result")
+    chosen = (res or {}).get("chosen") or {}
+    runner = (res or {}).get("runner_up") or {}
+    size = " ".join(x for x in (chosen.get("designation"), chosen.get("grade")) if x) if res else ""
+    alt = " ".join(x for x in (runner.get("designation"), runner.get("grade")) if x) if res else ""
+    if res is not None and not chosen:
+        size = "none passes"
+    cls = ' class="ng"' if o.status != "OK" else ""
+    gsheet = gov["sheet"] if gov else ""
+    return (
+        f'<tr{cls}><td>{_e(o.calc.member)}</td><td class="num">{o.calc.row}</td>'
+        + (f"<td>{_e(size)}</td><td>{_e(alt)}</td>" if res is not None else ("<td></td><td></td>" if design else ""))
+        + f'<td>{_e(gov["name"] if gov else "(no checks)")}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
+        f'<td class="st">{_status_mark(o.status)}</td><td>{_e(gsheet)}</td>'
+        f'<td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
+    )
+
+
+def _member_tables(c: _Context) -> Iterator[str]:
     """One table per member table of the job: each member's row, size (chosen by a design search
     where there is one), governing check and the page of its sheet."""
-    parts = []
-    anchors = {id(o): g for g in c.printed for o in g.outcomes}
-    for name in c.job.tables:
-        rows = []
-        design = False
-        for g in c.printed:
-            for o, rec in zip(g.outcomes, g.records, strict=True):
-                if o.calc.table != name:
-                    continue
-                gov = _governing(rec)
-                res = (o.calc.design or {}).get("result")
-                design = design or res is not None
-                chosen = (res or {}).get("chosen") or {}
-                runner = (res or {}).get("runner_up") or {}
-                size = " ".join(x for x in (chosen.get("designation"), chosen.get("grade")) if x) if res else ""
-                alt = " ".join(x for x in (runner.get("designation"), runner.get("grade")) if x) if res else ""
-                if res is not None and not chosen:
-                    size = "none passes"
-                cls = ' class="ng"' if o.status != "OK" else ""
-                gsheet = gov["sheet"] if gov else ""
-                ga = anchors[id(o)]
-                rows.append(
-                    f'<tr{cls}><td>{_e(o.calc.member)}</td><td class="num">{o.calc.row}</td>'
-                    + (f"<td>{_e(size)}</td><td>{_e(alt)}</td>" if res is not None else ("<td></td><td></td>" if design else ""))
-                    + f'<td>{_e(gov["name"] if gov else "(no checks)")}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
-                    f'<td class="st">{_status_mark(o.status)}</td><td>{_e(gsheet)}</td>'
-                    f'<td class="num"><span class="toc-page" data-ref="{ga.anchor}" data-find="{_e(_heading_text(ga))}"></span></td></tr>'
-                )
-        if not rows:
-            continue
+    try:
+        stems = results_stems(list(c.job.tables))
+    except InputError:  # refused before a run writes anything; a page made directly still prints
+        stems = {}
+    for k, name in enumerate(_tables_printed(c), start=1):
+        members = [(o, g) for g in c.printed for o in g.outcomes if o.calc.table == name]
+        design = any((o.calc.design or {}).get("result") is not None for o, _g in members)
         head = ("<tr><th>Member</th><th>Row</th>" + ("<th>Size (lightest passing)</th><th>Runner-up</th>" if design else "")
                 + "<th>Governing check</th><th>Ratio</th><th>Status</th><th>Governing sheet</th><th>Page</th></tr>")
-        stem = name.rsplit("/", 1)[-1].rsplit(".", 1)[0]
-        note = (f'<p>Every check ratio of every member: results-{_e(stem)}.csv and .xlsx beside this submittal.'
+        note = (f'<p>Every check ratio of every member: {_e(stems.get(name, "results"))}.csv and .xlsx beside this submittal.'
                 + (" Sizes chosen by a design search: the lightest catalog size by weight per foot with every check OK; "
                    "each member's sheet is printed with that size." if design else "") + "</p>")
-        parts.append(_h2(c, f"table-{len(parts) + 1}", f"Member table {name}") + note
-                     + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>')
-    return "".join(parts)
+        yield _h2(f"table-{k}", f"Member table {name}") + note + f'<table class="list"><thead>{head}</thead><tbody>'
+        for o, g in members:
+            yield _member_table_row(o, g, design)
+        yield "</tbody></table>"
 
 
-def _all_checks(c: _Context) -> str:
-    rows = []
+def _all_checks(c: _Context) -> Iterator[str]:
+    head = "<tr><th>Members</th><th>Check</th><th>Ratio</th><th>Status</th><th>Reference</th></tr>"
+    yield _h2("checks", "Every check") + f'<table class="list"><thead>{head}</thead><tbody>'
     for g in c.printed:
-        for ch in g.records[0]["checks"]:
+        for ch in g.first.checks:
             cls = ' class="ng"' if not status_ok(ch["status"]) else ""
-            rows.append(
+            yield (
                 f"<tr{cls}><td>{_e(', '.join(g.marks))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
                 f"<td class=\"st\">{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"
             )
-    head = "<tr><th>Members</th><th>Check</th><th>Ratio</th><th>Status</th><th>Reference</th></tr>"
-    return _h2(c, "checks", "Every check") + f'<table class="list"><thead>{head}</thead><tbody>{"".join(rows)}</tbody></table>'
+    yield "</tbody></table>"
 
 
 # ----------------------------------------------------------------------------- calcs
@@ -288,16 +307,15 @@ def _sheets_to_print(g: CalcGroup, mode: str) -> tuple[list[dict[str, Any]], str
     sheets = g.first.sheets
     if mode != "summary" or len(sheets) <= 1:
         return sheets, ""
-    gov = _governing(g.records[0])
-    chosen = next((s for s in sheets if gov and s["record"]["title"] == gov["sheet"]), sheets[0])
-    note = f"Summary print: the governing sheet only ({chosen['record']['title']}; 1 of {len(sheets)} sheets). The full submittal prints every sheet."
+    gov = _governing(g.first.checks)
+    chosen = next((s for s in sheets if gov and s.title == gov["sheet"]), sheets[0])
+    note = f"Summary print: the governing sheet only ({chosen.title}; 1 of {len(sheets)} sheets). The full submittal prints every sheet."
     return [chosen], note
 
 
-def _calc_section(c: _Context, g: CalcGroup, index: int) -> str:
+def _calc_section(c: _Context, g: CalcGroup, index: int) -> Iterator[str]:
     o = g.first
     heading = _heading_text(g)
-    c.toc.append(_Entry(g.anchor, heading))
     parts = [f'<section class="calc" id="{g.anchor}" style="page: g{index}"><h2>{_e(heading)}</h2>']
     parts.append(f'<p class="calc-meta">Template <code>{_e(o.calc.template.name)}</code> ({_e(o.calc.template.title)}) · status {_status_mark(o.status)}</p>')
     if g.typical:
@@ -310,12 +328,10 @@ def _calc_section(c: _Context, g: CalcGroup, index: int) -> str:
     sheets, note = _sheets_to_print(g, c.mode[0])
     if note:
         parts.append(f'<p class="calc-meta">{_e(note)}</p>')
-    for k, s in enumerate(sheets, start=1):
-        if len(sheets) > 1:
-            c.toc.append(_Entry(f"{g.anchor}-s{k}", s["record"]["title"], sub=True))
-        parts.append(s["html"])
-    parts.append("</section>")
-    return "".join(parts)
+    yield "".join(parts)
+    for s in sheets:
+        yield s["html"]  # read back from the spool one sheet at a time when the run kept one
+    yield "</section>"
 
 
 def _band(g: CalcGroup) -> tuple[str, str]:
@@ -326,17 +342,16 @@ def _band(g: CalcGroup) -> tuple[str, str]:
 # ----------------------------------------------------------------------------- document
 
 
-def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], mode: str | None = None) -> str:
-    """The submittal page for ``outcomes`` (print ``mode``: the job's setting when None)."""
+def submittal_chunks(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], mode: str | None = None) -> Iterator[str]:
+    """The submittal page for ``outcomes`` in pieces, in document order (print ``mode``: the job's
+    setting when None). Each calc's sheets are read when their section is reached, so a writer
+    that streams the pieces to a file never holds the whole page."""
     parsed = print_mode(mode or job.info.print) or ("full", "")
-    groups = group_calcs(outcomes, record["calcs"])
+    groups = group_calcs(outcomes)
     printed = [g for g in groups if parsed[0] != "calc" or parsed[1] in g.marks]
     c = _Context(job, record, groups, printed, parsed, [])
+    c.toc = _toc(c)
     info = job.info
-    cover = _cover(c)
-    front = '<section class="front">' + _criteria(c) + _summary(c) + _member_tables(c) + _all_checks(c) + "</section>"
-    calcs = "".join(_calc_section(c, g, i) for i, g in enumerate(printed, start=1))
-    contents = _contents(c)
     digest = _digest_short(record)
     version = record.get("versions", {}).get("calcpad", "?")
     footer = (
@@ -346,7 +361,23 @@ def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any]
     css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision or '—'} · {info.date or 'undated'}", footer)
     css += band_css("cover", "Cover and sign-off", "")
     css += band_css("front", "Contents, design criteria and summary", "")
-    css += "".join(band_css(f"g{i}", *_band(g)) for i, g in enumerate(printed, start=1))
-    body = cover + contents + front + calcs
     title = f"{info.number} {info.title}"
-    return f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}</style></head>\n<body>\n{body}\n</body></html>\n'
+    yield f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}'
+    for i, g in enumerate(printed, start=1):
+        yield band_css(f"g{i}", *_band(g))
+    yield "</style></head>\n<body>\n"
+    yield _cover(c)
+    yield _contents(c)
+    yield '<section class="front">' + _criteria(c)
+    yield from _summary(c)
+    yield from _member_tables(c)
+    yield from _all_checks(c)
+    yield "</section>"
+    for i, g in enumerate(printed, start=1):
+        yield from _calc_section(c, g, i)
+    yield "\n</body></html>\n"
+
+
+def submittal_html(job: Job, outcomes: list[CalcOutcome], record: dict[str, Any], mode: str | None = None) -> str:
+    """The submittal page for ``outcomes`` as one text (see :func:`submittal_chunks`)."""
+    return "".join(submittal_chunks(job, outcomes, record, mode))

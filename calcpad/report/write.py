@@ -5,7 +5,7 @@ from __future__ import annotations
 from pathlib import Path
 from typing import Any
 
-from calcpad.report.layout import submittal_html
+from calcpad.report.layout import submittal_chunks
 from calcpad.report.pdf import PdfResult, write_pdf
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job
@@ -22,5 +22,7 @@ def write_submittal(
     and says so in that result, never an error.
     """
     html_path = Path(folder) / "submittal.html"
-    html_path.write_text(submittal_html(job, outcomes, record, print_mode), encoding="utf-8")
+    with open(html_path, "w", encoding="utf-8") as fh:  # streamed: a large job's page is never one text in memory
+        for chunk in submittal_chunks(job, outcomes, record, print_mode):
+            fh.write(chunk)
     return write_pdf(html_path, Path(folder) / "submittal.pdf") if pdf else None

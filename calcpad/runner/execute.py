@@ -22,6 +22,7 @@ template, the cell number (1-based over all cells, as in the stored ``.ipynb``) 
 from __future__ import annotations
 
 import contextlib
+import hashlib
 import io
 import math
 import os
@@ -38,7 +39,7 @@ from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
 from calcpad.runner.progress import RunProgress, in_notebook
 
-__all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "run_calc_inprocess", "run_job", "sheets_bound"]
+__all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "numbers_digest", "run_calc_inprocess", "run_job", "sheets_bound"]
 
 MODES = ("inprocess", "kernel")
 _SKIP = {"In", "Out", "exit", "quit", "get_ipython"}
@@ -48,7 +49,9 @@ class SheetItem(dict):  # type: ignore[type-arg]
     """One sheet of an outcome: ``{"record": ..., "html": ...}`` (and ``"text"``), with the HTML
     kept zlib-compressed (``"html_z"``) until ``item["html"]`` reads it. A large job holds every
     outcome until the submittal is written; MathML compresses about tenfold, so the held HTML
-    no longer dominates the memory a job grows by per calc."""
+    no longer dominates the memory a job grows by per calc. A run that writes an output folder
+    goes further (:mod:`calcpad.runner.spool`): the record and HTML go to a spool file and the
+    item keeps only what the summaries read (:attr:`title`, :attr:`checks`, ...)."""
 
     @classmethod
     def packed(cls, item: dict[str, Any]) -> SheetItem:
@@ -66,6 +69,40 @@ class SheetItem(dict):  # type: ignore[type-arg]
             return zlib.decompress(self["html_z"]).decode("utf-8")
         raise KeyError(key)
 
+    # what the summaries read: from the record, or (spooled) held apart from it
+    @property
+    def title(self) -> str:
+        """The sheet's title."""
+        return self["title"] if "title" in self else self["record"]["title"]
+
+    @property
+    def method(self) -> str:
+        """The design method the sheet states ("" when none)."""
+        return self["method"] if "method" in self else self["record"].get("method") or ""
+
+    @property
+    def assumptions(self) -> list[str]:
+        """The model assumptions the sheet declares."""
+        return self["assumptions"] if "assumptions" in self else self["record"].get("assumptions", [])
+
+    @property
+    def checks(self) -> list[dict[str, Any]]:
+        """The sheet's checks; each has at least ``title``, ``ratio``, ``status`` and ``ref``."""
+        return self["checks"] if "checks" in self else self["record"]["checks"]
+
+    @property
+    def numbers(self) -> str:
+        """A digest of the numbers the sheet printed (results; check demand, capacity, ratio, status):
+        two sheets with the same digest print the same values (the typical-member grouping)."""
+        return self["numbers"] if "numbers" in self else numbers_digest(self["record"])
+
+
+def numbers_digest(record: dict[str, Any]) -> str:
+    """SHA-256 over a sheet record's results and its checks' demand, capacity, ratio and status."""
+    key = {"results": record.get("results"),
+           "checks": [{k: c.get(k) for k in ("demand", "capacity", "ratio", "status")} for c in record["checks"]]}
+    return hashlib.sha256(json.dumps(key, sort_keys=True, default=str).encode("utf-8")).hexdigest()
+
 
 @dataclass
 class CalcOutcome:
@@ -76,15 +113,22 @@ class CalcOutcome:
     error: dict[str, Any] | None = None  # {"cell": n, "message": "..."}
     seconds: float = 0.0
     notebook: Any = None  # executed notebook (kernel mode)
+    spooled: Any = None  # the calc's record entry, kept in a spool (runner.spool) instead of in memory
 
     @property
     def status(self) -> str:
         """"ERROR" when a cell failed, "NG" when a check does not pass (NG or not covered), "OK" otherwise."""
         if self.error is not None:
             return "ERROR"
-        if any(not status_ok(c["status"]) for s in self.sheets for c in s["record"]["checks"]):
+        if any(not status_ok(c["status"]) for s in self.sheets for c in s.checks):
             return "NG"
         return "OK"
+
+    @property
+    def checks(self) -> list[dict[str, Any]]:
+        """Every check of the calc: ``{"sheet", "name", "ratio", "status", "ref"}`` in sheet order."""
+        return [{"sheet": s.title, "name": c["title"], "ratio": c["ratio"], "status": c["status"], "ref": c["ref"]}
+                for s in self.sheets for c in s.checks]
 
 
 def _finite(obj: Any) -> Any:

@@ -524,6 +524,10 @@ def parse_job(
             table = _member_table(c, loc, folder, tables, problems)
             if table is None:
                 continue
+            if table.name in read_tables and read_tables[table.name] != table:  # kept by name: record, verify, results
+                problems.append((f"{loc}.table", f"{table.name!r} is already read with other rows by an earlier calc (another sheet of "
+                                                  "the workbook); a job reads one sheet per table file: save each sheet as its own file"))
+                continue
             read_tables[table.name] = table
             for row in table_rows(table, tpl, shared, loc, problems, shop=names_shop):
                 key = (tpl.name, row.mark)

@@ -25,6 +25,7 @@ the record can hold them and ``calcpad verify`` re-runs from the record alone.
 from __future__ import annotations
 
 import csv
+import datetime as dt
 import hashlib
 import io
 import math
@@ -42,7 +43,18 @@ if TYPE_CHECKING:
     from calcpad.runner.execute import CalcOutcome
     from calcpad.runner.template import Template
 
-__all__ = ["MARK_COLUMNS", "MemberRow", "MemberTable", "read_member_table", "results_frame", "run_table", "table_rows"]
+__all__ = [
+    "MARK_COLUMNS",
+    "MemberRow",
+    "MemberTable",
+    "read_member_table",
+    "results_excel",
+    "results_files",
+    "results_frame",
+    "results_stems",
+    "run_table",
+    "table_rows",
+]
 
 #: Header names that hold the member mark (case-insensitive). Not "member": cross_member has a
 #: parameter of that name (the beam section).
@@ -209,6 +221,10 @@ def table_rows(
         return []
     out: list[MemberRow] = []
     marks: dict[str, int] = {}
+    coerced: dict[tuple[str, str], str | float | bool] = {}  # (parameter, cell text) -> value
+    quantities: dict[Any, Any] = {}  # value -> quantity
+    in_range: dict[tuple[Any, ...], str | None] = {}  # (parameter, value, values its bounds name) -> problem
+    refs = {n: sorted({b.ref for b in (p.lower, p.upper) if b is not None and b.ref}) for n, p in params.items()}
     for i, cells in enumerate(table.rows, start=2):
         if not any(cells):
             continue  # a blank line between groups of members
@@ -239,7 +255,9 @@ def table_rows(
                 text = f"{text} {unit}"
             p = params[pname]
             try:
-                values[pname] = p.coerce(text, cell_at)
+                if (pname, text) not in coerced:  # rows repeat values: each text is read once
+                    coerced[pname, text] = p.coerce(text, cell_at)
+                values[pname] = coerced[pname, text]
             except InputError as exc:
                 problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
                 row_ok = False
@@ -257,21 +275,42 @@ def table_rows(
         full = {n: params[n].default for n in params}
         full.update({n: v for n, v in shared.items() if n in params})
         full.update(values)
-        try:
-            qs = {n: parse_quantity(v, n) for n, v in full.items() if params[n].kind != "text"}
-        except InputError as exc:
-            problems.append((at, str(exc)))
-            continue
+        # the range check of a value depends on it and the parameters its bounds name: each
+        # combination is checked once (a large table repeats lengths, loads and sizes)
+        todo = []
         for n, v in values.items():
             cell_at = f"{at}, column {_column_letter(next(j for j, (p, _u) in columns.items() if p == n))} ({n})"
-            try:
-                params[n].check_range(v, qs, cell_at)
-            except InputError as exc:
-                problems.append((cell_at, str(exc).removeprefix(f"{cell_at}: ")))
+            key = (n, v, tuple(full.get(r) for r in refs[n]))
+            if key not in in_range:
+                todo.append((n, v, cell_at, key))
+            elif in_range[key] is not None:
+                problems.append((cell_at, in_range[key]))
                 row_ok = False
+        if todo:
+            try:
+                qs = {n: _quantity(quantities, v, n) for n, v in full.items() if params[n].kind != "text"}
+            except InputError as exc:
+                problems.append((at, str(exc)))
+                continue
+            for n, v, cell_at, key in todo:
+                try:
+                    params[n].check_range(v, qs, cell_at)
+                    in_range[key] = None
+                except InputError as exc:
+                    in_range[key] = str(exc).removeprefix(f"{cell_at}: ")
+                    problems.append((cell_at, in_range[key]))
+                    row_ok = False
         if row_ok and not bad_header:
             out.append(MemberRow(i, mark, {n: full[n] for n in params}, typed))
     return out  # every cell is checked even when the header has problems (all of them reported at once)
+
+
+def _quantity(cache: dict[Any, Any], value: Any, name: str) -> Any:
+    """``parse_quantity(value)``, read once per value (the quantities are only read, never changed)."""
+    key = (type(value), value)
+    if key not in cache:
+        cache[key] = parse_quantity(value, name)
+    return cache[key]
 
 
 def _plain_number(text: str) -> bool:
@@ -308,7 +347,7 @@ def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
     check_cols: list[str] = []
     extra: list[str] = []
     for o in outcomes:
-        checks = [(s["record"]["title"], ch) for s in o.sheets for ch in s["record"]["checks"]]
+        checks = [(s.title, ch) for s in o.sheets for ch in s.checks]
         names = [ch["title"] for _t, ch in checks]
         row: dict[str, Any] = {"mark": o.calc.member, "template": o.calc.template.name}
         for (sheet, ch), name in zip(checks, names, strict=True):
@@ -334,6 +373,98 @@ def results_frame(outcomes: list[CalcOutcome]) -> pd.DataFrame:
         rows.append(row)
     cols = ["mark", "template", *extra, *check_cols, "governing check", "governing ratio", "governing sheet", "status", "error"]
     return pd.DataFrame(rows, columns=cols)
+
+
+#: The date written into a results workbook's properties when the job has none (a fixed value, so
+#: two runs of the same job give the same bytes).
+_NO_DATE = dt.datetime(2000, 1, 1)
+#: Zip entry time of the results workbook's parts (the earliest a zip file can hold).
+_ZIP_TIME = (1980, 1, 1, 0, 0, 0)
+_UNSAFE = re.compile(r"[^A-Za-z0-9._-]+")
+
+
+def results_stems(names: list[str] | tuple[str, ...] | Any) -> dict[str, str]:
+    """The results file stem (``results-<stem>``; ``.csv`` and ``.xlsx`` are added) of each
+    member table named in a job, by its name as written.
+
+    A table's file name without its suffix when no other table of the job has that name (the
+    usual case: ``legs.csv`` → ``results-legs``); otherwise its path as written without the
+    suffix, each run of characters other than letters, digits, ``.``, ``_`` and ``-`` (the
+    folder separators) made one ``_`` (``north/legs.csv`` and ``south/legs.csv`` →
+    ``results-north_legs`` and ``results-south_legs``). The names depend on the job's tables
+    only, never on the order calcs ran. Raises InputError naming both tables when two would
+    still write the same files (``legs.csv`` and ``legs.xlsx`` in one folder).
+    """
+    names = list(names)
+    stems = {n: Path(n).stem for n in names}
+    out: dict[str, str] = {}
+    for n in names:
+        clash = [m for m in names if m != n and stems[m].lower() == stems[n].lower()]
+        stem = stems[n] if not clash else str(Path(n.replace("\\", "/")).with_suffix("")).strip("/")
+        out[n] = "results-" + _UNSAFE.sub("_", stem).strip("_.")
+    seen: dict[str, str] = {}
+    for n, stem in out.items():
+        other = seen.get(stem.lower())
+        if other is not None:
+            raise InputError(f"member tables {other!r} and {n!r} would both write {stem}.csv and .xlsx; "
+                             "rename one of the files (the results are named after the table file)")
+        seen[stem.lower()] = n
+    return out
+
+
+def _job_datetime(date: Any) -> dt.datetime:
+    if isinstance(date, dt.datetime):
+        return date.replace(tzinfo=None, microsecond=0)
+    if isinstance(date, dt.date):
+        return dt.datetime(date.year, date.month, date.day)
+    try:
+        return dt.datetime.fromisoformat(str(date)[:10])
+    except ValueError:
+        return _NO_DATE
+
+
+def results_excel(frame: pd.DataFrame, date: Any = None) -> bytes:
+    """``frame`` as an Excel workbook (sheet ``results``), the same bytes for the same frame and
+    ``date``: the workbook's created/modified properties are ``date`` (the job's date; a fixed
+    date without one) and every zip entry carries the same fixed time. Rows are streamed
+    (openpyxl's write-only mode), so a large table is never held as cell objects."""
+    import zipfile
+
+    from openpyxl import Workbook
+    from openpyxl.xml.functions import tostring
+
+    wb = Workbook(write_only=True)
+    when = _job_datetime(date)
+    wb.properties.created = when
+    wb.properties.modified = when
+    wb.properties.creator = "calcpad"
+    ws = wb.create_sheet("results")
+    ws.append([str(c) for c in frame.columns])
+    for row in frame.itertuples(index=False, name=None):
+        ws.append([None if v is None or (isinstance(v, float) and math.isnan(v)) else v for v in row])
+    raw = io.BytesIO()
+    wb.save(raw)  # stamps "modified" with the clock: the properties part is written again below
+    wb.properties.modified = when
+    core = tostring(wb.properties.to_tree())
+    out = io.BytesIO()
+    with zipfile.ZipFile(io.BytesIO(raw.getvalue())) as src, zipfile.ZipFile(out, "w", zipfile.ZIP_DEFLATED) as dst:
+        for info in src.infolist():
+            entry = zipfile.ZipInfo(info.filename, date_time=_ZIP_TIME)
+            entry.compress_type = zipfile.ZIP_DEFLATED
+            entry.external_attr = info.external_attr
+            dst.writestr(entry, core if info.filename == "docProps/core.xml" else src.read(info.filename))
+    return out.getvalue()
+
+
+def results_files(tables: list[str] | tuple[str, ...] | Any, outcomes: list[CalcOutcome], date: Any = None) -> dict[str, bytes]:
+    """Each member table's results (:func:`results_frame`) as CSV and Excel (:func:`results_excel`),
+    by file name (:func:`results_stems`)."""
+    files: dict[str, bytes] = {}
+    for name, stem in results_stems(tables).items():
+        frame = results_frame([o for o in outcomes if o.calc.table == name])
+        files[f"{stem}.csv"] = frame.to_csv(index=False).encode("utf-8")
+        files[f"{stem}.xlsx"] = results_excel(frame, date)
+    return files
 
 
 def run_table(

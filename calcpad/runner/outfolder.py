@@ -575,12 +575,16 @@ def write_outputs(
     HTML and PDF, from the report face), the executed notebooks of ``outcomes`` (kernel runs)
     and ``files`` (plain names → bytes, e.g. member-table results as CSV and Excel).
 
-    Returns the revision folder (``OUT/rev-<revision>``).
+    The record is streamed into the file (:func:`~calcpad.runner.record.record_chunks`: a run
+    that kept its calcs in a spool never holds them all). Returns the revision folder
+    (``OUT/rev-<revision>``).
     """
-    text = json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False) + "\n"
+    from calcpad.runner.record import record_chunks
 
     def fill(folder: Path) -> None:
-        (folder / "record.json").write_text(text, encoding="utf-8")
+        with (folder / "record.json").open("w", encoding="utf-8") as fh:
+            for chunk in record_chunks(record):
+                fh.write(chunk)
         for name, data in (files or {}).items():
             if Path(name).name != name or name.startswith(".") or name in ("record.json", "submittal.html", "submittal.pdf"):
                 raise ValueError(f"output file name {name!r} is not a plain name of its own")

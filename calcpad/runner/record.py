@@ -57,9 +57,10 @@ import hashlib
 import json
 import math
 import platform
+from collections.abc import Iterator, Sequence
 from importlib import metadata
 from pathlib import Path
-from typing import Any
+from typing import Any, overload
 
 from calcpad.core.results import OK_SLENDER, status_ok
 from calcpad.runner.execute import CalcOutcome
@@ -67,6 +68,8 @@ from calcpad.runner.job import Job, input_record
 
 __all__ = [
     "JOB_RECORD_FORMAT",
+    "SpooledCalcs",
+    "calc_record",
     "calc_results_and_checks",
     "data_digests",
     "data_files",
@@ -74,10 +77,13 @@ __all__ = [
     "job_record",
     "job_summary",
     "package_versions",
+    "record_chunks",
     "record_digest",
+    "record_text",
     "seal",
     "shop_sections_record",
     "short_digest",
+    "template_digest",
     "template_list",
 ]
 
@@ -120,14 +126,82 @@ def data_digests() -> dict[str, str]:
     return {name: file_digest(f) for name, f in data_files().items()}
 
 
-def _canonical(record: dict[str, Any]) -> bytes:
-    body = {k: v for k, v in record.items() if k not in UNSEALED_KEYS}
-    return json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False).encode("utf-8")
+class SpooledCalcs(Sequence[dict[str, Any]]):
+    """The record's ``calcs`` when a run kept them in a spool (:mod:`calcpad.runner.spool`): each
+    entry is read back when asked (``calcs[i]``, iteration), and :func:`record_chunks` and
+    :func:`record_digest` stream their stored JSON, so a large job never holds every entry.
+    ``entries`` are objects with ``pretty()`` (the entry as ``json.dumps(indent=1)`` prints it
+    two levels deep in the record) and ``canonical()`` (sorted keys, no spaces)."""
+
+    def __init__(self, entries: list[Any]) -> None:
+        self.entries = entries
+
+    def __len__(self) -> int:
+        return len(self.entries)
+
+    @overload
+    def __getitem__(self, i: int) -> dict[str, Any]: ...
+    @overload
+    def __getitem__(self, i: slice) -> list[dict[str, Any]]: ...
+    def __getitem__(self, i: int | slice) -> dict[str, Any] | list[dict[str, Any]]:
+        if isinstance(i, slice):
+            return [json.loads(e.pretty()) for e in self.entries[i]]
+        return json.loads(self.entries[i].pretty())
+
+    def __eq__(self, other: object) -> bool:
+        return list(self) == other if isinstance(other, (list, SpooledCalcs)) else NotImplemented
+
+    __hash__ = None  # type: ignore[assignment]
+
+
+def _canonical_chunks(record: dict[str, Any]) -> Iterator[str]:
+    """``json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False)`` of the
+    record without the unsealed keys, in pieces (spooled calcs one entry at a time)."""
+    body = sorted((k, v) for k, v in record.items() if k not in UNSEALED_KEYS)
+    yield "{"
+    for i, (key, value) in enumerate(body):
+        yield ("," if i else "") + json.dumps(key, ensure_ascii=False) + ":"
+        if isinstance(value, SpooledCalcs):
+            yield "["
+            for j, entry in enumerate(value.entries):
+                yield ("," if j else "") + entry.canonical()
+            yield "]"
+        else:
+            yield json.dumps(value, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
+    yield "}"
 
 
 def record_digest(record: dict[str, Any]) -> str:
     """SHA-256 (hex) over the canonical JSON of ``record`` without ``run`` and ``record_digest``."""
-    return hashlib.sha256(_canonical(record)).hexdigest()
+    h = hashlib.sha256()
+    for chunk in _canonical_chunks(record):
+        h.update(chunk.encode("utf-8"))
+    return h.hexdigest()
+
+
+def record_chunks(record: dict[str, Any]) -> Iterator[str]:
+    """The record file's text in pieces: exactly ``json.dumps(record, indent=1,
+    ensure_ascii=False, allow_nan=False) + "\\n"``, with spooled calcs streamed one at a time."""
+    if not record:
+        yield "{}\n"
+        return
+    for i, (key, value) in enumerate(record.items()):
+        yield ("{\n " if i == 0 else ",\n ") + json.dumps(key, ensure_ascii=False) + ": "
+        if isinstance(value, SpooledCalcs):
+            if not value.entries:
+                yield "[]"
+                continue
+            for j, entry in enumerate(value.entries):
+                yield ("[\n  " if j == 0 else ",\n  ") + entry.pretty()
+            yield "\n ]"
+        else:
+            yield json.dumps(value, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n ")
+    yield "\n}\n"
+
+
+def record_text(record: dict[str, Any]) -> str:
+    """The record file's text (see :func:`record_chunks`)."""
+    return "".join(record_chunks(record))
 
 
 def short_digest(record_or_digest: dict[str, Any] | str) -> str:
@@ -180,7 +254,7 @@ def calc_results_and_checks(sheets: list[dict[str, Any]]) -> tuple[dict[str, Any
     return results, checks
 
 
-def job_summary(calcs: list[dict[str, Any]]) -> dict[str, Any]:
+def job_summary(calcs: Sequence[dict[str, Any]]) -> dict[str, Any]:
     """The record's ``summary`` as derived from its calc records."""
     checks = [ch for c in calcs for ch in c["checks"]]
     errors = sum(1 for c in calcs if c["status"] == "ERROR")
@@ -190,7 +264,7 @@ def job_summary(calcs: list[dict[str, Any]]) -> dict[str, Any]:
     return {"calcs": len(calcs), "checks": len(checks), "ok": len(checks) - ng, "ng": ng, "errors": errors, "status": status, "slender": slender}
 
 
-def template_list(calcs: list[dict[str, Any]]) -> list[dict[str, str]]:
+def template_list(calcs: Sequence[dict[str, Any]]) -> list[dict[str, str]]:
     """The record's ``templates`` as derived from its calc records (first use order, no repeats)."""
     templates: list[dict[str, str]] = []
     for c in calcs:
@@ -200,7 +274,17 @@ def template_list(calcs: list[dict[str, Any]]) -> list[dict[str, str]]:
     return templates
 
 
-def _calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
+def template_digest(path: Path) -> str:
+    """SHA-256 of a template file's bytes ("unreadable" when it was removed or cannot be read
+    since it ran: verify reports it)."""
+    try:
+        return file_digest(path)
+    except OSError:
+        return "unreadable"
+
+
+def calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
+    """The record's entry for one calc (``template_sha``: :func:`template_digest` of its template)."""
     c = o.calc
     results, checks = calc_results_and_checks([s["record"] for s in o.sheets])
     params = c.template.parameters
@@ -249,23 +333,30 @@ def shop_sections_record(job: Job) -> dict[str, Any]:
 def job_record(job: Job, outcomes: list[CalcOutcome], mode: str, seconds: float) -> dict[str, Any]:
     """Build the job record dictionary, sealed with its ``record_digest``."""
     template_shas: dict[Path, str] = {}
-    for o in outcomes:
+
+    def sha(o: CalcOutcome) -> str:
         path = o.calc.template.path
         if path not in template_shas:
-            try:
-                template_shas[path] = file_digest(path)
-            except OSError:  # removed or unreadable since it ran: verify will report it
-                template_shas[path] = "unreadable"
-    calcs = [_calc_record(o, template_shas[o.calc.template.path]) for o in outcomes]
+            template_shas[path] = template_digest(path)
+        return template_shas[path]
+
+    calcs: list[dict[str, Any]] | SpooledCalcs
+    if outcomes and all(o.spooled is not None for o in outcomes):  # a run that kept its calcs in a spool
+        calcs = SpooledCalcs([o.spooled for o in outcomes])
+        light = [{"status": o.status, "checks": o.checks, "template": o.calc.template.name, "template_file": o.calc.template.path.name,
+                  "template_sha256": o.spooled.template_sha256} for o in outcomes]
+    else:
+        calcs = [json.loads(o.spooled.pretty()) if o.spooled is not None else calc_record(o, sha(o)) for o in outcomes]
+        light = calcs
     record = {
         "format": JOB_RECORD_FORMAT,
         "job": job.info.as_dict(),
         "job_file": _job_file(job),
         "versions": package_versions(),
-        "templates": template_list(calcs),
+        "templates": template_list(light),
         "data": data_digests(),
         **({"shop_sections": shop_sections_record(job)} if job.shop_table is not None else {}),
-        "summary": job_summary(calcs),
+        "summary": job_summary(light),
         "calcs": calcs,
         "run": {"mode": mode, "seconds": round(seconds, 3), "created": dt.datetime.now(dt.UTC).isoformat(timespec="seconds")},
     }

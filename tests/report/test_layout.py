@@ -41,8 +41,8 @@ def _table_marks(name: str) -> list[str]:
 
 
 def test_example_groups_are_the_job_tables(example: tuple[Any, list[Any], dict[str, Any]]) -> None:
-    _job, outcomes, record = example
-    groups = group_calcs(outcomes, record["calcs"])
+    _job, outcomes, _record = example
+    groups = group_calcs(outcomes)
     assert [g.marks for g in groups] == _job_tables()
     assert ["L3", "L4"] == groups[1].marks[1:] and ["SP2", "SP3"] == groups[3].marks[1:]
 
@@ -63,9 +63,9 @@ def test_summary_mode_prints_the_governing_sheet(example: tuple[Any, list[Any], 
     job, outcomes, record = example
     page = submittal_html(job, outcomes, record, "summary")
     sections = page.split('<section class="calc"')[1:]
-    for section, g in zip(sections, group_calcs(outcomes, record["calcs"]), strict=True):
+    for section, g in zip(sections, group_calcs(outcomes), strict=True):
         assert section.count('<section class="sheet">') == 1
-        worst = max(g.records[0]["checks"], key=lambda c: c["ratio"])
+        worst = max(record["calcs"][g.numbers[0] - 1]["checks"], key=lambda c: c["ratio"])
         assert f"<h3>{worst['sheet']}</h3>" in section, g.marks
     assert "summary (governing sheet of each calc)" in page
 
@@ -85,7 +85,7 @@ def test_different_inputs_or_failures_never_grouped(tiny_env: Path) -> None:
     job = parse_job(text)
     outcomes = run_job(job)
     record = job_record(job, outcomes, "inprocess", 0.0)
-    assert [g.marks for g in group_calcs(outcomes, record["calcs"])] == [["M1", "M2"], ["M3"], ["F1"], ["F2"]]
+    assert [g.marks for g in group_calcs(outcomes)] == [["M1", "M2"], ["M3"], ["F1"], ["F2"]]
     page = submittal_html(job, outcomes, record)
     assert "typical for M1, M2</h2>" in page and page.count('class="mark-error">FAILED') >= 2
 
@@ -96,8 +96,7 @@ def test_same_inputs_different_numbers_not_grouped(tiny_env: Path) -> None:
     changed = copy.deepcopy(outcomes[1].sheets)
     changed[-1]["record"]["checks"][0]["ratio"] += 0.01  # a template that used the mark for more than a label
     outcomes[1].sheets = changed
-    record = job_record(job, outcomes, "inprocess", 0.0)
-    assert [g.marks for g in group_calcs(outcomes, record["calcs"])] == [["M1"], ["M2"]]
+    assert [g.marks for g in group_calcs(outcomes)] == [["M1"], ["M2"]]
 
 
 def test_title_band_text_is_escaped(tiny_env: Path) -> None:

@@ -8,6 +8,7 @@ import os
 import re
 import tempfile
 from pathlib import Path
+from typing import Any
 
 import pytest
 
@@ -109,14 +110,14 @@ def test_disk_full_exit_3_names_path_and_keeps_previous(site: Path, monkeypatch:
     monkeypatch.chdir(site / "proj")
     assert main(["run", "job.toml", "--out", "../out"]) == 0
     before = _snapshot(site / "out")
-    real_write = Path.write_text
+    real_open = Path.open
 
-    def full(self: Path, *args: object, **kwargs: object) -> int:
-        if self.name == "record.json":
+    def full(self: Path, *args: object, **kwargs: object) -> Any:
+        if self.name == "record.json" and "w" in str(args[0] if args else kwargs.get("mode", "r")):
             raise OSError(errno.ENOSPC, "No space left on device", str(self))
-        return real_write(self, *args, **kwargs)  # type: ignore[arg-type]
+        return real_open(self, *args, **kwargs)  # type: ignore[arg-type]
 
-    monkeypatch.setattr(Path, "write_text", full)
+    monkeypatch.setattr(Path, "open", full)
     capsys.readouterr()
     assert main(["run", "job.toml", "--out", "../out"]) == 3
     err = capsys.readouterr().err

@@ -1,0 +1,118 @@
+"""The run spool: a job whose calcs wait in a spool file writes the same record and submittal,
+byte for byte, as one held in memory; the streamed record text is json.dumps's."""
+
+from __future__ import annotations
+
+import copy
+import hashlib
+import json
+from pathlib import Path
+from typing import Any
+
+import pytest
+
+from calcpad.report.layout import submittal_chunks, submittal_html
+from calcpad.runner.execute import CalcOutcome, run_job
+from calcpad.runner.job import parse_job
+from calcpad.runner.record import SpooledCalcs, job_record, record_chunks, record_digest, record_text, seal
+from calcpad.runner.spool import RunSpool, SpooledSheet
+
+from .conftest import JOB_HEAD, tiny_calc
+
+
+def _job() -> Any:
+    text = JOB_HEAD + tiny_calc("M1") + tiny_calc("M2") + tiny_calc("M3", P='"300 lbf"') + tiny_calc("F1", mode='"fail"')
+    return parse_job(text)
+
+
+def _spooled(job: Any, spool: RunSpool) -> list[CalcOutcome]:
+    return run_job(job, progress=spool.keep)
+
+
+def test_spooled_record_equals_the_record_held_in_memory(tiny_env: Path) -> None:
+    job = _job()
+    held = job_record(job, run_job(job), "inprocess", 0.0)
+    with RunSpool() as spool:
+        outcomes = _spooled(job, spool)
+        assert all(isinstance(s, SpooledSheet) and "record" not in s and "html" not in s for o in outcomes for s in o.sheets)
+        rec = job_record(job, outcomes, "inprocess", 0.0)
+        assert isinstance(rec["calcs"], SpooledCalcs) and len(rec["calcs"]) == 4
+        assert rec["record_digest"] == held["record_digest"]
+        assert rec["summary"] == held["summary"] and rec["templates"] == held["templates"]
+        assert list(rec["calcs"]) == held["calcs"]
+        rec["run"] = held["run"]
+        # the streamed file text is what json.dumps(indent=1) prints for the record held in memory
+        assert record_text(rec) == json.dumps(held, indent=1, ensure_ascii=False, allow_nan=False) + "\n"
+        # and the digest is over the canonical JSON, whether calcs are spooled or not
+        body = {k: v for k, v in held.items() if k not in ("run", "record_digest")}
+        canonical = json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
+        assert record_digest(rec) == hashlib.sha256(canonical.encode("utf-8")).hexdigest()
+        # a sheet's record and HTML read back as collected
+        plain = run_job(job)
+        assert [s["record"] for o in outcomes for s in o.sheets] == [s["record"] for o in plain for s in o.sheets]
+        assert [s["html"] for o in outcomes for s in o.sheets] == [s["html"] for o in plain for s in o.sheets]
+
+
+def test_spooled_submittal_is_the_same_page(tiny_env: Path) -> None:
+    job = _job()
+    plain = run_job(job)
+    with RunSpool() as spool:
+        outcomes = _spooled(job, spool)
+        rec = job_record(job, outcomes, "inprocess", 0.0)
+        chunks = list(submittal_chunks(job, outcomes, rec))
+    assert len(chunks) > 10  # streamed in pieces: the calcs' sheets one at a time
+    held = job_record(job, plain, "inprocess", 0.0)
+    held["run"] = rec["run"]
+    assert "".join(chunks) == submittal_html(job, plain, held)
+
+
+def test_record_chunks_equal_json_dumps_for_any_record() -> None:
+    record = {"format": "x", "calcs": [], "nested": {"a": [1, {"b": "é\nq"}], "c": {}}, "list": [[], {}, "t"], "n": None}
+    assert "".join(record_chunks(record)) == json.dumps(record, indent=1, ensure_ascii=False) + "\n"
+    assert "".join(record_chunks({})) == "{}\n"
+    sealed = seal(copy.deepcopy(record))
+    assert sealed["record_digest"] == hashlib.sha256(
+        json.dumps(record, sort_keys=True, separators=(",", ":"), ensure_ascii=False).encode("utf-8")).hexdigest()
+
+
+def test_non_finite_values_are_refused_in_the_stream() -> None:
+    with pytest.raises(ValueError):
+        record_text({"x": float("nan")})
+
+
+def test_spool_file_has_no_name_and_closes(tiny_env: Path) -> None:
+    job = _job()
+    spool = RunSpool()
+    outcomes = _spooled(job, spool)
+    assert not Path(str(spool._file.name)).exists()  # an anonymous file: nothing left on disk by a kill
+    spool.close()
+    with pytest.raises(ValueError):
+        outcomes[0].sheets[0]["html"]  # the spool is gone with the run
+
+
+def test_outcome_status_and_checks_from_the_summary(tiny_env: Path) -> None:
+    job = _job()
+    plain = run_job(job)
+    with RunSpool() as spool:
+        outcomes = _spooled(job, spool)
+        # M3: 300 lbf x 10 in = 3000 lbf in > 2000 lbf in allowed: NG (hand arithmetic)
+        assert [o.status for o in outcomes] == [o.status for o in plain] == ["OK", "OK", "NG", "ERROR"]
+        assert [o.checks for o in outcomes] == [o.checks for o in plain]
+        # M = P L = 100 lbf x 10 in = 1000 lbf in against 2000 lbf in: ratio 0.5 (hand arithmetic)
+        assert outcomes[0].checks == [{"sheet": "First bound later", "name": "Moment", "ratio": pytest.approx(0.5), "status": "OK", "ref": ""}]
+        assert [s.numbers for o in outcomes for s in o.sheets] == [s.numbers for o in plain for s in o.sheets]
+
+
+def test_cli_run_with_many_rows_lists_only_what_is_not_ok(tiny_env: Path, tmp_path: Path, monkeypatch: pytest.MonkeyPatch,
+                                                       capsys: pytest.CaptureFixture[str]) -> None:
+    import calcpad.cli as cli
+
+    job = tmp_path / "job.toml"
+    job.write_text(JOB_HEAD + tiny_calc("M1") + tiny_calc("M2") + tiny_calc("M3", P='"300 lbf"'), encoding="utf-8")
+    monkeypatch.setattr(cli, "SUMMARY_ROWS", 2)  # three check rows: more than the terminal summary lists
+    assert cli.main(["run", str(job), "--out", str(tmp_path / "out"), "--no-pdf"]) == 1
+    out = capsys.readouterr().out
+    assert "M3" in out and "M1" not in out and "M2" not in out
+    assert "3 check rows: listed the calcs that are not OK (1 rows)" in out
+    record = json.loads(next((tmp_path / "out").glob("rev-*/record.json")).read_text(encoding="utf-8"))
+    assert [c["member"] for c in record["calcs"]] == ["M1", "M2", "M3"]  # the record keeps every calc
