@@ -25,6 +25,7 @@ import contextlib
 import hashlib
 import io
 import math
+import json
 import os
 import sys
 import time
