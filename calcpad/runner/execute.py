@@ -24,8 +24,8 @@ from __future__ import annotations
 import contextlib
 import hashlib
 import io
-import math
 import json
+import math
 import os
 import sys
 import time
