@@ -223,7 +223,7 @@ def test_custom_section_rows_take_their_dimensions_from_columns(tmp_path: Path, 
         load_job(_job(tmp_path, "bad.csv", bad))
     text = str(exc.value)
     assert "row 2, column F (D_o)" in text and "kg" in text
-    assert "row 3, column E (leg)" in text and "unknown section" in text  # a word the template does not offer
+    assert "row 3, column E (leg)" in text and "'square' is not in the catalog" in text  # a word the template does not offer
 
 
 def test_repeated_values_are_each_checked_on_their_own_row(tmp_path: Path) -> None:
