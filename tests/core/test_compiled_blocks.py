@@ -9,34 +9,11 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from calcpad import Sheet
 from calcpad.core import compiled
 
+from .test_compiled import chain  # the leg chain both files compile
+
 IN, LBF, PSI = 0.0254, 4.4482216152605, 6894.757293168361
-
-
-def chain() -> Sheet:
-    sh = Sheet("blocked chain")
-    sh.given("P", "250 lbf")
-    sh.given("L", "84 in")
-    sh.given("D_o", "2.375 in")
-    sh.given("t", "0.154 in")
-    sh.given("F_y", "35 ksi")
-    sh.given("E", "29000 ksi")
-    sh.given("K", 2.1)
-    sh.step("M", "P*L")
-    sh.step("D_i", "D_o - 2*t")
-    sh.step("I", "pi/64*(D_o**4 - D_i**4)")
-    sh.step("A", "pi/4*(D_o**2 - D_i**2)")
-    sh.step("r", "sqrt(I/A)")
-    sh.step("sigma_b", "M*(D_o/2)/I")
-    sh.step("KL_r", "K*L/r")
-    sh.step("F_e", "pi**2*E/KL_r**2")
-    sh.branch("F_cr", [("KL_r <= 4.71*sqrt(E/F_y)", "0.658**(F_y/F_e)*F_y", "E3-2"), (None, "0.877*F_e", "E3-3")])
-    sh.select("F_lim", "min", ["F_y", "F_cr"])
-    sh.check("bending", "sigma_b", "F_y", required_fs=1.67)
-    sh.check("buckling", "sigma_b", "F_lim")
-    return sh
 
 
 def inputs(n: int, bad: bool) -> dict[str, np.ndarray]:
