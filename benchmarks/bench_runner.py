@@ -114,6 +114,19 @@ def per_calc(runs: list[dict[str, float]], key: str) -> float:
     return r[key] / r["calcs"] * 1e3
 
 
+def side_by_side(base: Path, what: str, n: int, rounds: int, job: str | None = None) -> tuple[int, str]:
+    """Baseline and today's code run alternately ``rounds`` times on the same work: the calcs
+    run and the per-calc wall and CPU times of both with their ratios (best of the rounds)."""
+    b_runs, n_runs = [], []
+    for _ in range(rounds):
+        b_runs.append(measure(base, what, n, job or ""))
+        n_runs.append(measure(ROOT, what, n, job or ""))
+    per_b, per_n = per_calc(b_runs, "seconds"), per_calc(n_runs, "seconds")
+    cpu_b, cpu_n = per_calc(b_runs, "cpu"), per_calc(n_runs, "cpu")
+    return n_runs[0]["calcs"], (f"baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio now/baseline = {per_n / per_b:.2f}; "
+                                f"CPU time {cpu_b:.1f} vs {cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}")
+
+
 def main() -> None:
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--rounds", type=int, default=2, help="alternating rounds per measurement (best kept)")
@@ -124,37 +137,17 @@ def main() -> None:
     args = ap.parse_args()
     with tempfile.TemporaryDirectory(prefix="calcpad-baseline-") as tmp:
         base = baseline_tree(Path(tmp))
-        now_runs, base_runs = [], []
-        for _ in range(args.rounds):
-            base_runs.append(measure(base, "mix", args.mix))
-            now_runs.append(measure(ROOT, "mix", args.mix))
-        per_b, per_n = per_calc(base_runs, "seconds"), per_calc(now_runs, "seconds")
-        cpu_b, cpu_n = per_calc(base_runs, "cpu"), per_calc(now_runs, "cpu")
-        print(f"example mix, {now_runs[0]['calcs']} calcs in-process: baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, "
-              f"ratio now/baseline = {per_n / per_b:.2f}; CPU time {cpu_b:.1f} vs {cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}   "
+        calcs, text = side_by_side(base, "mix", args.mix, args.rounds)
+        print(f"example mix, {calcs} calcs in-process: {text}   "
               "(goal <= 0.1; each code runs its own example job, and today's has heavier templates)")
-        db, dn = [], []
-        for _ in range(args.rounds):
-            db.append(measure(base, "distinct", args.mix))
-            dn.append(measure(ROOT, "distinct", args.mix))
-        per_b, per_n = per_calc(db, "seconds"), per_calc(dn, "seconds")
-        cpu_b, cpu_n = per_calc(db, "cpu"), per_calc(dn, "cpu")
+        _, text = side_by_side(base, "distinct", args.mix, args.rounds)
         print(f"example mix with distinct loads (the k-th repetition's loads, pressures and wind speed x (1 + k/100): no "
-              f"calc repeats the warm-up's or another's numbers, so caches of content serve only what really repeats): "
-              f"baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio = {per_n / per_b:.2f}; CPU time {cpu_b:.1f} vs "
-              f"{cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}")
+              f"calc repeats the warm-up's or another's numbers, so caches of content serve only what really repeats): {text}")
         old_job = Path(tmp) / "baseline-example.toml"  # the same calcs for both codes
         old_job.write_bytes((base / "examples" / "harbor_ridge_condenser_stand.toml").read_bytes())
-        cb, cn = [], []
-        for _ in range(args.rounds):
-            cb.append(measure(base, "common", args.mix, str(old_job)))
-            cn.append(measure(ROOT, "common", args.mix, str(old_job)))
-        per_b, per_n = per_calc(cb, "seconds"), per_calc(cn, "seconds")
-        cpu_b, cpu_n = per_calc(cb, "cpu"), per_calc(cn, "cpu")
-        print(f"same calcs, {cn[0]['calcs']} in-process (the baseline's example job without wind_rooftop_stand, whose "
-              f"parameters changed): baseline {per_b:.1f} ms/calc, now {per_n:.1f} ms/calc, ratio = {per_n / per_b:.2f}; "
-              f"CPU time {cpu_b:.1f} vs {cpu_n:.1f} ms/calc, ratio {cpu_n / cpu_b:.2f}")
-
+        calcs, text = side_by_side(base, "common", args.mix, args.rounds, str(old_job))
+        print(f"same calcs, {calcs} in-process (the baseline's example job without wind_rooftop_stand, whose "
+              f"parameters changed): {text}")
         small = args.small
         if small > 0:
             b1 = measure(base, "big", small)
