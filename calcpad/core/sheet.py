@@ -469,7 +469,7 @@ class Sheet:
         """A table cell's text; a quantity's text is kept by its exact magnitude, units, the
         column's unit and decimals and the sheet's display preferences (tables of frame results
         repeat many values)."""
-        if isinstance(v, pint.Quantity) and type(v.magnitude) in (float, int, np.float64):
+        if isinstance(v, pint.Quantity) and type(v.magnitude) in _EXACT:
             noise = scale > 0 and abs(float(v.magnitude)) < 1e-9 * scale
             key = (repr(v.magnitude), tuple(v._units.items()), noise, str(unit), decimals, self.prefs.system,
                    self.prefs.sig, tuple(self.prefs.overrides.items()))
