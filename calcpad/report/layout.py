@@ -3,7 +3,8 @@
 Order: cover (job, status, cautions, sign-off and seal space, revision log, software and run),
 contents (page numbers filled in by :func:`calcpad.report.pdf.write_pdf`), design criteria,
 summary of checks (every member), checks by printed calc, then the calcs — identical calcs
-printed once as "typical for ..." (:mod:`.grouping`). Print modes: ``full``; ``summary`` (the
+printed once as "typical for ..." (:mod:`.grouping`), a large member table once per governing
+case (:mod:`.compact`). Print modes: ``full``; ``summary`` (the
 governing sheet of each calc only); ``calc:MARK`` (that member's calc only).
 """
 
@@ -17,10 +18,11 @@ from typing import Any
 from calcpad.core.errors import InputError
 from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
-from calcpad.report.grouping import CalcGroup, group_calcs, numbers_text
+from calcpad.report.compact import COMPACT_CSS, CaseGroup, marks_text, print_groups
+from calcpad.report.grouping import CalcGroup, numbers_text
 from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
-from calcpad.runner.execute import CalcOutcome
+from calcpad.runner.execute import CalcOutcome, rerun_calc
 from calcpad.runner.job import Job, print_mode
 from calcpad.runner.members import results_stems
 
@@ -66,6 +68,8 @@ def _digest_short(record: dict[str, Any]) -> str:
 
 
 def _heading_text(g: CalcGroup) -> str:
+    if isinstance(g, CaseGroup):
+        return f"{g.label} · {g.title} — governing member {g.first.calc.member} of {len(g.outcomes):,}"
     who = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
     return f"{numbers_text(g.numbers)} · {g.title} — {who}"
 
@@ -198,7 +202,7 @@ def _criteria(c: _Context) -> str:
     for g in c.groups:
         t = g.first.calc.template
         templates.setdefault(t.name, (t.title, []))[1].extend(g.marks)
-    rows = "".join(f"<tr><td><code>{_e(n)}</code></td><td>{_e(t)}</td><td>{_e(', '.join(m))}</td></tr>" for n, (t, m) in templates.items())
+    rows = "".join(f"<tr><td><code>{_e(n)}</code></td><td>{_e(t)}</td><td>{_e(marks_text(m))}</td></tr>" for n, (t, m) in templates.items())
     typical = [g for g in c.groups if g.typical]
     typ = (
         "<p>Members with the same template, title and inputs are printed once as typical: "
@@ -208,13 +212,12 @@ def _criteria(c: _Context) -> str:
         else ""
     )
     basis = "".join(f"<li>{_e(b)}</li>" for b in info.basis)
-    assumed: dict[str, list[str]] = {}  # each assumption once, with the members whose sheets state it
+    assumed: dict[str, dict[str, None]] = {}  # each assumption once, with the members whose sheets state it
     for g in c.groups:
         for s in g.first.sheets:
             for text in s.assumptions:
-                marks = assumed.setdefault(text, [])
-                marks.extend(m for m in g.marks if m not in marks)
-    assumptions = "".join(f"<li>{_e(t)} <i>({_e(', '.join(m))})</i></li>" for t, m in assumed.items())
+                assumed.setdefault(text, {}).update(dict.fromkeys(g.marks))
+    assumptions = "".join(f"<li>{_e(t)} <i>({_e(marks_text(list(m)))})</i></li>" for t, m in assumed.items())
     return (
         _h2("criteria", "Design criteria")
         + (f'<h3>Design basis</h3><ul class="basis">{basis}</ul>' if basis else "")
@@ -231,15 +234,16 @@ def _summary(c: _Context) -> Iterator[str]:
     head = "<tr><th>Calc</th><th>Member</th><th>Calc title</th><th>Governing check</th><th>Ratio</th><th>Status</th><th>Page</th></tr>"
     yield _h2("summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>'
     for g in c.printed:
-        for o in g.outcomes:
+        for o in [g.first] if isinstance(g, CaseGroup) else g.outcomes:  # a case: its governing member
             gov = _governing(o.checks)
             cls = ' class="ng"' if o.status != "OK" else ""
             if o.error is not None:
                 check = f"calc failed to run (cell {o.error.get('cell')})"
             else:
                 check = gov["name"] if gov else "(no checks)"
+            member = f"{o.calc.member} (governs {g.label}: {len(g.outcomes):,} members)" if isinstance(g, CaseGroup) else o.calc.member
             yield (
-                f'<tr{cls}><td class="num">{o.calc.number}</td><td>{_e(o.calc.member)}</td><td>{_e(g.title)}</td>'
+                f'<tr{cls}><td class="num">{o.calc.number}</td><td>{_e(member)}</td><td>{_e(g.title)}</td>'
                 f'<td>{_e(check)}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
                 f'<td class="st">{_status_mark(o.status)}</td><td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>'
             )
@@ -266,6 +270,51 @@ def _member_table_row(o: CalcOutcome, g: CalcGroup, design: bool) -> str:
     )
 
 
+def _case_note(g: CaseGroup) -> str:
+    gov = g.check
+    marks = ", ".join(o.calc.member for o in g.outcomes)
+    return (
+        f'<div class="typical">{_e(g.label)} of member table {_e(g.table)}: {len(g.outcomes):,} members whose governing check is '
+        f'{_e(gov["name"] if gov else "(none)")} (status {_e(g.first.status)}). The sheets below are worked for '
+        f'{_e(g.first.calc.member)}, the member of the case with the highest ratio ({_ratio(gov["ratio"] if gov else None)}); '
+        f'the member table gives every member\'s ratio. Members: <span class="case-members">{_e(marks)}</span></div>'
+    )
+
+
+def _case_cell(g: CalcGroup) -> str:
+    return g.label if isinstance(g, CaseGroup) else f"calc {g.first.calc.number}"
+
+
+def _compact_member_table(members: list[tuple[CalcOutcome, CalcGroup]], design: bool) -> Iterator[str]:
+    """The cases of a large table (one line each, with the page of its sheets), then every member
+    on a few lines per inch: row, ratio, status and case (the governing check is the case's)."""
+    cases = list({id(g): g for _o, g in members}.values())
+    head = ("<tr><th>Case</th><th>Governing check</th><th>Inputs in words</th><th>Status</th><th>Members</th>"
+            "<th>Printed member</th><th>Ratio</th><th>Page</th></tr>")
+    yield f'<table class="list"><thead>{head}</thead><tbody>'
+    for g in cases:
+        o = g.first
+        gov = _governing(o.checks)
+        params = o.calc.template.parameters
+        words = ", ".join(f"{n} = {v}" for n, v in o.calc.inputs.items() if n in params and params[n].kind == "text" and n != "member_mark")
+        check = gov["name"] if gov else f"calc failed to run (cell {o.error.get('cell')})" if o.error else "(no checks)"
+        cls = ' class="ng"' if o.status != "OK" else ""
+        yield (f'<tr{cls}><td>{_e(_case_cell(g))}</td><td>{_e(check)}</td><td>{_e(words)}</td><td class="st">{_status_mark(o.status)}</td>'
+               f'<td class="num">{len(g.outcomes):,}</td><td>{_e(o.calc.member)}</td><td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
+               f'<td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>')
+    yield "</tbody></table>"
+    head = "<tr><th>Member</th><th>Row</th>" + ("<th>Size</th>" if design else "") + "<th>Ratio</th><th>Status</th><th>Case</th></tr>"
+    yield f'<div class="members-compact"><table><thead>{head}</thead><tbody>'
+    for o, g in sorted(members, key=lambda m: m[0].calc.number):
+        gov = _governing(o.checks)
+        chosen = ((o.calc.design or {}).get("result") or {}).get("chosen") or {}
+        size = f"<td>{_e(chosen.get('designation', ''))}</td>" if design else ""
+        cls = ' class="ng"' if o.status != "OK" else ""
+        yield (f'<tr{cls}><td>{_e(o.calc.member)}</td><td class="num">{o.calc.row}</td>{size}<td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
+               f"<td>{_status_mark(o.status)}</td><td>{_e(_case_cell(g))}</td></tr>")
+    yield "</tbody></table></div>"
+
+
 def _member_tables(c: _Context) -> Iterator[str]:
     """One table per member table of the job: each member's row, size (chosen by a design search
     where there is one), governing check and the page of its sheet."""
@@ -281,10 +330,23 @@ def _member_tables(c: _Context) -> Iterator[str]:
         note = (f'<p>Every check ratio of every member: {_e(stems.get(name, "results"))}.csv and .xlsx beside this submittal.'
                 + (" Sizes chosen by a design search: the lightest catalog size by weight per foot with every check OK; "
                    "each member's sheet is printed with that size." if design else "") + "</p>")
+        if any(isinstance(g, CaseGroup) for _o, g in members):
+            yield _h2(f"table-{k}", f"Member table {name}") + note + (
+                f"<p>{len(members):,} members, printed once per governing case: the members of a case share the "
+                "template, the inputs in words (such as the section), the governing check and the status; each case "
+                "prints the sheets of its member with the highest ratio.</p>")
+            yield from _compact_member_table(members, design)
+            continue
         yield _h2(f"table-{k}", f"Member table {name}") + note + f'<table class="list"><thead>{head}</thead><tbody>'
         for o, g in members:
             yield _member_table_row(o, g, design)
         yield "</tbody></table>"
+
+
+def _members_cell(g: CalcGroup) -> str:
+    if isinstance(g, CaseGroup):
+        return f"{g.label}: {g.first.calc.member} (governing of {len(g.outcomes):,})"
+    return ", ".join(g.marks)
 
 
 def _all_checks(c: _Context) -> Iterator[str]:
@@ -294,7 +356,7 @@ def _all_checks(c: _Context) -> Iterator[str]:
         for ch in g.first.checks:
             cls = ' class="ng"' if not status_ok(ch["status"]) else ""
             yield (
-                f"<tr{cls}><td>{_e(', '.join(g.marks))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
+                f"<tr{cls}><td>{_e(_members_cell(g))}</td><td>{_e(ch['name'])}</td><td class=\"num\">{_ratio(ch['ratio'])}</td>"
                 f"<td class=\"st\">{_status_mark(ch['status'])}</td><td>{_e(ch['ref'])}</td></tr>"
             )
     yield "</tbody></table>"
@@ -318,6 +380,8 @@ def _calc_section(c: _Context, g: CalcGroup, index: int) -> Iterator[str]:
     heading = _heading_text(g)
     parts = [f'<section class="calc" id="{g.anchor}" style="page: g{index}"><h2>{_e(heading)}</h2>']
     parts.append(f'<p class="calc-meta">Template <code>{_e(o.calc.template.name)}</code> ({_e(o.calc.template.title)}) · status {_status_mark(o.status)}</p>')
+    if isinstance(g, CaseGroup):
+        parts.append(_case_note(g))
     if g.typical:
         parts.append(
             f'<div class="typical">Typical: members {_e(", ".join(g.marks))} ({_e(numbers_text(g.numbers).lower())}) have the same template and '
@@ -329,12 +393,19 @@ def _calc_section(c: _Context, g: CalcGroup, index: int) -> Iterator[str]:
     if note:
         parts.append(f'<p class="calc-meta">{_e(note)}</p>')
     yield "".join(parts)
+    again = None
     for s in sheets:
-        yield s["html"]  # read back from the spool one sheet at a time when the run kept one
+        if s.has_html:
+            yield s["html"]  # read back from the spool one sheet at a time when the run kept one
+            continue
+        again = again or rerun_calc(c.job, o.calc)  # a member whose HTML the run did not keep (calc:MARK)
+        yield again.sheets[next(k for k, t in enumerate(o.sheets) if t is s)]["html"]
     yield "</section>"
 
 
 def _band(g: CalcGroup) -> tuple[str, str]:
+    if isinstance(g, CaseGroup):
+        return g.title, f"{g.label} · governing member {g.first.calc.member} of {len(g.outcomes):,}"
     marks = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
     return g.title, f"{numbers_text(g.numbers)} · {marks}"
 
@@ -347,7 +418,7 @@ def submittal_chunks(job: Job, outcomes: list[CalcOutcome], record: dict[str, An
     setting when None). Each calc's sheets are read when their section is reached, so a writer
     that streams the pieces to a file never holds the whole page."""
     parsed = print_mode(mode or job.info.print) or ("full", "")
-    groups = group_calcs(outcomes)
+    groups = print_groups(outcomes, compact=parsed[0] != "calc")  # calc:MARK prints that member, whatever its ratio
     printed = [g for g in groups if parsed[0] != "calc" or parsed[1] in g.marks]
     c = _Context(job, record, groups, printed, parsed, [])
     c.toc = _toc(c)
@@ -362,7 +433,7 @@ def submittal_chunks(job: Job, outcomes: list[CalcOutcome], record: dict[str, An
     css += band_css("cover", "Cover and sign-off", "")
     css += band_css("front", "Contents, design criteria and summary", "")
     title = f"{info.number} {info.title}"
-    yield f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}'
+    yield f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}{COMPACT_CSS}'
     for i, g in enumerate(printed, start=1):
         yield band_css(f"g{i}", *_band(g))
     yield "</style></head>\n<body>\n"

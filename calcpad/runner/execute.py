@@ -68,7 +68,21 @@ class SheetItem(dict):  # type: ignore[type-arg]
     def __missing__(self, key: str) -> Any:
         if key == "html" and "html_z" in self:
             return zlib.decompress(self["html_z"]).decode("utf-8")
+        if key == "html" and "_render" in self:
+            return self["_render"]()
         raise KeyError(key)
+
+    @property
+    def has_html(self) -> bool:
+        """True when ``item["html"]`` can be read (held, compressed, spooled or still to be printed)."""
+        return any(k in self for k in ("html", "html_z", "_html", "_render"))
+
+    def settle(self, html: bool = True) -> None:
+        """Print the HTML of a sheet collected with ``html="lazy"`` now and compress it (``html``),
+        or drop the sheet result it waited on (nothing reads the HTML)."""
+        render = self.pop("_render", None)
+        if render is not None and html:
+            self["html_z"] = zlib.compress(render().encode("utf-8"), 1)
 
     # what the summaries read: from the record, or (spooled) held apart from it
     @property
@@ -115,6 +129,12 @@ class CalcOutcome:
     seconds: float = 0.0
     notebook: Any = None  # executed notebook (kernel mode)
     spooled: Any = None  # the calc's record entry, kept in a spool (runner.spool) instead of in memory
+
+    def settle(self, html: bool = True) -> None:
+        """Print (``html``) or drop the HTML its sheets were collected without (:meth:`SheetItem.settle`)."""
+        for s in self.sheets:
+            if isinstance(s, SheetItem):
+                s.settle(html)
 
     @property
     def status(self) -> str:
@@ -169,10 +189,18 @@ def sheets_bound(namespace: dict[str, Any]) -> list[Any]:
     return out
 
 
-def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: bool = False) -> list[dict[str, Any]]:
-    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel);
-    with ``text=True`` also the plain-text hand calc (printed by a ``--set`` run)."""
+def _printer(result: Any) -> Callable[[], str]:
     from calcpad.render.html import sheet_html_fragment
+
+    return lambda: sheet_html_fragment(result, heading_level=3)
+
+
+def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: bool = False,
+                   html: bool | str = True) -> list[dict[str, Any]]:
+    """Record and HTML of every Sheet bound in ``namespace`` (runs in-process or in the kernel);
+    with ``text=True`` also the plain-text hand calc (printed by a ``--set`` run). ``html="lazy"``
+    leaves the HTML to be printed when asked (``"_render"``: see :meth:`SheetItem.settle`; most
+    members of a large table are never printed), ``html=False`` leaves it out."""
     from calcpad.render.record import sheet_record
     from calcpad.render.text import sheet_text
 
@@ -181,7 +209,11 @@ def collect_sheets(namespace: dict[str, Any], template: str, member: str, text: 
         result = sheet.evaluate()
         rec = sheet_record(result)
         rec["meta"] = {**rec["meta"], "template": template, "member": member}
-        item = {"record": _finite(rec), "html": sheet_html_fragment(result, heading_level=3)}
+        item: dict[str, Any] = {"record": _finite(rec)}
+        if html == "lazy":
+            item["_render"] = _printer(result)
+        elif html:
+            item["html"] = _printer(result)()
         if text:
             item["text"] = sheet_text(result)
         out.append(item)
@@ -223,9 +255,10 @@ def _close_widgets(before: set[str]) -> None:
             widget.close()
 
 
-def run_calc_inprocess(calc: Calc, text: bool = False) -> CalcOutcome:
+def run_calc_inprocess(calc: Calc, text: bool = False, html: bool | str = True) -> CalcOutcome:
     """Run one calc in this process: the template's code cells after its parameters cell and
-    before its what-if cell (:meth:`Template.body`; the panel is for the notebook reader)."""
+    before its what-if cell (:meth:`Template.body`; the panel is for the notebook reader).
+    ``html``: as :func:`collect_sheets` (``"lazy"``: :meth:`CalcOutcome.settle` prints it)."""
     os.environ.setdefault("MPLBACKEND", "Agg")
     start = time.perf_counter()
     tpl = calc.template
@@ -244,7 +277,7 @@ def run_calc_inprocess(calc: Calc, text: bool = False) -> CalcOutcome:
                     break
             if outcome.error is None:
                 try:
-                    outcome.sheets = [SheetItem.packed(s) for s in collect_sheets(namespace, tpl.name, calc.member, text)]
+                    outcome.sheets = [SheetItem.packed(s) for s in collect_sheets(namespace, tpl.name, calc.member, text, html)]
                 except Exception as exc:
                     outcome.error = {"cell": None, "message": f"{type(exc).__name__}: {exc}"}
     finally:
@@ -273,18 +306,47 @@ def _session(mode: str, timeout: int, units: str = "US", extra_env: dict[str, st
         session.close()
 
 
+@contextlib.contextmanager
+def _job_environment(job: Job) -> Iterator[dict[str, str]]:
+    """The job's display units for sheets made without ``system=`` and its shop table (no other
+    from this process's environment); yields the variables a kernel needs for the shop table."""
+    previous = os.environ.get(SYSTEM_ENV)
+    os.environ[SYSTEM_ENV] = job.info.units
+    stray = {k: os.environ.pop(k) for k in (ENV_PATH, ENV_SHA256) if k in os.environ}
+    try:
+        shop_env = {ENV_PATH: job.shop_path, ENV_SHA256: job.shop_table.sha256} if job.shop_table is not None and job.shop_path else {}
+        with shop_table_in_use(job.shop_table):
+            yield shop_env
+    finally:
+        if previous is None:
+            os.environ.pop(SYSTEM_ENV, None)
+        else:
+            os.environ[SYSTEM_ENV] = previous
+        os.environ.update(stray)
+
+
+def rerun_calc(job: Job, calc: Calc) -> CalcOutcome:
+    """Run one calc of ``job`` in-process again, with its HTML (a sheet the run did not keep the
+    HTML of, such as a member of a large table that is not printed, asked for by ``--print calc:MARK``)."""
+    with _job_environment(job):
+        return run_calc_inprocess(calc)
+
+
 def run_job(
     job: Job,
     mode: str = "inprocess",
     progress: Callable[[CalcOutcome], None] | None = None,
     timeout: int = 600,
     text: bool = False,
+    html: bool = True,
 ) -> list[CalcOutcome]:
     """Run every calc of ``job``; a failing calc is recorded and the others still run.
 
     ``progress`` is called with each outcome as it is done (without one, a run in a Jupyter
     notebook shows a progress bar once it has gone on for 2 s); ``text=True`` adds each sheet's
-    plain-text hand calc (``"text"``) to the collected sheets."""
+    plain-text hand calc (``"text"``) to the collected sheets. In-process, each sheet's HTML waits
+    until ``progress`` has seen the outcome (a spool prints only what can be printed) and is then
+    printed, or left out with ``html=False`` (re-runs that compare records)."""
     if mode not in MODES:
         raise ValueError(f"mode {mode!r}; expected one of {MODES}")
     outcomes: list[CalcOutcome] = []
@@ -292,24 +354,15 @@ def run_job(
     if progress is None and in_notebook():  # a batch run from a notebook gets a bar (after 2 s)
         bar = RunProgress(len(job.calcs))
         progress = lambda o: bar.advance(f"{o.calc.template.name} {o.calc.member}")  # noqa: E731
-    previous = os.environ.get(SYSTEM_ENV)
-    os.environ[SYSTEM_ENV] = job.info.units  # sheets made without system= follow the job's units
-    # only the job decides which shop table is used: none from the environment of this process
-    stray = {k: os.environ.pop(k) for k in (ENV_PATH, ENV_SHA256) if k in os.environ}
     try:
-        shop_env = {ENV_PATH: job.shop_path, ENV_SHA256: job.shop_table.sha256} if job.shop_table is not None and job.shop_path else {}
-        with shop_table_in_use(job.shop_table), _session(mode, timeout, job.info.units, shop_env) as session:
+        with _job_environment(job) as shop_env, _session(mode, timeout, job.info.units, shop_env) as session:
             for calc in job.calcs:
-                outcome = run_calc_inprocess(calc, text) if session is None else session.run(calc, text)
+                outcome = run_calc_inprocess(calc, text, "lazy") if session is None else session.run(calc, text)
                 outcomes.append(outcome)
                 if progress is not None:
                     progress(outcome)
+                outcome.settle(html)  # what the spool did not take is printed now (or dropped)
     finally:
         if bar is not None:
             bar.close()
-        if previous is None:
-            os.environ.pop(SYSTEM_ENV, None)
-        else:
-            os.environ[SYSTEM_ENV] = previous
-        os.environ.update(stray)
     return outcomes

@@ -4,7 +4,9 @@ A run that writes an output folder hands each outcome to :meth:`RunSpool.keep` a
 The calc's record entry (as the record file prints it, and in the canonical form the record
 digest is taken over) and each sheet's HTML go, zlib-compressed, to an anonymous temporary file
 (``tempfile.TemporaryFile``: it has no name, so nothing is left on disk when the run ends or is
-killed); the outcome keeps only what the summaries read — per sheet its title, method,
+killed) — the HTML only of sheets a submittal can print (:mod:`calcpad.runner.cases`: each member
+of a small member table, the member governing its case so far in a large one; the others' HTML is
+never made, see :func:`calcpad.runner.execute.run_job`); the outcome keeps only what the summaries read — per sheet its title, method,
 assumptions, a digest of its numbers and each check's title, ratio, status and reference. The
 record (:func:`calcpad.runner.record.job_record`), the submittal and the results table then read
 the spool back one calc at a time, so memory stays flat in the number of calcs.
@@ -19,6 +21,7 @@ import zlib
 from pathlib import Path
 from typing import IO, Any
 
+from calcpad.runner.cases import CaseTracker
 from calcpad.runner.execute import CalcOutcome, SheetItem
 from calcpad.runner.record import calc_record, template_digest
 
@@ -62,7 +65,7 @@ class SpooledSheet(SheetItem):
     read them back (each time; nothing is cached), the summary fields are held."""
 
     def __missing__(self, key: str) -> Any:
-        if key == "html":
+        if key == "html" and "_html" in self:
             return self["_html"].text()
         if key == "record":  # the calc's record entry holds its sheets' records
             return json.loads(self["_entry"].pretty())["sheets"][self["_index"]]
@@ -78,6 +81,7 @@ class RunSpool:
         self._lock = threading.Lock()
         self._shas: dict[Path, str] = {}
         self._texts: dict[str, str] = {}  # one copy of each repeated text (titles, references)
+        self._cases = CaseTracker()  # whose sheets can be printed (the HTML of the others is never made)
 
     def close(self) -> None:
         """Drop the spool file (outcomes kept in it can no longer be read)."""
@@ -123,6 +127,7 @@ class RunSpool:
         pretty = json.dumps(entry, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n  ")
         canonical = json.dumps(entry, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
         spooled = SpooledEntry(self._put(pretty), self._put(canonical), self._shas[path])
+        printable = self._cases.printable(o)
         sheets = []
         for index, s in enumerate(o.sheets):
             item = s if isinstance(s, SheetItem) else SheetItem(s)
@@ -132,8 +137,11 @@ class RunSpool:
                 assumptions=[self._text(a) for a in rec.get("assumptions", [])],
                 checks=[{k: self._text(c[k]) for k in _SLIM_CHECK} for c in rec["checks"]],
                 numbers=item.numbers, _entry=spooled, _index=index,
-                _html=self._put_compressed(item["html_z"]) if "html_z" in item else self._put(item["html"]),
             )
+            if printable and "html_z" in item:
+                slim["_html"] = self._put_compressed(item["html_z"])
+            elif printable and item.has_html:
+                slim["_html"] = self._put(item["html"])
             if "text" in item:
                 slim["text"] = item["text"]
             sheets.append(slim)
