@@ -24,8 +24,11 @@ from __future__ import annotations
 import html
 import math
 from collections import Counter
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from typing import Any
+
+from calcpad.runner.record import SpooledCalcs
 
 __all__ = ["KINDS", "Change", "RecordDiff", "diff_html", "diff_records", "diff_table"]
 
@@ -175,6 +178,22 @@ def _keyed(items: list[dict[str, Any]], key: Any) -> dict[Any, dict[str, Any]]:
     return out
 
 
+def _calcs(value: Any) -> Sequence[dict[str, Any]]:
+    """A record's calcs: read one at a time when spooled or left in the file, else the dicts listed."""
+    return value if isinstance(value, SpooledCalcs) else _dicts(value)
+
+
+def _keyed_places(calcs: Sequence[dict[str, Any]]) -> dict[Any, int]:
+    """Index of each calc by (template, member) and occurrence (as :func:`_keyed`), not the calc itself."""
+    seen: Counter[Any] = Counter()
+    out: dict[Any, int] = {}
+    for i, c in enumerate(calcs):
+        k = (c.get("template"), c.get("member"))
+        out[(k, seen[k])] = i
+        seen[k] += 1
+    return out
+
+
 def _dicts(value: Any) -> list[dict[str, Any]]:
     return [v for v in value if isinstance(v, dict)] if isinstance(value, list) else []
 
@@ -275,16 +294,23 @@ def _revision_label(rec: dict[str, Any], fallback: str) -> str:
 def diff_records(old: dict[str, Any], new: dict[str, Any], rtol: float = 1e-6, old_label: str | None = None, new_label: str | None = None) -> RecordDiff:
     """Everything that differs between two job records (see the module docstring)."""
     d = RecordDiff(old_label or _revision_label(old, "old"), new_label or _revision_label(new, "new"), rtol)
-    olds = _keyed(_dicts(old.get("calcs")), lambda c: (c.get("template"), c.get("member")))
-    news = _keyed(_dicts(new.get("calcs")), lambda c: (c.get("template"), c.get("member")))
-    for key, c in olds.items():
-        if key not in news:
-            d.removed.append(Change(_calc_label(c), str(c.get("title") or c.get("template_title") or ""), c.get("status", "—"), "—"))
-    for key, c in news.items():
+    old_calcs = _calcs(old.get("calcs"))  # a record read from a file holds its calcs there: one at a time
+    olds = _keyed_places(old_calcs)
+    matched: set[Any] = set()
+    seen: Counter[Any] = Counter()
+    for c in _calcs(new.get("calcs")):
+        k = (c.get("template"), c.get("member"))
+        key = (k, seen[k])
+        seen[k] += 1
         if key not in olds:
             d.added.append(Change(_calc_label(c), str(c.get("title") or c.get("template_title") or ""), "—", c.get("status", "—")))
         else:
-            _compare_calc(d, olds[key], c)
+            matched.add(key)
+            _compare_calc(d, old_calcs[olds[key]], c)
+    for key, i in olds.items():
+        if key not in matched:
+            c = old_calcs[i]
+            d.removed.append(Change(_calc_label(c), str(c.get("title") or c.get("template_title") or ""), c.get("status", "—"), "—"))
     _compare_files(d.templates, _templates(old), _templates(new))
     _compare_files(d.data, _data(old), _data(new))
     ov, nv = _mapping(old.get("versions")), _mapping(new.get("versions"))

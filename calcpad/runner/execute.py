@@ -136,6 +136,13 @@ class CalcOutcome:
             if isinstance(s, SheetItem):
                 s.settle(html)
 
+    def slim(self) -> None:
+        """Keep of each sheet only what the summaries read (title, method, assumptions, each check's
+        title, ratio, status and reference): a run that only tabulates results holds no records."""
+        self.sheets = [SheetItem(title=s.title, method=s.method, assumptions=list(s.assumptions),
+                                 checks=[{k: c[k] for k in ("title", "ratio", "status", "ref")} for c in s.checks])
+                       for s in self.sheets]
+
     @property
     def status(self) -> str:
         """"ERROR" when a cell failed, "NG" when a check does not pass (NG or not covered), "OK" otherwise."""

@@ -501,8 +501,8 @@ def run_table(
         raise JobError(str(path), problems)
     calcs = [Calc(i, f"table row {r.row}", tpl, r.mark, r.inputs, "", r.typed, table=data.name, row=r.row) for i, r in enumerate(rows, start=1)]
     job = Job(JobInfo("-", tpl.title), calcs, str(path), None, (), tables={data.name: data})
-    if client is None:
-        outcomes = run_job(job)
+    if client is None:  # no HTML, and each outcome slimmed as it finishes: memory flat in the number of rows
+        outcomes = run_job(job, progress=lambda o: o.slim(), html=False)
     else:
         from calcpad.runner.scale import run_calcs_on_cluster
 

@@ -75,7 +75,9 @@ class SpooledSheet(SheetItem):
 class RunSpool:
     """One spool per run (see the module docstring); :meth:`keep` each outcome as it finishes."""
 
-    def __init__(self, folder: str | Path | None = None) -> None:
+    def __init__(self, folder: str | Path | None = None, html: bool = True) -> None:
+        """``html=False``: no sheet HTML is kept (a re-run that only compares records)."""
+        self._html = html
         self._file: IO[bytes] = tempfile.TemporaryFile(prefix="calcpad-spool-", dir=folder)
         self._end = 0
         self._lock = threading.Lock()
@@ -127,7 +129,7 @@ class RunSpool:
         pretty = json.dumps(entry, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n  ")
         canonical = json.dumps(entry, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
         spooled = SpooledEntry(self._put(pretty), self._put(canonical), self._shas[path])
-        printable = self._cases.printable(o)
+        printable = self._html and self._cases.printable(o)
         sheets = []
         for index, s in enumerate(o.sheets):
             item = s if isinstance(s, SheetItem) else SheetItem(s)

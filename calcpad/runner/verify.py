@@ -106,10 +106,12 @@ def rerun_record(record: dict[str, Any], templates: Sequence[str | Path] = ()) -
         sets = [f"{n}={i['typed']}" for n, i in inputs.items() if isinstance(i, dict) and i.get("typed") is not None]
         job = single_template_job(jf["source"], sets, member=str(c.get("member", "-")), templates=library)
     from calcpad.runner.search import resolve_designs
+    from calcpad.runner.spool import RunSpool
 
     start = time.perf_counter()
     resolve_designs(job)
-    outcomes = run_job(job, mode="inprocess")
+    spool = RunSpool(html=False)  # the calcs' records wait there (memory flat); closed with the record's last reference
+    outcomes = run_job(job, mode="inprocess", progress=spool.keep, html=False)
     return job_record(job, outcomes, "inprocess", time.perf_counter() - start)
 
 
@@ -131,6 +133,7 @@ def recorded_shop_table(record: dict[str, Any]) -> Any:
     return read_shop_table(text, str(block.get("file") or "shop table in the record"))
 
 
+_SUMMARY_FIELDS = ("template", "template_file", "template_sha256")
 _RERUN_CALC_FIELDS = ("number", "location", "title", "template_title", "template_file", "member", "template")
 
 
@@ -164,7 +167,8 @@ def _derived_fields(record: dict[str, Any]) -> list[Change]:
             out.append(Change(label, f"calcs[{i + 1}].sheets", "malformed", "a list of sheet records"))
             continue
         status = "ERROR" if c.get("error") is not None else "NG" if any(not status_ok(ch["status"]) for ch in checks) else "OK"
-        from_sheets.append({**c, "results": results, "checks": checks, "status": status})
+        # what the summary and template list are derived from (not the sheets: one calc held at a time)
+        from_sheets.append({**{k: c.get(k) for k in _SUMMARY_FIELDS}, "checks": [{"status": ch["status"]} for ch in checks], "status": status})
         for key, derived in (("results", results), ("checks", checks), ("status", status)):
             for path, stored, now in _leaf_diffs(c.get(key), derived, key):
                 out.append(Change(label, path, _text(stored), _text(now), "from its own sheets"))
@@ -182,7 +186,7 @@ def _derived_fields(record: dict[str, Any]) -> list[Change]:
 def _rerun_fields(record: dict[str, Any], new: dict[str, Any]) -> list[Change]:
     """Title block and calc fields that disagree with the re-run of the record's job text."""
     out = [Change("", path, _text(a), _text(b), "from the job text") for path, a, b in _leaf_diffs(record.get("job"), new.get("job"), "job")]
-    olds = {(c.get("template"), c.get("member")): c for c in record.get("calcs") or []}
+    olds = {(c.get("template"), c.get("member")): {k: c.get(k) for k in _RERUN_CALC_FIELDS} for c in record.get("calcs") or []}
     for c in new.get("calcs") or []:
         old = olds.get((c.get("template"), c.get("member")))
         if old is None:

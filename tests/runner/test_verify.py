@@ -338,7 +338,33 @@ def test_verify_outputs_of_calcpad_run(tmp_path: Path, tiny_env: Path, capsys: p
     assert main(["verify", str(tmp_path / "set_out")]) == 0
     path, rec = load_record(tmp_path / "set_out")
     assert rec["job_file"]["text"] is None and rec["calcs"][0]["inputs"]["L"]["typed"] == "12 in"
+    rec = json.loads(path.read_text(encoding="utf-8"))  # load_record leaves the calcs in the file (read-only)
     rec["calcs"][0]["inputs"]["L"]["typed"] = "11 in"  # a hand edit of what was typed
     path.write_text(json.dumps(rec))
     assert main(["verify", str(path)]) == 1
     assert "NOT verified" in capsys.readouterr().out
+
+
+def test_a_record_file_is_read_with_its_calcs_left_in_the_file(tmp_path: Path, tiny_env: Path) -> None:
+    """read_record leaves the calcs of a record laid out as calcpad writes it in the file; what is
+    read equals json.load of the file, the digest and the text are the same; any other layout of
+    the same JSON is read whole; a damaged entry is a RecordError."""
+    from calcpad.runner.record import SpooledCalcs, record_digest, record_text
+
+    job = tmp_path / "job.toml"
+    job.write_text(JOB_HEAD + tiny_calc("A1") + tiny_calc("A2", P='"300 lbf"') + tiny_calc("A3", mode='"fail"'))
+    main(["run", str(job), "--out", str(tmp_path / "out"), "--no-pdf"])
+    path = find_record(tmp_path / "out")
+    whole = json.loads(path.read_text(encoding="utf-8"))
+    rec = read_record(path)
+    assert isinstance(rec["calcs"], SpooledCalcs) and list(rec["calcs"]) == whole["calcs"]
+    assert {k: v for k, v in rec.items() if k != "calcs"} == {k: v for k, v in whole.items() if k != "calcs"}
+    assert record_text(rec) == path.read_text(encoding="utf-8") and record_digest(rec) == whole["record_digest"]
+    assert verify_record(rec).ok
+    compact = tmp_path / "compact.json"
+    compact.write_text(json.dumps(whole), encoding="utf-8")
+    assert read_record(compact) == whole and isinstance(read_record(compact)["calcs"], list)
+    damaged = tmp_path / "damaged.json"
+    damaged.write_text(path.read_text(encoding="utf-8").replace('"member": "A2"', '"member": A2"', 1), encoding="utf-8")
+    with pytest.raises(RecordError, match="not valid JSON"):
+        read_record(damaged)
