@@ -597,6 +597,9 @@ def write_outputs(
             nb_dir = folder / "notebooks"
             nb_dir.mkdir()
             for o in notebooks:
-                nbformat.write(o.notebook, str(nb_dir / _notebook_name(o)))
+                if hasattr(o.notebook, "text"):  # spooled (runner.spool): the file's text as nbformat writes it
+                    (nb_dir / _notebook_name(o)).write_bytes(o.notebook.text().encode("utf-8"))
+                else:
+                    nbformat.write(o.notebook, str(nb_dir / _notebook_name(o)))
 
     return target.write(fill, wait=wait)

@@ -6,7 +6,8 @@ digest is taken over) and each sheet's HTML go, zlib-compressed, to an anonymous
 (``tempfile.TemporaryFile``: it has no name, so nothing is left on disk when the run ends or is
 killed) — the HTML only of sheets a submittal can print (:mod:`calcpad.runner.cases`: each member
 of a small member table, the member governing its case so far in a large one; the others' HTML is
-never made, see :func:`calcpad.runner.execute.run_job`); the outcome keeps only what the summaries read — per sheet its title, method,
+never made, see :func:`calcpad.runner.execute.run_job`) and a kernel run's executed notebook; the
+outcome keeps only what the summaries read — per sheet its title, method,
 assumptions, a digest of its numbers and each check's title, ratio, status and reference. The
 record (:func:`calcpad.runner.record.job_record`), the submittal and the results table then read
 the spool back one calc at a time, so memory stays flat in the number of calcs.
@@ -58,6 +59,19 @@ class SpooledEntry:
     def canonical(self) -> str:
         """The entry as the record digest reads it (sorted keys, no spaces)."""
         return self._canonical.text()
+
+
+class SpooledNotebook:
+    """A kernel run's executed notebook in the spool, as the notebook file's text (``nbformat.writes``)."""
+
+    __slots__ = ("_ref",)
+
+    def __init__(self, ref: _Ref) -> None:
+        self._ref = ref
+
+    def text(self) -> str:
+        """The ``.ipynb`` file's text, as ``nbformat.write`` writes it."""
+        return self._ref.text()
 
 
 class SpooledSheet(SheetItem):
@@ -149,3 +163,8 @@ class RunSpool:
             sheets.append(slim)
         o.sheets = sheets
         o.spooled = spooled
+        if o.notebook is not None and not isinstance(o.notebook, SpooledNotebook):  # --notebooks: one per calc
+            import nbformat  # lazy: kernel runs only
+
+            text = nbformat.writes(o.notebook)
+            o.notebook = SpooledNotebook(self._put(text if text.endswith("\n") else text + "\n"))

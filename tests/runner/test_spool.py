@@ -116,3 +116,30 @@ def test_cli_run_with_many_rows_lists_only_what_is_not_ok(tiny_env: Path, tmp_pa
     assert "3 check rows: listed the calcs that are not OK (1 rows)" in out
     record = json.loads(next((tmp_path / "out").glob("rev-*/record.json")).read_text(encoding="utf-8"))
     assert [c["member"] for c in record["calcs"]] == ["M1", "M2", "M3"]  # the record keeps every calc
+
+
+def test_kernel_notebooks_wait_in_the_spool_as_their_file_text(tiny_env: Path, tmp_path: Path) -> None:
+    """A --notebooks run's executed notebooks go to the spool as they finish; the files written
+    are what nbformat.write writes for the notebooks held in memory."""
+    import nbformat
+
+    from calcpad.runner.outfolder import check_target, write_outputs
+    from calcpad.runner.spool import SpooledNotebook
+
+    job = _job()
+    held: list[Any] = []
+    with RunSpool() as spool:
+        def keep(o: CalcOutcome) -> None:
+            held.append(copy.deepcopy(o.notebook))
+            spool.keep(o)
+
+        outcomes = run_job(job, mode="kernel", progress=keep)
+        assert all(isinstance(o.notebook, SpooledNotebook) for o in outcomes)
+        rec = job_record(job, outcomes, "kernel", 0.0)
+        folder = write_outputs(check_target(tmp_path / "out", "0", []), rec, lambda d: None, outcomes=outcomes)
+    files = sorted((folder / "notebooks").iterdir())
+    assert len(files) == len(outcomes) == len(held)
+    for nb in held:
+        expected = tmp_path / "expected.ipynb"
+        nbformat.write(nb, str(expected))
+        assert expected.read_bytes() in [f.read_bytes() for f in files]
