@@ -53,6 +53,7 @@ Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.ou
 from __future__ import annotations
 
 import datetime as dt
+import functools
 import hashlib
 import json
 import math
@@ -283,13 +284,20 @@ def template_digest(path: Path) -> str:
         return "unreadable"
 
 
+@functools.lru_cache(maxsize=4096)
+def _input_record(kind: str | None, _type: type, value: str | float) -> dict[str, Any]:
+    """:func:`~calcpad.runner.job.input_record`, once per distinct input (a member table repeats its
+    shared inputs on every row); keyed by type too (``True == 1``). Callers copy the dict."""
+    return input_record(value, kind)
+
+
 def calc_record(o: CalcOutcome, template_sha: str) -> dict[str, Any]:
     """The record's entry for one calc (``template_sha``: :func:`template_digest` of its template)."""
     c = o.calc
     results, checks = calc_results_and_checks([s["record"] for s in o.sheets])
     params = c.template.parameters
     inputs = {
-        n: {"typed": _json_safe(c.typed.get(n)), **input_record(v, params[n].kind if n in params else None)}
+        n: {"typed": _json_safe(c.typed.get(n)), **_input_record(params[n].kind if n in params else None, type(v), v)}
         for n, v in c.inputs.items()
     }
     return {
