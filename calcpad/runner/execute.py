@@ -262,6 +262,22 @@ def _close_widgets(before: set[str]) -> None:
             widget.close()
 
 
+def _live_views() -> set[int]:
+    """Keys of the sheets :func:`calcpad.widgets.live.show` keeps for refreshing (empty when it was never imported)."""
+    mod = sys.modules.get("calcpad.widgets.live")
+    return set(getattr(mod, "_LIVE", {})) if mod is not None else set()
+
+
+def _forget_live_views(before: set[int]) -> None:
+    """Drop the sheets a calc showed from the live-view registry: a notebook keeps them to redraw
+    in place, a run (in a kernel) would keep every calc's sheet and displayed outputs to the end."""
+    mod = sys.modules.get("calcpad.widgets.live")
+    live = getattr(mod, "_LIVE", None) if mod is not None else None
+    if live is not None:
+        for key in set(live) - before:
+            live.pop(key, None)
+
+
 def run_calc_inprocess(calc: Calc, text: bool = False, html: bool | str = True) -> CalcOutcome:
     """Run one calc in this process: the template's code cells after its parameters cell and
     before its what-if cell (:meth:`Template.body`; the panel is for the notebook reader).
@@ -273,7 +289,7 @@ def run_calc_inprocess(calc: Calc, text: bool = False, html: bool | str = True) 
     namespace.update(_values(calc))
     outcome = CalcOutcome(calc)
     sink = io.StringIO()
-    widgets = _widget_ids()
+    widgets, views = _widget_ids(), _live_views()
     try:
         with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink):
             for index, code in tpl.body():
@@ -290,6 +306,7 @@ def run_calc_inprocess(calc: Calc, text: bool = False, html: bool | str = True) 
     finally:
         _close_figures()
         _close_widgets(widgets)
+        _forget_live_views(views)
         namespace.clear()  # the calc's objects go now, not when a reference cycle is collected
     outcome.seconds = time.perf_counter() - start
     return outcome

@@ -156,7 +156,7 @@ def run(key: str, values: str, template: str, member: str, text: bool = False) -
     from IPython import get_ipython
     from IPython.display import display
 
-    from calcpad.runner.execute import _close_figures, _close_widgets, _widget_ids, collect_sheets
+    from calcpad.runner.execute import _close_figures, _close_widgets, _forget_live_views, _live_views, _widget_ids, collect_sheets
 
     shell = get_ipython()
     given = json.loads(values)
@@ -166,7 +166,7 @@ def run(key: str, values: str, template: str, member: str, text: bool = False) -
     executed: list[int] = []
     error: dict[str, Any] | None = None
     sheets: list[dict[str, Any]] = []
-    widgets = _widget_ids()
+    widgets, views = _widget_ids(), _live_views()
     try:
         with _capturing(shell, outputs):
             for cell in _TEMPLATES[key]:
@@ -195,6 +195,7 @@ def run(key: str, values: str, template: str, member: str, text: bool = False) -
     finally:
         _close_figures()
         _close_widgets(widgets)
+        _forget_live_views(views)  # show() keeps each sheet shown for refreshing: a run has none to do
         namespace.clear()  # the calc's objects go now
     display({SHEETS_MIME: {"sheets": sheets, "error": error, "outputs": {str(k): v for k, v in outputs.by_cell.items()},
                            "executed": executed}}, raw=True)

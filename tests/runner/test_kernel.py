@@ -99,3 +99,27 @@ def test_dead_or_hung_kernel_fails_only_its_calc(probe_env: Path) -> None:
     assert out[1].error is not None and "kernel died" in out[1].error["message"] and "restarted" in out[1].error["message"]
     assert out[3].error is not None and "did not finish within 20 s" in out[3].error["message"]
     assert out[2].sheets[0]["record"]["results"]["M"] == {"value": 2000.0, "unit": "lbf*in"}  # 200 lbf x 10 in
+
+
+def test_the_kernel_keeps_no_sheet_a_calc_showed() -> None:
+    """widgets.live.show() keeps each shown sheet (and its outputs) to redraw it in a notebook; in a
+    run's kernel every calc's sheet would stay to the end (the kernel grew ~230 KiB per calc)."""
+    from calcpad.runner.kernel_calc import SHEETS_MIME
+    from calcpad.runner.kernel_session import KernelSession
+    from calcpad.runner.template import find_template, load_template
+
+    tpl = load_template(find_template("leg_bending"))
+    job = parse_job(JOB_HEAD + "".join(
+        f'\n[[calcs]]\ntemplate = "leg_bending"\nmember = "L{i}"\n[calcs.inputs]\n'
+        + "".join(f"{n} = {p.default!r}\n" for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title", "calc_note"))
+        for i in range(3)).replace("'", '"'))
+    probe = ("import sys; from IPython.display import display; live = sys.modules.get('calcpad.widgets.live'); "
+             f"display({{{SHEETS_MIME!r}: {{'shown': live is not None, 'kept': len(getattr(live, '_LIVE', {{}}))}}}}, raw=True)")
+    session = KernelSession(300, "US")
+    try:
+        outcomes = [session.run(c) for c in job.calcs]
+        payload, failure = session._request(probe)
+    finally:
+        session.close()
+    assert all(o.error is None for o in outcomes) and failure is None
+    assert payload == {"shown": True, "kept": 0}  # the template showed its sheets; none is kept
