@@ -128,25 +128,43 @@ class _Stream(io.TextIOBase):
         return len(text)
 
 
+_PUBLISHER: list[Any] = []  # one display publisher for the kernel's life (see _publisher)
+
+
+def _publisher(shell: Any) -> Any:
+    """The kernel's capturing display publisher, made once: one made per calc (a class closing
+    over the calc's outputs) stayed alive with every output of the calc, ~70 KiB per calc."""
+    if not _PUBLISHER:
+        from IPython.core.displaypub import DisplayPublisher
+
+        class Publisher(DisplayPublisher):
+            outputs: _Outputs | None = None
+
+            def publish(self, data: Any, metadata: Any = None, source: Any = None, *, transient: Any = None, update: bool = False, **_: Any) -> None:
+                if self.outputs is not None:
+                    self.outputs.display(data, metadata, transient, update)
+
+            def clear_output(self, wait: bool = False) -> None:
+                if self.outputs is not None:
+                    self.outputs.clear()
+
+        _PUBLISHER.append(Publisher(shell=shell))
+    return _PUBLISHER[0]
+
+
 @contextlib.contextmanager
 def _capturing(shell: Any, outputs: _Outputs) -> Any:
     """Send this kernel's displays and streams to ``outputs`` for the duration."""
-    from IPython.core.displaypub import DisplayPublisher
-
-    class Publisher(DisplayPublisher):
-        def publish(self, data: Any, metadata: Any = None, source: Any = None, *, transient: Any = None, update: bool = False, **_: Any) -> None:
-            outputs.display(data, metadata, transient, update)
-
-        def clear_output(self, wait: bool = False) -> None:
-            outputs.clear()
-
+    publisher = _publisher(shell)
+    publisher.outputs = outputs
     saved = shell.display_pub
-    shell.display_pub = Publisher(shell=shell)
+    shell.display_pub = publisher
     try:
         with contextlib.redirect_stdout(_Stream(outputs, "stdout")), contextlib.redirect_stderr(_Stream(outputs, "stderr")):
             yield
     finally:
         shell.display_pub = saved
+        publisher.outputs = None  # the calc's outputs are not kept by the publisher
 
 
 def run(key: str, values: str, template: str, member: str, text: bool = False) -> None:
