@@ -188,34 +188,31 @@ KNOWN_MISSES: dict[str, str] = {
     "mc:MC8x8.5": "x_o 1.012 vs x̄ + e_o = 0.97 (+4.3 %); Ix 23 vs 23.3 (-1.3 %); Iy 0.7434 vs 0.624 (+19.1 %); Sx 5.751 vs 5.82 (-1.2 %); Sy 0.5316 vs 0.431 (+23.3 %); Zx 6.858 vs 6.95 (-1.3 %); Zy 0.9747 vs 0.875 (+11.4 %); ry 0.5485 vs 0.5 (+9.7 %); J 0.04728 vs 0.0587 (-19.5 %)",
     "mc:MC6x15.3": "x_o 2.265 vs x̄ + e_o = 2.21 (+2.5 %); Iy 5.258 vs 4.91 (+7.1 %); Sy 2.191 vs 2.01 (+9.0 %); Zy 4.042 vs 3.85 (+5.0 %); ry 1.087 vs 1.05 (+3.5 %); J 0.1914 vs 0.223 (-14.2 %)",
     "mc:MC6x7": "x_o 1.111 vs x̄ + e_o = 1.084 (+2.5 %); A 2.053 vs 2.09 (-1.8 %); Ix 11.21 vs 11.4 (-1.7 %); Iy 0.6632 vs 0.603 (+10.0 %); Sx 3.735 vs 3.81 (-2.0 %); Sy 0.4898 vs 0.439 (+11.6 %); Zx 4.405 vs 4.5 (-2.1 %); Zy 0.9042 vs 0.865 (+4.5 %); ry 0.5684 vs 0.537 (+5.9 %); J 0.03786 vs 0.0464 (-18.4 %); Cw 3.945 vs 4 (-1.4 %)",
-    "l:L12x12x1-3/8": "Iz 171.8 vs 165 (+4.1 %); rz 2.348 vs 2.3 (+2.1 %); J 18.92 vs 19.9 (-4.9 %)",
-    "l:L10x10x1-1/4": "Ix 216.4 vs 213 (+1.6 %); Iy 216.4 vs 213 (+1.6 %); Sx 30.68 vs 30.2 (+1.6 %); Sy 30.68 vs 30.2 (+1.6 %); Iz 89.48 vs 85.4 (+4.8 %); rz 1.952 vs 1.91 (+2.2 %); J 11.74 vs 12.3 (-4.6 %)",
-    "l:L8x8x1-1/8": "J 6.752 vs 7.13 (-5.3 %)",
-    "l:L8x8x9/16": "J 0.8966 vs 0.961 (-6.7 %)",
-    "l:L8x6x5/8": "J 1.059 vs 1.12 (-5.4 %)",
-    "l:L8x4x7/8": "J 2.372 vs 2.51 (-5.5 %)",
-    "l:L8x4x7/16": "J 0.3157 vs 0.34 (-7.1 %)",
-    "l:L7x4x3/8": "Zy 2.893 vs 2.84 (+1.9 %); Iz 3.084 vs 3.04 (+1.4 %); J 0.183 vs 0.198 (-7.6 %)",
-    "l:L6x6x9/16": "J 0.6593 vs 0.704 (-6.3 %)",
-    "l:L6x4x7/8": "J 1.925 vs 2.03 (-5.2 %)",
-    "l:L6x4x7/16": "Zy 3.295 vs 3.24 (+1.7 %); Iz 3.187 vs 3.14 (+1.5 %); J 0.2599 vs 0.276 (-5.8 %)",
-    "l:L6x3-1/2x5/16": "Zy 1.845 vs 1.82 (+1.3 %); J 0.09163 vs 0.099 (-7.4 %)",
-    "l:L5x5x7/16": "J 0.2599 vs 0.284 (-8.5 %)",
-    "l:L5x3-1/2x1/2": "J 0.3213 vs 0.343 (-6.3 %)",
-    "l:L5x3x7/16": "Zy 1.853 vs 1.82 (+1.8 %); Iz 1.397 vs 1.37 (+1.9 %); J 0.2041 vs 0.22 (-7.2 %)",
-    "l:L4x4x5/8": "J 0.5709 vs 0.61 (-6.4 %)",
-    "l:L4x4x1/4": "Zx 1.88 vs 1.82 (+3.3 %); Zy 1.88 vs 1.82 (+3.3 %); Iz 1.226 vs 1.19 (+3.0 %); rz 0.7951 vs 0.783 (+1.5 %); J 0.03961 vs 0.0438 (-9.6 %)",
-    "l:L4x3x5/8": "J 0.4895 vs 0.529 (-7.5 %)",
-    "l:L3-1/2x3-1/2x1/2": "J 0.2588 vs 0.281 (-7.9 %)",
-    "l:L3-1/2x3x1/2": "J 0.238 vs 0.26 (-8.5 %)",
-    "l:L3-1/2x2-1/2x1/2": "J 0.2172 vs 0.234 (-7.2 %)",
-    "l:L3x3x7/16": "Iz 0.8301 vs 0.817 (+1.6 %); J 0.1482 vs 0.157 (-5.6 %)",
-    "l:L3x2-1/2x1/2": "Iz 0.6724 vs 0.665 (+1.1 %); J 0.1963 vs 0.213 (-7.8 %)",
-    "l:L3x2-1/2x3/16": "Iy 0.5761 vs 0.568 (+1.4 %); Sx 0.4285 vs 0.423 (+1.3 %); Sy 0.3091 vs 0.303 (+2.0 %); Zx 0.7799 vs 0.761 (+2.5 %); Zy 0.5517 vs 0.536 (+2.9 %); Iz 0.2816 vs 0.271 (+3.9 %); rz 0.5314 vs 0.521 (+2.0 %); J 0.01144 vs 0.013 (-12.0 %)",
-    "l:L3x2x3/16": "A 0.9033 vs 0.917 (-1.5 %); Zy 0.3558 vs 0.351 (+1.4 %); J 0.01034 vs 0.0119 (-13.1 %)",
-    "l:L2-1/2x2-1/2x3/16": "Ix 0.5453 vs 0.535 (+1.9 %); Iy 0.5453 vs 0.535 (+1.9 %); Sx 0.3017 vs 0.295 (+2.3 %); Sy 0.3017 vs 0.295 (+2.3 %); Zx 0.5441 vs 0.529 (+2.9 %); Zy 0.5441 vs 0.529 (+2.9 %); Iz 0.2211 vs 0.209 (+5.8 %); rz 0.4948 vs 0.482 (+2.6 %); J 0.01034 vs 0.0114 (-9.3 %)",
-    "l:L2-1/2x1-1/2x1/4": "J 0.01878 vs 0.0209 (-10.1 %)",
-    "l:L2x2x3/16": "Zx 0.3422 vs 0.338 (+1.2 %); Zy 0.3422 vs 0.338 (+1.2 %); Iz 0.1108 vs 0.109 (+1.7 %); rz 0.3935 vs 0.389 (+1.2 %); J 0.00814 vs 0.00921 (-11.6 %)",
+    "l:L12x12x1-3/8": "Iz 171.8 vs 165 (+4.1 %); rz 2.348 vs 2.3 (+2.1 %)",
+    "l:L10x10x1-1/4": "Ix 216.4 vs 213 (+1.6 %); Iy 216.4 vs 213 (+1.6 %); Sx 30.68 vs 30.2 (+1.6 %); Sy 30.68 vs 30.2 (+1.6 %); Iz 89.48 vs 85.4 (+4.8 %); rz 1.952 vs 1.91 (+2.2 %)",
+    "l:L8x8x9/16": "J 0.9171 vs 0.961 (-4.6 %)",
+    "l:L8x6x5/8": "J 1.09 vs 1.12 (-2.6 %)",
+    "l:L8x4x7/16": "J 0.3232 vs 0.34 (-4.9 %)",
+    "l:L7x4x3/8": "Zy 2.893 vs 2.84 (+1.9 %); Iz 3.084 vs 3.04 (+1.4 %); J 0.187 vs 0.198 (-5.5 %)",
+    "l:L6x6x9/16": "J 0.6798 vs 0.704 (-3.4 %)",
+    "l:L6x4x7/16": "Zy 3.295 vs 3.24 (+1.7 %); Iz 3.187 vs 3.14 (+1.5 %); J 0.2674 vs 0.276 (-3.1 %)",
+    "l:L6x3-1/2x5/16": "Zy 1.845 vs 1.82 (+1.3 %); J 0.09358 vs 0.099 (-5.5 %)",
+    "l:L5x5x7/16": "J 0.2674 vs 0.284 (-5.8 %)",
+    "l:L5x3-1/2x1/2": "J 0.3341 vs 0.343 (-2.6 %)",
+    "l:L5x3x7/16": "Zy 1.853 vs 1.82 (+1.8 %); Iz 1.397 vs 1.37 (+1.9 %); J 0.2116 vs 0.22 (-3.8 %)",
+    "l:L4x4x5/8": "J 0.6021 vs 0.61 (-1.3 %)",
+    "l:L4x4x1/4": "Zx 1.88 vs 1.82 (+3.3 %); Zy 1.88 vs 1.82 (+3.3 %); Iz 1.226 vs 1.19 (+3.0 %); rz 0.7951 vs 0.783 (+1.5 %); J 0.04041 vs 0.0438 (-7.7 %)",
+    "l:L4x3x5/8": "J 0.5208 vs 0.529 (-1.6 %)",
+    "l:L3-1/2x3-1/2x1/2": "J 0.2716 vs 0.281 (-3.3 %)",
+    "l:L3-1/2x3x1/2": "J 0.2508 vs 0.26 (-3.5 %)",
+    "l:L3-1/2x2-1/2x1/2": "J 0.23 vs 0.234 (-1.7 %)",
+    "l:L3x3x7/16": "Iz 0.8301 vs 0.817 (+1.6 %)",
+    "l:L3x2-1/2x1/2": "Iz 0.6724 vs 0.665 (+1.1 %); J 0.2091 vs 0.213 (-1.8 %)",
+    "l:L3x2-1/2x3/16": "Iy 0.5761 vs 0.568 (+1.4 %); Sx 0.4285 vs 0.423 (+1.3 %); Sy 0.3091 vs 0.303 (+2.0 %); Zx 0.7799 vs 0.761 (+2.5 %); Zy 0.5517 vs 0.536 (+2.9 %); Iz 0.2816 vs 0.271 (+3.9 %); rz 0.5314 vs 0.521 (+2.0 %); J 0.01169 vs 0.013 (-10.1 %)",
+    "l:L3x2x3/16": "A 0.9033 vs 0.917 (-1.5 %); Zy 0.3558 vs 0.351 (+1.4 %); J 0.01059 vs 0.0119 (-11.0 %)",
+    "l:L2-1/2x2-1/2x3/16": "Ix 0.5453 vs 0.535 (+1.9 %); Iy 0.5453 vs 0.535 (+1.9 %); Sx 0.3017 vs 0.295 (+2.3 %); Sy 0.3017 vs 0.295 (+2.3 %); Zx 0.5441 vs 0.529 (+2.9 %); Zy 0.5441 vs 0.529 (+2.9 %); Iz 0.2211 vs 0.209 (+5.8 %); rz 0.4948 vs 0.482 (+2.6 %); J 0.01059 vs 0.0114 (-7.1 %)",
+    "l:L2-1/2x1-1/2x1/4": "J 0.01958 vs 0.0209 (-6.3 %)",
+    "l:L2x2x3/16": "Zx 0.3422 vs 0.338 (+1.2 %); Zy 0.3422 vs 0.338 (+1.2 %); Iz 0.1108 vs 0.109 (+1.7 %); rz 0.3935 vs 0.389 (+1.2 %); J 0.008393 vs 0.00921 (-8.9 %)",
     "2l:2L12x12x1-3/8": "Ix 834.9 vs 826 (+1.1 %)",
     "2l:2L10x10x7/8x3/4": "Ix 319.8 vs 316 (+1.2 %); Sx 44.51 vs 43.8 (+1.6 %)",
     "2l:2L6x6x5/16": "Zx 10.68 vs 10.5 (+1.7 %)",
@@ -266,3 +263,49 @@ def test_a_check_sheet_says_how_close_a_computed_section_is():
     computed = notes(RolledAngle(4, 4, 0.25))
     assert len(computed) == 1 and "above the table (unconservative)" in computed[0]
     assert notes(get_section("L4x4x1/4")) == []  # the catalog row carries the published values
+
+
+# --------------------------------------------------------------------------- angles: every row
+
+#: Spread of the default-radius angle model over all 137 rows of the v16.0 angle table (measured
+#: on this branch, fraction of the table value, low and high). ``RolledAngle.table_agreement`` states it.
+ANGLE_SPREAD = {"A": (-0.016, 0.006), "Ix": (-0.009, 0.020), "Iy": (-0.009, 0.020), "Sx": (-0.007, 0.023),
+                "Sy": (-0.011, 0.023), "Zx": (-0.009, 0.033), "Zy": (-0.007, 0.033), "rx": (-0.006, 0.009),
+                "ry": (-0.008, 0.010), "Iz": (-0.012, 0.058), "rz": (-0.006, 0.027), "J": (-0.138, 0.008)}
+
+
+def test_every_angle_row_within_the_stated_spread():
+    rows = _rows("l")
+    assert len(rows) == 137
+    out = []
+    for r in rows:
+        p = _model("l", r).props
+        for col, (low, high) in ANGLE_SPREAD.items():
+            dev = float(getattr(p, OURS.get(col, col))) / float(r[col]) - 1.0
+            if not low <= dev <= high:
+                out.append(f"{r['designation']} {col} {dev * 100:+.2f} %")
+    assert not out
+    assert "5.8 %" in RolledAngle.table_agreement and "14 %" in RolledAngle.table_agreement
+
+
+#: Angle series whose tabulated J (v16.0) follows a root fillet other than k_des - t: one radius
+#: for every thickness of the series (the rolls' radius; read off the table's J by solving our
+#: closed form for r, one value per series, not per row). Every other row follows r = k_des - t.
+ANGLE_SERIES_FILLET = {"L3x3x": 1 / 4, "L3x2-1/2x": 5 / 16, "L3-1/2x2-1/2x": 5 / 16, "L5x3x": 3 / 8,
+                       "L5x3-1/2x": 3 / 8, "L6x4x": 3 / 8, "L6x3-1/2x": 3 / 8}
+ANGLE_J_MISSES = {"L10x10x3/4": "J 2.834 vs 2.8 (+1.2 %) with r1 = k_des - t"}
+
+
+def _angle_j_params() -> list:
+    return [pytest.param(r, id=r["designation"], marks=[pytest.mark.xfail(strict=True, reason=ANGLE_J_MISSES[r["designation"]])]
+                         if r["designation"] in ANGLE_J_MISSES else []) for r in _rows("l")]
+
+
+@pytest.mark.parametrize("row", _angle_j_params())
+def test_angle_j_closed_form_with_the_mill_fillet_matches_the_table(row):
+    # the El Darwish and Johnston L-junction J (rolled.angle_junction), given the fillet the table
+    # was computed with, reproduces the published J: the closed form, not the outline, is checked here
+    d, b, t = _angle_dims(row["designation"])
+    r1 = next((r for s, r in ANGLE_SERIES_FILLET.items() if row["designation"].startswith(s)), float(row["k_des"]) - t)
+    j = RolledAngle(d, b, t, r1, 0.0).props.J
+    assert _close(j, float(row["J"])), f"J {j:.4g} vs {row['J']}"

@@ -71,7 +71,7 @@ def _s_section():
                                            alpha=math.degrees(math.atan(2 / 12)), n_r=32)
 
 #: Our J / the oracle's J, as measured on this branch (low and high end of each family's band).
-J_BANDS = {"angle_unequal": (0.94, 0.98), "angle_equal_thin": (0.92, 0.96), "channel_sloped": (0.95, 0.99), "w_fillet": (0.99, 1.01), "s_sloped": (0.72, 0.77), "st_sloped": (0.72, 0.77)}
+J_BANDS = {"angle_unequal": (0.995, 1.01), "angle_equal_thin": (1.005, 1.02), "channel_sloped": (0.95, 0.99), "w_fillet": (0.99, 1.01), "s_sloped": (0.72, 0.77), "st_sloped": (0.72, 0.77)}
 
 
 @pytest.fixture(scope="module")
@@ -113,6 +113,17 @@ def test_sloped_flange_j_with_junctions_matches_the_finite_element_j(key, oracle
     # junction terms (J_upper) is the torsion constant of the outline (measured ratio 1.002)
     shape, _ = ORACLE_CASES[key]
     assert shape.J_upper / oracle[key].get_j() == pytest.approx(1.0, abs=0.01)
+
+
+@pytest.mark.parametrize(("r_over_t", "rel"), [(0.0, 0.01), (0.5, 0.005), (1.0, 0.005), (2.0, 0.005)])
+def test_angle_j_matches_the_finite_element_j_over_the_fillet_range(r_over_t, rel):
+    # sectionproperties' warping analysis of the same outline (sharp toes) as the oracle; the
+    # AISC angles span r1/t = 0.3 to 2 (r1 = k_des - t), where ours is within 0.2 % (measured on
+    # this branch); with no fillet at all it is 0.6 % low.
+    d, b, t = 4.0, 3.0, 0.3125
+    ours = RolledAngle(d, b, t, r_over_t * t, 0.0).props.J
+    sec = _analyse(sp_lib.angle_section(d=d, b=b, t=t, r_r=r_over_t * t, r_t=0.0, n_r=32))
+    assert ours == pytest.approx(sec.get_j(), rel=rel)
 
 
 def test_rectangle_j_against_the_thick_plate_series():

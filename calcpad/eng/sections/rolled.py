@@ -30,7 +30,8 @@ from calcpad.eng.sections._polygons import N_QUARTER, Region, plastic_modulus, r
 from calcpad.eng.sections.props import SectionProps, length_in
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, Tee
 
-__all__ = ["ARC_SEGMENTS", "RolledAngle", "RolledChannel", "RolledIShape", "RolledTee", "rectangle_j", "tee_junction"]
+__all__ = ["ARC_SEGMENTS", "RolledAngle", "RolledChannel", "RolledIShape", "RolledTee", "angle_junction", "rectangle_j",
+           "tee_junction"]
 
 #: Segments per quarter circle of the outline the properties are integrated over.
 ARC_SEGMENTS = 64
@@ -40,6 +41,23 @@ def rectangle_j(b: float, t: float) -> float:
     """Torsional constant of a b x t rectangle (b >= t), b t³ (1/3 - 0.21 (t/b)(1 - t⁴/(12 b⁴)))."""
     b, t = max(b, t), min(b, t)
     return b * t**3 * (1.0 / 3.0 - 0.21 * (t / b) * (1.0 - t**4 / (12.0 * b**4)))
+
+
+def _stem_j(b: float, t: float) -> float:
+    """Torsional constant of a b x t leg with one free end (the other runs into a junction),
+    b t³ (1/3 - 0.105 (t/b)(1 - t⁴/(192 b⁴))) (El Darwish and Johnston; AISC Design Guide 9)."""
+    return b * t**3 * (1.0 / 3.0 - 0.105 * (t / b) * (1.0 - t**4 / (192.0 * b**4)))
+
+
+def angle_junction(t1: float, t2: float, r: float) -> tuple[float, float]:
+    """(alpha, D) of the heel (L) junction of two legs t1 <= t2 with root fillet radius ``r``:
+    El Darwish and Johnston (1965) as AISC Design Guide 9 (1997) gives them (from memory):
+    alpha = -0.0908 + 0.2621 t1/t2 + 0.1231 r/t2 - 0.0752 t1 r/t2² - 0.0945 (t1/t2)²,
+    D = 2 ((3 r + t1 + t2) - sqrt(2 (2 r + t1)(2 r + t2))); the junction adds alpha D⁴ to J."""
+    t1, t2 = min(t1, t2), max(t1, t2)
+    alpha = -0.0908 + 0.2621 * t1 / t2 + 0.1231 * r / t2 - 0.0752 * t1 * r / t2**2 - 0.0945 * (t1 / t2) ** 2
+    dia = 2.0 * ((3.0 * r + t1 + t2) - math.sqrt(2.0 * (2.0 * r + t1) * (2.0 * r + t2)))
+    return alpha, dia
 
 
 def _round_corners(pts: list[tuple[float, float]], radii: list[float], n_quarter: int) -> np.ndarray:
@@ -114,15 +132,19 @@ class RolledAngle(_OutlineProps, Angle):
     Legs and frame as :class:`~calcpad.eng.sections.shapes.Angle` (long leg ``d`` up the y
     axis). Without radii, ``r1 = t/2`` and ``r2 = t/4`` (our default: among the simple rules we
     scanned it brought the most AISC Shapes Database angles within 1 % on A, I, S, Z, r and the
-    centroid, 73 of 127; no single rule reaches all of them, light angles differ most, see
-    ``tests/eng/test_sections_rolled.py``); give the mill's radii where known.
+    centroid; no rule reaches all of them: the v16.0 values of light angles fit no outline of
+    legs, root fillet and toe radii, see DEVELOPERS.md); give the mill's radii where known.
+    J is the El Darwish and Johnston closed form with the heel junction (:func:`angle_junction`)
+    for ``r1`` (within 0.2 % of a finite-element J of the same outline without toe radii; the
+    toe radii lower it by 0.03 % at ``r2 = t/4``, 1.4 % at ``r2 = t``, neglected).
     """
 
     kind = "angle"
     #: How the computed properties compare with the published tables (printed on check sheets).
-    table_agreement = ("computed rolled-angle properties: against the AISC Shapes Database v16.0, light angles' Z up "
-                       "to 3.3 % and I_z up to 5.8 % above the table (unconservative), J 4 % to 16 % below; give the "
-                       "mill's values where they govern")
+    table_agreement = ("computed rolled-angle properties (default radii): against the 137 angles of the AISC Shapes "
+                       "Database v16.0, Z up to 3.3 %, I_z up to 5.8 % and I, S up to 2.3 % above the table "
+                       "(unconservative) on light angles, A within 1.6 %, J 14 % below to 1 % above (the table's root "
+                       "fillet is larger than t/2 on thin angles); give the mill's values where they govern")
 
     def __init__(self, d: object, b: object, t: object, r1: object = None, r2: object = None, *, name: str | None = None,
                  **kw: object) -> None:
@@ -158,17 +180,16 @@ class RolledAngle(_OutlineProps, Angle):
     def _props(self) -> SectionProps:
         b, d, t, r1 = self.b, self.d, self.t, self.r1
         zx, zy = self._outline_z()
-        # L-junction of equal thicknesses (El Darwish & Johnston; AISC Design Guide 9, from memory)
-        dia = 2.0 * ((3.0 * r1 + 2.0 * t) - math.sqrt(2.0 * (2.0 * r1 + t) ** 2))
-        J = rectangle_j(b, t) + rectangle_j(d - t, t) + 0.07 * dia**4
+        alpha, dia = angle_junction(t, t, r1)
+        J = rectangle_j(b, t) + _stem_j(d - t, t) + alpha * dia**4
         return self._base_props(
             Zx=zx,
             Zy=zy,
             J=J,
             ratios={"b/t": b / t, "d/t": d / t},
             notes=[f"rolled outline: root fillet r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
-                   "J: rectangles b*t**3*(1/3 - 0.21*(t/b)*(1 - t**4/(12*b**4))) plus 0.07*D**4 for the heel "
-                   "(El Darwish and Johnston)",
+                   "J: leg b*t**3*(1/3 - 0.21*(t/b)*(1 - t**4/(12*b**4))), leg (d - t)*t**3*(1/3 - 0.105*t/(d - t)), "
+                   "plus alpha*D**4 for the heel junction with r1 (El Darwish and Johnston; toe radii neglected)",
                    "principal axes: I_max, I_min (= I_z), r_min (= r_z), theta_p"],
         )
 
