@@ -27,6 +27,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.eng.sections._moments import Moments
 from calcpad.eng.sections._polygons import N_QUARTER, Region, plastic_modulus, ring_moments
+from calcpad.eng.sections.angle_series import series_radii
 from calcpad.eng.sections.props import SectionProps, length_in
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, Tee
 
@@ -130,27 +131,49 @@ class RolledAngle(_OutlineProps, Angle):
     """Rolled angle with a root fillet ``r1`` at the inside corner and toe radii ``r2``.
 
     Legs and frame as :class:`~calcpad.eng.sections.shapes.Angle` (long leg ``d`` up the y
-    axis). Without radii, ``r1 = t/2`` and ``r2 = t/4`` (our default: among the simple rules we
-    scanned it brought the most AISC Shapes Database angles within 1 % on A, I, S, Z, r and the
-    centroid; no rule reaches all of them: the v16.0 values of light angles fit no outline of
-    legs, root fillet and toe radii, see DEVELOPERS.md); give the mill's radii where known.
+    axis). Without radii, legs of an AISC series take the series' radii
+    (:func:`~calcpad.eng.sections.angle_series.series_radii`, inferred from the v16.0 table);
+    other legs ``r1 = t/2`` and ``r2 = t/4`` (among the simple rules of t we scanned, the one that
+    brought the most AISC angles within 1 %; none reaches all of them, see DEVELOPERS.md). Give
+    the mill's radii where known. ``radii_source`` says which applied.
     J is the El Darwish and Johnston closed form with the heel junction (:func:`angle_junction`)
-    for ``r1`` (within 0.2 % of a finite-element J of the same outline without toe radii; the
-    toe radii lower it by 0.03 % at ``r2 = t/4``, 1.4 % at ``r2 = t``, neglected).
+    for the root fillet ``r_j`` (within 0.2 % of a finite-element J of the outline for r/t 0.5 to
+    2, without toe radii; the toe radii lower it by 0.03 % at ``r2 = t/4``, 1.4 % at ``r2 = t``,
+    neglected). ``r_j`` is ``r1`` but for the series radii: the v16.0 table computes J with a
+    larger root fillet than A, I, S and Z, and the series radii reproduce both.
     """
 
     kind = "angle"
     #: How the computed properties compare with the published tables (printed on check sheets).
-    table_agreement = ("computed rolled-angle properties (default radii): against the 137 angles of the AISC Shapes "
-                       "Database v16.0, Z up to 3.3 %, I_z up to 5.8 % and I, S up to 2.3 % above the table "
-                       "(unconservative) on light angles, A within 1.6 %, J 14 % below to 1 % above (the table's root "
-                       "fillet is larger than t/2 on thin angles); give the mill's values where they govern")
+    table_agreement = ("computed rolled-angle properties (default radii r1 = t/2, r2 = t/4; legs of no AISC series): "
+                       "the rule measured on the 137 angles of the AISC Shapes Database v16.0 gives Z up to 3.3 %, "
+                       "I_z up to 5.8 % and I, S up to 2.3 % above the table (unconservative) on light angles, A "
+                       "within 1.6 %, J 14 % below to 1 % above; give the mill's radii where they govern")
+    #: The same for legs of an AISC series (radii of :mod:`~calcpad.eng.sections.angle_series`).
+    series_agreement = ("computed rolled-angle properties (radii of the AISC series with these legs, inferred from "
+                        "the AISC Shapes Database v16.0): 120 of its 137 angles within 1 % on every property; I_z up "
+                        "to 2.6 % and Z up to 1.6 % above the table (unconservative) on 13 of them, mostly the thinnest "
+                        "of a series, I and S down to 2.6 % below, J -1.1 % to +1.2 %; give the mill's radii where "
+                        "they govern")
 
     def __init__(self, d: object, b: object, t: object, r1: object = None, r2: object = None, *, name: str | None = None,
                  **kw: object) -> None:
         super().__init__(d, b, t, name=name, **kw)  # type: ignore[arg-type]
-        self.r1 = self.t / 2.0 if r1 is None else length_in(r1, "r1 (root fillet radius)", allow_zero=True)
-        self.r2 = self.t / 4.0 if r2 is None else length_in(r2, "r2 (toe radius)", allow_zero=True)
+        series = series_radii(self.d, self.b) if r1 is None and r2 is None else None
+        if series is not None:  # a toe radius at most t (the series' thinnest rows fit r2 close to t)
+            series = (series[0], min(series[1], self.t), series[2])
+            if self.t + max(series[0] + series[1], series[2]) > min(self.d, self.b):
+                series = None  # thicker than the series' rolls allow: the plain rule
+        #: Where the radii come from: "given", "series" (:mod:`~calcpad.eng.sections.angle_series`) or "rule".
+        self.radii_source = "series" if series else "rule" if r1 is None and r2 is None else "given"
+        if series:
+            self.r1, self.r2, self.r_j = series
+            self.table_agreement = self.series_agreement
+        else:
+            self.r1 = self.t / 2.0 if r1 is None else length_in(r1, "r1 (root fillet radius)", allow_zero=True)
+            self.r2 = self.t / 4.0 if r2 is None else length_in(r2, "r2 (toe radius)", allow_zero=True)
+            #: Root fillet J is computed with: r1, but the table's own for an AISC series (see angle_series).
+            self.r_j = self.r1
         if self.r2 > self.t:
             raise InputError(f"r2 (toe radius): {self.r2:g} in; expected at most the thickness t = {self.t:g} in")
         for leg, name_ in ((self.d, "d"), (self.b, "b")):
@@ -180,7 +203,7 @@ class RolledAngle(_OutlineProps, Angle):
     def _props(self) -> SectionProps:
         b, d, t, r1 = self.b, self.d, self.t, self.r1
         zx, zy = self._outline_z()
-        alpha, dia = angle_junction(t, t, r1)
+        alpha, dia = angle_junction(t, t, self.r_j)
         J = rectangle_j(b, t) + _stem_j(d - t, t) + alpha * dia**4
         return self._base_props(
             Zx=zx,
@@ -188,8 +211,12 @@ class RolledAngle(_OutlineProps, Angle):
             J=J,
             ratios={"b/t": b / t, "d/t": d / t},
             notes=[f"rolled outline: root fillet r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
+                   {"series": f"radii of the AISC angle series with these legs as the v16.0 table computes it (J with a "
+                              f"root fillet of {self.r_j:g} in)",
+                    "rule": "radii by the default rule r1 = t/2, r2 = t/4 (no AISC angle series radii for these legs)",
+                    "given": "radii as given"}[self.radii_source],
                    "J: leg b*t**3*(1/3 - 0.21*(t/b)*(1 - t**4/(12*b**4))), leg (d - t)*t**3*(1/3 - 0.105*t/(d - t)), "
-                   "plus alpha*D**4 for the heel junction with r1 (El Darwish and Johnston; toe radii neglected)",
+                   "plus alpha*D**4 for the heel junction (El Darwish and Johnston; toe radii neglected)",
                    "principal axes: I_max, I_min (= I_z), r_min (= r_z), theta_p"],
         )
 
