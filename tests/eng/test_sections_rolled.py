@@ -256,3 +256,21 @@ def test_a_rolled_angle_in_a_built_up_section():
     angle = RolledAngle(3.0, 3.0, 0.25)
     bu = BuiltUp("leg + rolled angle").add(tube, label="leg").add(angle, at=(3.25, 3.25), rotate=180, label="angle")
     assert bu.props.A == pytest.approx(tube.props.A + angle.props.A, rel=1e-12)
+
+
+def test_angle_radii_come_from_the_series_the_rule_or_the_caller():
+    from calcpad.eng.sections.angle_series import SERIES_RADII, series_radii
+
+    assert len(SERIES_RADII) == 25 and series_radii(3.0, 4.0) == series_radii(4.0, 3.0) is not None
+    assert series_radii(5.0, 2.0) is None
+    l4 = RolledAngle(4.0, 4.0, 0.25)
+    assert l4.radii_source == "series" and (l4.r1, l4.r2, l4.r_j) == SERIES_RADII[(4.0, 4.0)]
+    assert l4.table_agreement == RolledAngle.series_agreement
+    thin = RolledAngle(4.0, 4.0, 0.1875)  # thinner than the series' toe radius: r2 = t
+    assert thin.radii_source == "series" and thin.r2 == pytest.approx(0.1875)
+    other = RolledAngle(5.0, 2.0, 0.25)
+    assert other.radii_source == "rule" and (other.r1, other.r2, other.r_j) == (0.125, 0.0625, 0.125)
+    assert other.table_agreement == RolledAngle.table_agreement
+    given = RolledAngle(4.0, 4.0, 0.25, 0.3, 0.1)
+    assert given.radii_source == "given" and given.r_j == 0.3
+    assert any("AISC angle series" in n for n in l4.props.notes)
