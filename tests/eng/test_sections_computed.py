@@ -309,3 +309,19 @@ def test_angle_j_closed_form_with_the_mill_fillet_matches_the_table(row):
     r1 = next((r for s, r in ANGLE_SERIES_FILLET.items() if row["designation"].startswith(s)), float(row["k_des"]) - t)
     j = RolledAngle(d, b, t, r1, 0.0).props.J
     assert _close(j, float(row["J"])), f"J {j:.4g} vs {row['J']}"
+
+
+@pytest.mark.parametrize("key", [k for k in KNOWN_MISSES if k.startswith("l:")])
+def test_the_angle_misses_fit_no_outline_of_legs_fillet_and_toe_radii(key):
+    # the sampled angles still outside 1 % are a property of the table, not of our radii: no
+    # root fillet r1 (0 to 1.5 max(k_des - t, t)) and toe radius r2 (0 to t) on a 16 x 11 grid
+    # brings all of A, I, S, Z, r, I_z within 1 % (J left out: it follows its own fillet)
+    row = next(r for r in sample("l") if f"l:{r['designation']}" == key)
+    d, b, t = _angle_dims(row["designation"])
+    top = 1.5 * max(float(row["k_des"]) - t, t)
+    for r1 in [top * i / 15 for i in range(16)]:
+        for r2 in [t * j / 10 for j in range(11)]:
+            if t + r1 + r2 > min(d, b):
+                continue
+            p = RolledAngle(d, b, t, r1, r2).props
+            assert not all(_close(float(getattr(p, OURS.get(c, c))), float(row[c])) for c in PROPS["l"] if c != "J"), (r1, r2)
