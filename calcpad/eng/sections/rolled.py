@@ -27,6 +27,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.eng.sections._moments import Moments
 from calcpad.eng.sections._polygons import N_QUARTER, Region, plastic_modulus, ring_moments
+from calcpad.eng.sections._torsion import torsion_constant
 from calcpad.eng.sections.props import SectionProps, length_in
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, Tee
 
@@ -179,15 +180,16 @@ class RolledChannel(_OutlineProps, Channel):
     Dimensions and frame as :class:`~calcpad.eng.sections.shapes.Channel` (``tf`` at the middle
     of the outstand, ``slope`` 1/6 for C; MC slopes vary by series). Without radii, ``r1`` is
     half the flange thickness at the web face and ``r2`` three quarters of the flange thickness
-    at the toe (our default: the simple fractions that brought the most AISC Shapes Database C
-    rows within 1 %, 26 of 31, when we scanned them; see ``tests/eng/test_sections_rolled.py``);
-    give the mill's radii where known.
+    at the toe (near what the C series of the AISC Shapes Database v16.0 show, 0.46 to 0.69 and
+    0.68 to 0.94); give the mill's radii where known, or use
+    :func:`~calcpad.eng.sections.channel_series.series_channel` for a weight of a C or MC series.
+    J is the Saint-Venant constant of the outline itself (:mod:`._torsion`).
     """
 
     kind = "channel"
-    table_agreement = ("computed rolled-channel properties: against the AISC Shapes Database v16.0 (C, 1:6 slope), "
-                       "A, I_x, S_x, Z within about 1 %, I_y and S_y of 3 in channels up to 2 % above, J 16 % below "
-                       "to 1.7 % above")
+    table_agreement = ("computed rolled-channel properties: with the slope and radii measured for each C and MC series "
+                       "(channel_series) every row of the AISC Shapes Database v16.0 within 1 % on A, I, S, Z, r and "
+                       "J but a few Z_y 1.2 % to 1.6 % below and one J (C4x4.5) 1.6 % above; other radii move J most")
 
     def __init__(self, d: object, bf: object, tf: object, tw: object, *, slope: float = 0.0, r1: object = None,
                  r2: object = None, name: str | None = None, **kw: object) -> None:
@@ -222,25 +224,18 @@ class RolledChannel(_OutlineProps, Channel):
         return pieces
 
     def _props(self) -> SectionProps:
-        d, bf, tf, tw, r1 = self.d, self.bf, self.tf, self.tw, self.r1
+        bf, tf, tw, r1 = self.bf, self.tf, self.tw, self.r1
         zx, zy = self._outline_z()
-        t, t_toe = self.t_web, self.t_toe
-        out = bf - tw
-        # each flange: the thin-strip integral (1/3) ∫ t(x)³ dx over its tapered outstand, less
-        # 0.105 t⁴ at the free toe (half the 0.21 t⁴ end correction of a rectangle)
-        flange = (out * (t**4 - t_toe**4) / (4.0 * (t - t_toe)) if t > t_toe else out * tf**3) / 3.0 - 0.105 * t_toe**4
-        dia = 2.0 * ((3.0 * r1 + t + tw) - math.sqrt(2.0 * (2.0 * r1 + t) * (2.0 * r1 + tw)))
-        alpha = 0.07 * min(t, tw) / max(t, tw)
-        J = 2.0 * flange + (d - 2.0 * t) * tw**3 / 3.0 + 2.0 * alpha * dia**4
+        J = torsion_constant(self._outline(ARC_SEGMENTS), min(tw, self.t_toe))
         return self._base_props(
             Zx=zx,
             Zy=zy,
             J=J,
-            ratios={"b/t": bf / tf, "h/tw": (d - 2.0 * self.t_web) / tw},
+            ratios={"b/t": bf / tf, "h/tw": (self.d - 2.0 * self.t_web) / tw},
             notes=[f"rolled outline: flange slope {self.slope:g}, root fillets r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
                    "h taken as d - 2*(flange thickness at the web face)",
-                   "J: tapered flanges (1/3)*integral(t**3 dx) - 0.105*t_toe**4, web (d - 2 t_web) tw**3/3, plus "
-                   "0.07 (t_min/t_max) D**4 per web-flange junction (El Darwish and Johnston)"],
+                   "J: Saint-Venant torsion of the outline (Prandtl stress function by finite differences, two grids "
+                   "extrapolated)"],
         )
 
 
