@@ -170,6 +170,10 @@ KNOWN_MISSES: dict[str, str] = {
     "st:ST10x43": "Ix 126.2 vs 124 (+1.8 %)",
     "st:ST2x4.75": "Ix 0.4694 vs 0.462 (+1.6 %); Sx 0.3246 vs 0.319 (+1.7 %); Zx 0.5984 vs 0.592 (+1.1 %)",
     "st:ST1.5x2.85": "Ix 0.118 vs 0.114 (+3.5 %); Sx 0.1008 vs 0.097 (+3.9 %); Zx 0.2001 vs 0.196 (+2.1 %); Zy 0.3236 vs 0.328 (-1.3 %); rx 0.3763 vs 0.37 (+1.7 %)",
+    # C/MC: no profile of these series reaches 1 % on every weight: a minimax search over slope, r1
+    # and r2 (largest excess over the tolerance, all properties of all weights) leaves C3 1.05 %,
+    # C4 1.07 %, MC6 (x6.5, x7) 1.33 % and MC10x6.5 0.99 % (with I_y and J 1.3-1.4 % above the
+    # table there; we keep the profile whose miss is Z_y below the table, conservative).
     "c:C4x5.4": "Cw 0.9112 vs 0.921 (-1.1 %)",
     "c:C4x4.5": "J 0.0311 vs 0.0306 (+1.6 %)",
     "c:C3x4.1": "Zy 0.3939 vs 0.399 (-1.3 %)",
@@ -177,7 +181,6 @@ KNOWN_MISSES: dict[str, str] = {
     "mc:MC10x6.5": "Zy 0.2796 vs 0.284 (-1.6 %)",
     "mc:MC6x7": "Zy 0.853 vs 0.865 (-1.4 %)",
     "mc:MC6x6.5": "Zy 0.8225 vs 0.836 (-1.6 %)",
-    "mc:MC3x7.1": "Zy 0.9864 vs 0.998 (-1.2 %)",
     "l:L12x12x1-3/8": "Iz 171.8 vs 165 (+4.1 %); rz 2.348 vs 2.3 (+2.1 %); J 18.92 vs 19.9 (-4.9 %)",
     "l:L10x10x1-1/4": "Ix 216.4 vs 213 (+1.6 %); Iy 216.4 vs 213 (+1.6 %); Sx 30.68 vs 30.2 (+1.6 %); Sy 30.68 vs 30.2 (+1.6 %); Iz 89.48 vs 85.4 (+4.8 %); rz 1.952 vs 1.91 (+2.2 %); J 11.74 vs 12.3 (-4.6 %)",
     "l:L8x8x1-1/8": "J 6.752 vs 7.13 (-5.3 %)",
