@@ -246,6 +246,22 @@ def test_radii_that_do_not_fit_are_refused():
         RolledAngle(3.0, 3.0, 0.25, -0.1)
 
 
+def test_series_channel_recognises_a_weight_of_a_catalog_series():
+    from calcpad.eng.sections.channel_series import channel_series, series_channel
+
+    # a shop's own weight of the C6 series: same d, t_f and outstand b_f - t_w (1.723 in), other web
+    own = series_channel(6.0, 1.723 + 0.25, 0.343, 0.25, name="shop C6x9.2")
+    assert own.slope == pytest.approx(1 / 6) and own.name == "shop C6x9.2"
+    assert channel_series(6.0, 1.92, 0.343, 0.2).label == "C6"  # C6x8.2 of the table
+    assert channel_series(8.0, 1.87, 0.311, 0.179).label == "MC8x8.5"
+    assert channel_series(6.0, 2.5, 0.375, 0.31).label == "MC6x12"
+    assert channel_series(6.0, 2.5, 0.40, 0.31) is None  # another flange thickness: another rolling
+    with pytest.raises(InputError, match="no C or MC series"):
+        series_channel(7.5, 2.0, 0.4, 0.25)
+    with pytest.raises(InputError, match="tw"):
+        series_channel(6.0, 1.92, 0.343, "thin")
+
+
 @pytest.mark.parametrize("key", list(ORACLE_CASES))
 def test_convex_pieces_tile_the_rolled_outline(key):
     from calcpad.eng.sections._polygons import N_QUARTER, ring_moments
