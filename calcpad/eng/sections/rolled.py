@@ -13,6 +13,8 @@ gives exactly; it is taken from the approximations of El Darwish and Johnston (1
 rectangles plus a term for each fillet junction, as AISC Design Guide 9 (Torsional Analysis of
 Structural Steel Members, 1997, Appendix A) gives them (from memory; the tests compare the
 results with the AISC Shapes Database and with a finite-element solution by sectionproperties).
+Channels take the outline's own J instead (finite differences, :mod:`._torsion`): the
+L-junction form stayed 3-4 % off the finite-element J of the same outlines.
 
 Frames are those of the plain shapes: heel (angles) or back of web (channels) at the origin,
 lower-left corner of the bounding box at (0, 0).
