@@ -191,7 +191,7 @@ class RolledChannel(_OutlineProps, Channel):
     kind = "channel"
     table_agreement = ("computed rolled-channel properties: with the slope and radii measured for each C and MC series "
                        "(channel_series) every row of the AISC Shapes Database v16.0 within 1 % on A, I, S, Z, r and "
-                       "J but Z_y of 4 rows 1.3 % to 1.6 % below, J of C4x4.5 1.6 % above; other radii move J most")
+                       "J but 7 rows 1.1 % to 1.6 % below it (Z_y, C_w, J); other radii move J most")
 
     def __init__(self, d: object, bf: object, tf: object, tw: object, *, slope: float = 0.0, r1: object = None,
                  r2: object = None, name: str | None = None, **kw: object) -> None:
