@@ -60,6 +60,10 @@ ORACLE_CASES = {
                        lambda: sp_lib.tapered_flange_channel(d=6.0, b=1.92, t_f=0.343, t_w=0.2, r_r=0.2, r_f=0.1,
                                                              alpha=math.degrees(math.atan(1 / 6)), n_r=32)),
     "w_fillet": (RolledIShape(8.14, 5.25, 0.33, 0.23, 0.3), lambda: sp_lib.i_section(d=8.14, b=5.25, t_f=0.33, t_w=0.23, r=0.3, n_r=32)),
+    # M and HP with the fillet radius of their series (tests/eng/test_sections_computed.py, SERIES_FILLET)
+    "m_fillet": (RolledIShape(12.0, 3.07, 0.225, 0.177, 0.24), lambda: sp_lib.i_section(d=12.0, b=3.07, t_f=0.225, t_w=0.177, r=0.24, n_r=32)),
+    "m4_fillet": (RolledIShape(4.0, 2.25, 0.17, 0.115, 0.31), lambda: sp_lib.i_section(d=4.0, b=2.25, t_f=0.17, t_w=0.115, r=0.31, n_r=32)),
+    "hp_fillet": (RolledIShape(8.02, 8.16, 0.445, 0.445, 0.4), lambda: sp_lib.i_section(d=8.02, b=8.16, t_f=0.445, t_w=0.445, r=0.4, n_r=32)),
     "s_sloped": (SlopedIShape(10.0, 4.944, 0.491, 0.594, 0.5, 0.25), lambda: _s_section()),
     "st_sloped": (SlopedTee(5.0, 4.944, 0.491, 0.594, 0.5, 0.25), lambda: _s_section().split_section((0, 5), (1, 5))[0][0]),
 }
@@ -71,7 +75,8 @@ def _s_section():
                                            alpha=math.degrees(math.atan(2 / 12)), n_r=32)
 
 #: Our J / the oracle's J, as measured on this branch (low and high end of each family's band).
-J_BANDS = {"angle_unequal": (0.94, 0.98), "angle_equal_thin": (0.92, 0.96), "channel_sloped": (0.95, 0.99), "w_fillet": (0.99, 1.01), "s_sloped": (0.72, 0.77), "st_sloped": (0.72, 0.77)}
+J_BANDS = {"angle_unequal": (0.94, 0.98), "angle_equal_thin": (0.92, 0.96), "channel_sloped": (0.95, 0.99), "w_fillet": (0.99, 1.01),
+           "m_fillet": (0.99, 1.01), "m4_fillet": (1.02, 1.05), "hp_fillet": (0.99, 1.01), "s_sloped": (0.72, 0.77), "st_sloped": (0.72, 0.77)}
 
 
 @pytest.fixture(scope="module")
