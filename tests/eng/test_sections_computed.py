@@ -10,7 +10,8 @@ checks compute them for a computed section (``_warping``). Models:
 * W, M, HP: :class:`RolledIShape`, parallel flanges; fillet r = k_des - t_f for W, one measured
   radius per series for M and HP (``SERIES_FILLET``); J by El Darwish and Johnston with the
   T-junction alpha (:func:`~calcpad.eng.sections.rolled.tee_junction`).
-* WT, MT: :class:`RolledTee`, fillet r as the parent W, M; J likewise (one junction).
+* WT, MT: :class:`RolledTee`, fillet r as the parent W, M; J likewise (one junction). Tees of
+  all three families take the depth of their parent (``_tee_depth``) where it is the more precise.
 * S, ST: :class:`SlopedIShape`, :class:`SlopedTee`: 2:12 flange slope, r1 = k_des less the flange
   thickness at the web face, toe radius r1/2; J a lower bound (junctions neglected).
 * C: :class:`RolledChannel`, 1:6 flange slope, default radii; MC: parallel flanges, default radii.
@@ -86,8 +87,29 @@ def _series(designation: str) -> str:
     return f"M{float(depth) * 2:g}" if kind == "MT" else f"{kind}{float(depth):g}"
 
 
+def _third_figure(x: float) -> float:
+    return 0.5 * 10.0 ** (math.floor(math.log10(abs(x))) - 2)
+
+
+def _tee_depth(family: str, r: dict[str, str]) -> float:
+    """Depth of a WT, MT or ST: half its parent's depth when the tee's printed d is that half
+    rounded to three figures (WT12x47: W24x94 d = 24.3, half 12.15, printed 12.2; the table's I_x
+    is that of 12.15), else the tee's own d (WT9x65 prints 9.63, W18x130 19.3). The parent is the
+    row of the I-shape file with twice the weight and the same b_f, t_f, t_w."""
+    d = float(r["d"])
+    parent = [p for p in _rows({"wt": "w", "mt": "m", "st": "s"}[family])
+              if abs(float(p["weight"]) - 2.0 * float(r["weight"])) < 0.06
+              and all(p[k] == r[k] for k in ("bf", "tf", "tw"))]
+    if len(parent) != 1:
+        return d
+    half = float(parent[0]["d"]) / 2.0
+    return half if abs(half - d) <= _third_figure(d) + 1e-9 else d
+
+
 def _model(family: str, r: dict[str, str]):
     f = {k: float(v) for k, v in r.items() if k not in ("designation", "legs") and v.strip()}
+    if family in ("wt", "mt", "st"):
+        f["d"] = _tee_depth(family, r)
     if family in ("s", "st"):
         cls = SlopedIShape if family == "s" else SlopedTee
         t_web = cls(f["d"], f["bf"], f["tf"], f["tw"]).t_web
@@ -119,8 +141,7 @@ def _model(family: str, r: dict[str, str]):
 
 
 def _close(ours: float, printed: float) -> bool:
-    half_unit = 0.5 * 10.0 ** (math.floor(math.log10(abs(printed))) - 2)
-    return abs(ours - printed) <= half_unit + TOL * abs(printed)
+    return abs(ours - printed) <= _third_figure(printed) + TOL * abs(printed)
 
 
 def _warping(family: str, r: dict[str, str], p) -> dict[str, float]:
@@ -162,11 +183,8 @@ def sample(family: str) -> list[dict[str, str]]:
 
 #: Sample rows outside 1 % (measured on this branch; see DEVELOPERS.md, "Computed geometry").
 KNOWN_MISSES: dict[str, str] = {
-    "w:W18x130": "Iy 281.4 vs 278 (+1.2 %); Cw 2.305e+04 vs 22700 (+1.5 %)",
+    "w:W18x130": "Iy 281.4 vs 278 (+1.2 %); Cw 2.305e+04 vs 22700 (+1.5 %): the printed b_f = 11.2 is rounded; the table's I_y is that of b_f = 11.154 (11.15 gives 277.7, 11.2 gives 281.4), as are its own S_y (49.9 x 11.154/2 = 278.3) and C_w (I_y h_o^2/4)",
     "s:S3x5.7": "Zy 0.6471 vs 0.656 (-1.3 %)",
-    "wt:WT12x47": "Ix 188.4 vs 186 (+1.3 %)",
-    "st:ST12x60.5": "Ix 262.2 vs 259 (+1.3 %)",
-    "st:ST10x43": "Ix 126.2 vs 124 (+1.8 %)",
     "st:ST2x4.75": "Ix 0.4694 vs 0.462 (+1.6 %); Sx 0.3246 vs 0.319 (+1.7 %); Zx 0.5984 vs 0.592 (+1.1 %)",
     "st:ST1.5x2.85": "Ix 0.118 vs 0.114 (+3.5 %); Sx 0.1008 vs 0.097 (+3.9 %); Zx 0.2001 vs 0.196 (+2.1 %); Zy 0.3236 vs 0.328 (-1.3 %); rx 0.3763 vs 0.37 (+1.7 %)",
     "c:C15x50": "J 2.409 vs 2.65 (-9.1 %)",
@@ -228,8 +246,8 @@ KNOWN_MISSES: dict[str, str] = {
     "2l:2L5x3x3/8SLBB": "Zx 3.199 vs 3.14 (+1.9 %)",
     "2l:2L4x3x1/2x3/8SLBB": "Zx 4.041 vs 3.99 (+1.3 %)",
     "2l:2L3x2-1/2x1/4SLBB": "Sx 0.8049 vs 0.794 (+1.4 %); Zx 1.444 vs 1.41 (+2.4 %)",
-    "pipe:Pipe 1/2 Std": "Ix 0.01631 vs 0.016 (+1.9 %); J 0.03261 vs 0.032 (+1.9 %)",
-    "pipe:Pipe 18 XS": "A 25.62 vs 24.8 (+3.3 %); Ix 985.2 vs 956 (+3.1 %); Sx 109.5 vs 106 (+3.3 %); Zx 143 vs 139 (+2.9 %); J 1970 vs 1910 (+3.2 %)",
+    "pipe:Pipe 1/2 Std": "Ix 0.01631 vs 0.016 (+1.9 %); J 0.03261 vs 0.032 (+1.9 %): pi/64 (0.84^4 - 0.638^4) = 0.01631, as the table's own S_x (0.0388 x 0.42 = 0.0163) and r_x (0.234 x 0.264^2 = 0.0163) say; I_x is printed to three decimals (0.016) and J = 2 x 0.016 = 0.032 from that rounded value",
+    "pipe:Pipe 18 XS": "A 25.62 vs 24.8 (+3.3 %); Ix 985.2 vs 956 (+3.1 %); Sx 109.5 vs 106 (+3.3 %); Zx 143 vs 139 (+2.9 %); J 1970 vs 1910 (+3.2 %): the table's values are those of a 0.450 in wall, (OD - ID)/2 = (18 - 17.1)/2, not of its printed t_des = 0.465 (0.93 x 0.500): pi (18 - 0.45) 0.45 = 24.81, pi (18 - 0.465) 0.465 = 25.62; pi/64 (18^4 - 17.1^4) = 955.8 (XS 14 to 26 in alike)",
 }
 
 
@@ -267,3 +285,23 @@ def test_a_check_sheet_says_how_close_a_computed_section_is():
     computed = notes(RolledAngle(4, 4, 0.25))
     assert len(computed) == 1 and "above the table (unconservative)" in computed[0]
     assert notes(get_section("L4x4x1/4")) == []  # the catalog row carries the published values
+
+
+def test_a_tee_takes_the_more_precise_depth_of_itself_or_its_parent():
+    rows = {r["designation"]: r for fam in ("wt", "st") for r in _rows(fam)}
+    assert _tee_depth("wt", rows["WT12x47"]) == pytest.approx(24.3 / 2)  # printed 12.2
+    assert _tee_depth("st", rows["ST10x43"]) == pytest.approx(20.3 / 2)  # printed 10.2
+    assert _tee_depth("wt", rows["WT9x65"]) == pytest.approx(9.63)  # W18x130 prints 19.3
+
+
+def test_large_xs_pipe_values_are_those_of_the_printed_id_not_the_design_wall():
+    # AISC Shapes Database v16.0, Pipe 14 to 26 XS: A, I_x follow t = (OD - ID)/2 = 0.450 in, while
+    # the printed t_des is 0.465 (0.93 t_nom); the reason Pipe 18 XS is a known miss above
+    for r in _rows("pipe"):
+        od, i_d, t_des, area = (float(r[k]) for k in ("OD", "ID", "t_des", "A"))
+        if not (r["designation"].endswith(" XS") and od >= 14.0):
+            continue
+        t_id = (od - i_d) / 2.0
+        assert math.pi * (od - t_id) * t_id == pytest.approx(area, rel=0.005), r["designation"]
+        assert math.pi / 64.0 * (od**4 - i_d**4) == pytest.approx(float(r["Ix"]), rel=0.005), r["designation"]
+        assert math.pi * (od - t_des) * t_des / area > 1.025, r["designation"]
