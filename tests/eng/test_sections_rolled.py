@@ -30,8 +30,8 @@ import numpy as np
 import pytest
 
 from calcpad.core.errors import InputError
-from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape, rectangle_j
-from calcpad.eng.sections.rolled_sloped import SlopedIShape, SlopedTee
+from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape, rectangle_j, tee_junction
+from calcpad.eng.sections.rolled_sloped import SlopedIShape, SlopedTee, sloped_junction
 
 sp_lib = pytest.importorskip("sectionproperties.pre.library")
 sp_analysis = pytest.importorskip("sectionproperties.analysis")
@@ -76,7 +76,7 @@ def _s_section():
 
 #: Our J / the oracle's J, as measured on this branch (low and high end of each family's band).
 J_BANDS = {"angle_unequal": (0.94, 0.98), "angle_equal_thin": (0.92, 0.96), "channel_sloped": (0.95, 0.99), "w_fillet": (0.99, 1.01),
-           "m_fillet": (0.99, 1.01), "m4_fillet": (1.02, 1.05), "hp_fillet": (0.99, 1.01), "s_sloped": (0.72, 0.77), "st_sloped": (0.72, 0.77)}
+           "m_fillet": (0.99, 1.01), "m4_fillet": (1.02, 1.05), "hp_fillet": (0.99, 1.01), "s_sloped": (0.99, 1.01), "st_sloped": (0.99, 1.01)}
 
 
 @pytest.fixture(scope="module")
@@ -112,12 +112,38 @@ def test_rolled_torsion_constant_within_its_band(key, oracle):
     assert low <= ratio <= high, f"J ratio {ratio:.3f} outside the measured band {low}..{high}"
 
 
-@pytest.mark.parametrize("key", ["s_sloped", "st_sloped"])
-def test_sloped_flange_j_with_junctions_matches_the_finite_element_j(key, oracle):
-    # the sloped shapes use a lower bound for J; the El Darwish and Johnston value with the
-    # junction terms (J_upper) is the torsion constant of the outline (measured ratio 1.002)
-    shape, _ = ORACLE_CASES[key]
-    assert shape.J_upper / oracle[key].get_j() == pytest.approx(1.0, abs=0.01)
+#: Sloped-flange outlines outside the set the junction coefficients were fitted to (the S and ST rows
+#: of the AISC tables): a shop's own proportions, a thick web, a large fillet, a small tee.
+HELD_OUT_SLOPED = {
+    "i_14x6": SlopedIShape(14.0, 6.0, 0.7, 0.45, 0.4, 0.15),
+    "tee_7x6": SlopedTee(7.0, 6.0, 0.7, 0.45, 0.4, 0.15),
+    "i_thick_web": SlopedIShape(8.0, 4.5, 0.45, 0.5, 0.3, 0.1),
+    "i_large_fillet": SlopedIShape(16.0, 7.0, 0.8, 0.4, 0.7, 0.3),
+    "tee_3x3": SlopedTee(3.0, 3.0, 0.3, 0.25, 0.2, 0.1),
+}
+
+
+@pytest.mark.parametrize("key", list(HELD_OUT_SLOPED))
+def test_sloped_flange_j_matches_the_finite_element_j_of_held_out_outlines(key):
+    # sectionproperties' warping analysis of our own outline polygon (the outline itself is checked
+    # against the library's tapered_flange_i_section above); measured -0.19 % to +0.07 %
+    from sectionproperties.pre.geometry import Geometry
+    from shapely.geometry import Polygon
+
+    shape = HELD_OUT_SLOPED[key]
+    geom = Geometry(Polygon(shape._outline(16)))
+    assert shape.props.J == pytest.approx(_analyse(geom).get_j(), rel=0.01)
+
+
+def test_sloped_junction_of_a_parallel_flange_is_el_darwish_and_johnston():
+    assert sloped_junction(0.5, 0.3, 0.4, 0.0) == tee_junction(0.5, 0.3, 0.4)
+    # D: the circle on the web axis touching the outer flange face is tangent to the root fillet,
+    # whose centre lies r from the web face and r from the sloped inner face (t_web at the web face)
+    t_web, tw, r, slope = 0.5, 0.3, 0.4, 2 / 12
+    dia = sloped_junction(t_web, tw, r, slope)[1]
+    xc = tw / 2 + r
+    yc = t_web - slope * r + r * math.hypot(1.0, slope)
+    assert math.hypot(xc, yc - dia / 2) == pytest.approx(dia / 2 + r)
 
 
 def test_rectangle_j_against_the_thick_plate_series():
