@@ -312,3 +312,16 @@ def test_large_xs_pipe_values_are_those_of_the_printed_id_not_the_design_wall():
         assert math.pi * (od - t_id) * t_id == pytest.approx(area, rel=0.005), r["designation"]
         assert math.pi / 64.0 * (od**4 - i_d**4) == pytest.approx(float(r["Ix"]), rel=0.005), r["designation"]
         assert math.pi * (od - t_des) * t_des / area > 1.025, r["designation"]
+
+
+@pytest.mark.parametrize("family", ["m", "mt", "hp", "s", "st"])
+def test_one_fillet_per_series_gives_the_j_of_every_row(family):
+    # every row of the family, not only the sample: one radius per series (M, HP) or rolling (S)
+    # reproduces the tabulated J (AISC Shapes Database v16.0); measured worst 0.4 % (M, MT, HP),
+    # 0.8 % (S12x50, S12x40.8, whose J ask for 0.50 and 0.45 in)
+    off = []
+    for r in _rows(family):
+        got, printed = _model(family, r).props.J, float(r["J"])
+        if not _close(got, printed):
+            off.append(f"{r['designation']}: J {got:.4g} vs {printed:g}")
+    assert not off
