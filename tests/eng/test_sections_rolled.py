@@ -113,26 +113,31 @@ def test_rolled_torsion_constant_within_its_band(key, oracle):
 
 
 #: Sloped-flange outlines outside the set the junction coefficients were fitted to (the S and ST rows
-#: of the AISC tables): a shop's own proportions, a thick web, a large fillet, a small tee.
+#: of the AISC tables, r1/t_web 0.35 to 1.0, t_w/t_web 0.44 to 1.0): a shop's own proportions, a thick
+#: web, a large fillet, a small tee, a thin web, and sharp corners (no fillet, outside the fitted
+#: range: our J / finite-element J measured 0.965 to 0.98, conservative), each with its band.
 HELD_OUT_SLOPED = {
-    "i_14x6": SlopedIShape(14.0, 6.0, 0.7, 0.45, 0.4, 0.15),
-    "tee_7x6": SlopedTee(7.0, 6.0, 0.7, 0.45, 0.4, 0.15),
-    "i_thick_web": SlopedIShape(8.0, 4.5, 0.45, 0.5, 0.3, 0.1),
-    "i_large_fillet": SlopedIShape(16.0, 7.0, 0.8, 0.4, 0.7, 0.3),
-    "tee_3x3": SlopedTee(3.0, 3.0, 0.3, 0.25, 0.2, 0.1),
+    "i_14x6": (SlopedIShape(14.0, 6.0, 0.7, 0.45, 0.4, 0.15), 0.99, 1.01),
+    "tee_7x6": (SlopedTee(7.0, 6.0, 0.7, 0.45, 0.4, 0.15), 0.99, 1.01),
+    "i_thick_web": (SlopedIShape(8.0, 4.5, 0.45, 0.5, 0.3, 0.1), 0.99, 1.01),
+    "i_large_fillet": (SlopedIShape(16.0, 7.0, 0.8, 0.4, 0.7, 0.3), 0.99, 1.01),
+    "tee_3x3": (SlopedTee(3.0, 3.0, 0.3, 0.25, 0.2, 0.1), 0.99, 1.01),
+    "i_thin_web": (SlopedIShape(12.0, 6.0, 0.5, 0.15, 0.2, 0.1), 0.99, 1.015),
+    "i_no_fillet": (SlopedIShape(10.0, 4.944, 0.491, 0.594, 0.0, 0.0), 0.96, 0.99),
+    "tee_no_fillet": (SlopedTee(6.0, 5.0, 0.544, 0.35, 0.0, 0.0), 0.96, 0.99),
 }
 
 
 @pytest.mark.parametrize("key", list(HELD_OUT_SLOPED))
-def test_sloped_flange_j_matches_the_finite_element_j_of_held_out_outlines(key):
+def test_sloped_flange_j_against_the_finite_element_j_of_held_out_outlines(key):
     # sectionproperties' warping analysis of our own outline polygon (the outline itself is checked
-    # against the library's tapered_flange_i_section above); measured -0.19 % to +0.07 %
+    # against the library's tapered_flange_i_section above)
     from sectionproperties.pre.geometry import Geometry
     from shapely.geometry import Polygon
 
-    shape = HELD_OUT_SLOPED[key]
-    geom = Geometry(Polygon(shape._outline(16)))
-    assert shape.props.J == pytest.approx(_analyse(geom).get_j(), rel=0.01)
+    shape, low, high = HELD_OUT_SLOPED[key]
+    ratio = shape.props.J / _analyse(Geometry(Polygon(shape._outline(16)))).get_j()
+    assert low <= ratio <= high, f"J ratio {ratio:.4f} outside {low}..{high}"
 
 
 def test_sloped_junction_of_a_parallel_flange_is_el_darwish_and_johnston():
