@@ -13,6 +13,8 @@ gives exactly; it is taken from the approximations of El Darwish and Johnston (1
 rectangles plus a term for each fillet junction, as AISC Design Guide 9 (Torsional Analysis of
 Structural Steel Members, 1997, Appendix A) gives them (from memory; the tests compare the
 results with the AISC Shapes Database and with a finite-element solution by sectionproperties).
+Channels take the outline's own J instead (finite differences, :mod:`._torsion`): the
+L-junction form stayed 3-4 % off the finite-element J of the same outlines.
 
 Frames are those of the plain shapes: heel (angles) or back of web (channels) at the origin,
 lower-left corner of the bounding box at (0, 0).
@@ -27,6 +29,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.eng.sections._moments import Moments
 from calcpad.eng.sections._polygons import N_QUARTER, Region, plastic_modulus, ring_moments
+from calcpad.eng.sections._torsion import torsion_constant
 from calcpad.eng.sections.angle_series import series_radii
 from calcpad.eng.sections.props import SectionProps, length_in
 from calcpad.eng.sections.shapes import Angle, Channel, IShape, Tee
@@ -227,15 +230,16 @@ class RolledChannel(_OutlineProps, Channel):
     Dimensions and frame as :class:`~calcpad.eng.sections.shapes.Channel` (``tf`` at the middle
     of the outstand, ``slope`` 1/6 for C; MC slopes vary by series). Without radii, ``r1`` is
     half the flange thickness at the web face and ``r2`` three quarters of the flange thickness
-    at the toe (our default: the simple fractions that brought the most AISC Shapes Database C
-    rows within 1 %, 26 of 31, when we scanned them; see ``tests/eng/test_sections_rolled.py``);
-    give the mill's radii where known.
+    at the toe (near what the C series of the AISC Shapes Database v16.0 show, 0.46 to 0.69 and
+    0.68 to 0.94); give the mill's radii where known, or use
+    :func:`~calcpad.eng.sections.channel_series.series_channel` for a weight of a C or MC series.
+    J is the Saint-Venant constant of the outline itself (:mod:`._torsion`).
     """
 
     kind = "channel"
-    table_agreement = ("computed rolled-channel properties: against the AISC Shapes Database v16.0 (C, 1:6 slope), "
-                       "A, I_x, S_x, Z within about 1 %, I_y and S_y of 3 in channels up to 2 % above, J 16 % below "
-                       "to 1.7 % above")
+    table_agreement = ("computed rolled-channel properties: with the slope and radii measured for each C and MC series "
+                       "(channel_series) every row of the AISC Shapes Database v16.0 within 1 % on A, I, S, Z, r and "
+                       "J but 7 rows 1.1 % to 1.6 % below it (Z_y, C_w, J); other radii move J most")
 
     def __init__(self, d: object, bf: object, tf: object, tw: object, *, slope: float = 0.0, r1: object = None,
                  r2: object = None, name: str | None = None, **kw: object) -> None:
@@ -270,25 +274,18 @@ class RolledChannel(_OutlineProps, Channel):
         return pieces
 
     def _props(self) -> SectionProps:
-        d, bf, tf, tw, r1 = self.d, self.bf, self.tf, self.tw, self.r1
+        bf, tf, tw, r1 = self.bf, self.tf, self.tw, self.r1
         zx, zy = self._outline_z()
-        t, t_toe = self.t_web, self.t_toe
-        out = bf - tw
-        # each flange: the thin-strip integral (1/3) ∫ t(x)³ dx over its tapered outstand, less
-        # 0.105 t⁴ at the free toe (half the 0.21 t⁴ end correction of a rectangle)
-        flange = (out * (t**4 - t_toe**4) / (4.0 * (t - t_toe)) if t > t_toe else out * tf**3) / 3.0 - 0.105 * t_toe**4
-        dia = 2.0 * ((3.0 * r1 + t + tw) - math.sqrt(2.0 * (2.0 * r1 + t) * (2.0 * r1 + tw)))
-        alpha = 0.07 * min(t, tw) / max(t, tw)
-        J = 2.0 * flange + (d - 2.0 * t) * tw**3 / 3.0 + 2.0 * alpha * dia**4
+        J = torsion_constant(self._outline(ARC_SEGMENTS), min(tw, self.t_toe))
         return self._base_props(
             Zx=zx,
             Zy=zy,
             J=J,
-            ratios={"b/t": bf / tf, "h/tw": (d - 2.0 * self.t_web) / tw},
+            ratios={"b/t": bf / tf, "h/tw": (self.d - 2.0 * self.t_web) / tw},
             notes=[f"rolled outline: flange slope {self.slope:g}, root fillets r1 = {r1:g} in, toe radii r2 = {self.r2:g} in",
                    "h taken as d - 2*(flange thickness at the web face)",
-                   "J: tapered flanges (1/3)*integral(t**3 dx) - 0.105*t_toe**4, web (d - 2 t_web) tw**3/3, plus "
-                   "0.07 (t_min/t_max) D**4 per web-flange junction (El Darwish and Johnston)"],
+                   "J: Saint-Venant torsion of the outline (Prandtl stress function by finite differences, two grids "
+                   "extrapolated)"],
         )
 
 
@@ -307,11 +304,15 @@ class RolledIShape(IShape):
     torsional constant of El Darwish and Johnston (flanges, web and the two fillet junctions, see
     :func:`tee_junction`) instead of the thin-wall sum. ``r`` is the fillet radius, ``k_des - tf``
     for W-shapes. With that r the rule reproduces the J of all 289 W-shapes of the AISC Shapes
-    Database v16.0 within 1 % (``tests/eng/test_sections_computed.py``)."""
+    Database v16.0 within 1 % (``tests/eng/test_sections_computed.py``). M and HP14 to HP8 are
+    rolled with a smaller fillet than ``k_des - tf`` (k_des is rounded up for detailing): one radius
+    per series, measured from the tables' J (M12.5/M12 0.24 in, M10 0.21, M8 0.18, M6 0.15, M5 to M3
+    0.31; HP18/HP16 1.18 = k_des - tf, HP14/HP12 0.60, HP10 0.50, HP8 0.40); with it the sampled
+    rows agree within 1 % on A, I, S, Z, r, J and C_w."""
 
-    table_agreement = ("computed I-shape properties: W-shapes of the AISC Shapes Database v16.0 within 1 % (with "
-                       "r = k_des - t_f); for HP 14 in and lighter and M shapes k_des - t_f is larger than the fillet "
-                       "and J comes out up to 18 % (HP) and 47 % (M) above the table: give the fillet radius")
+    table_agreement = ("computed I-shape properties: W, M and HP shapes of the AISC Shapes Database v16.0 within 1 % "
+                       "given the fillet radius (W: k_des - t_f; M and HP14 to HP8 a smaller fillet, with k_des - t_f "
+                       "J comes out up to 18 % (HP) and 47 % (M) above the table)")
 
     def _props(self) -> SectionProps:
         p = super()._props()
@@ -329,10 +330,12 @@ class RolledTee(Tee):
     the El Darwish and Johnston torsional constant: flange rectangle, stem (d - tf) tw³/3 less
     0.105 tw⁴ at its free end, plus alpha D⁴ for the junction (:func:`tee_junction`). With
     ``r = k_des - tf`` it reproduces the J of 287 of the 289 WT-shapes of the AISC Shapes Database
-    v16.0 within 1 % (``tests/eng/test_sections_computed.py``)."""
+    v16.0 within 1 % (``tests/eng/test_sections_computed.py``); MT with the fillet radius of the
+    parent M series (:class:`RolledIShape`)."""
 
-    table_agreement = ("computed tee properties: WT-shapes of the AISC Shapes Database v16.0 within about 1 % (J of "
-                       "287 of 289 within 1 %); MT with k_des - t_f as the fillet J up to 47 % above the table")
+    table_agreement = ("computed tee properties: WT and MT shapes of the AISC Shapes Database v16.0 within about 1 % "
+                       "given the fillet radius (WT: k_des - t_f, J of 287 of 289 within 1 %; MT: the parent M's "
+                       "fillet, with k_des - t_f J up to 47 % above the table)")
 
     def _props(self) -> SectionProps:
         p = super()._props()
