@@ -217,7 +217,7 @@ KNOWN_MISSES: dict[str, str] = {
     "l:L10x10x1-1/4": "Iz 87.62 vs 85.4 (+2.6 %); rz 1.94 vs 1.91 (+1.6 %)",
     "l:L4x4x1/4": "Ix 2.952 vs 3 (-1.6 %); Iy 2.952 vs 3 (-1.6 %); Sx 1.011 vs 1.03 (-1.9 %); Sy 1.011 vs 1.03 (-1.9 %); Zx 1.844 vs 1.82 (+1.3 %); Zy 1.844 vs 1.82 (+1.3 %)",
     "l:L3x2-1/2x3/16": "Ix 0.8867 vs 0.899 (-1.4 %); Zy 0.5428 vs 0.536 (+1.3 %)",
-    "l:L2-1/2x2-1/2x3/16": "Ix 0.5285 vs 0.535 (-1.2 %); Iy 0.5285 vs 0.535 (-1.2 %); Sx 0.2915 vs 0.295 (-1.2 %); Sy 0.2915 vs 0.295 (-1.2 %); Iz 0.213 vs 0.209 (+1.9 %); rz 0.4887 vs 0.482 (+1.4 %)",
+    "l:L2-1/2x2-1/2x3/16": "Ix 0.5263 vs 0.535 (-1.6 %); Iy 0.5263 vs 0.535 (-1.6 %); Sx 0.2895 vs 0.295 (-1.9 %); Sy 0.2895 vs 0.295 (-1.9 %); Iz 0.2145 vs 0.209 (+2.6 %); rz 0.489 vs 0.482 (+1.4 %)",
     "2l:2L10x10x7/8x3/4": "A 33.16 vs 33.6 (-1.3 %); Ix 312.1 vs 316 (-1.2 %); Iy 646.1 vs 655 (-1.4 %)",
     "2l:2L8x8x1/2x3/4": "Ix 96.56 vs 97.6 (-1.1 %)",
     "2l:2L6x6x5/16": "Ix 25.65 vs 26 (-1.3 %); Sx 5.834 vs 5.9 (-1.1 %)",
@@ -335,7 +335,7 @@ def test_every_angle_row_within_the_stated_spread(radii):
                 out.append(f"{r['designation']} {col} {dev * 100:+.2f} %")
     assert not out
     if radii == "series":
-        assert n_within == 120 and "120 of its 137" in RolledAngle.series_agreement
+        assert n_within == 118 and "118 of its 137" in RolledAngle.series_agreement
         assert "2.6 %" in RolledAngle.series_agreement and "1.6 %" in RolledAngle.series_agreement
     else:
         assert n_within < 137 // 2

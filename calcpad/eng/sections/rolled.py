@@ -154,8 +154,8 @@ class RolledAngle(_OutlineProps, Angle):
                        "within 1.6 %, J 14 % below to 1 % above; give the mill's radii where they govern")
     #: The same for legs of an AISC series (radii of :mod:`~calcpad.eng.sections.angle_series`).
     series_agreement = ("computed rolled-angle properties (radii of the AISC series with these legs, inferred from "
-                        "the AISC Shapes Database v16.0): 120 of its 137 angles within 1 % on every property; I_z up "
-                        "to 2.6 % and Z up to 1.6 % above the table (unconservative) on 13 of them, mostly the thinnest "
+                        "the AISC Shapes Database v16.0): 118 of its 137 angles within 1 % on every property; I_z up "
+                        "to 2.6 % and Z up to 1.6 % above the table (unconservative) on 15 of them, mostly the thinnest "
                         "of a series, I and S down to 2.6 % below, J -1.1 % to +1.2 %; give the mill's radii where "
                         "they govern")
 
