@@ -176,9 +176,11 @@ class _Scratches:
 
     @staticmethod
     def _governing(scratch: Sheet, out: MemberChecks) -> tuple[str, float]:
-        checks = {c.key: c for c in scratch.evaluate().checks}
-        name, key = max(out.keys.items(), key=lambda kv: checks[kv[1]].ratio)
-        return name, checks[key].ratio
+        """The limit state with the highest ratio (the first of equal ones) and its ratio: the
+        ratios read by check key (the sheet computes what changed; no result model is made)."""
+        ratios = {name: float(scratch[key].magnitude) for name, key in out.keys.items()}
+        name = max(ratios, key=lambda n: ratios[n])
+        return name, ratios[name]
 
     def _memo(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Any, ...] | None:
         if self.key is None:
