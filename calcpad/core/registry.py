@@ -5,14 +5,35 @@ Import it as :data:`calcpad.core.units.ureg` (re-exported there); no second regi
 
 from __future__ import annotations
 
+import hashlib
+import os
+from pathlib import Path
+
 import pint
 
 __all__ = ["Q_", "Quantity", "ureg"]
 
-ureg: pint.UnitRegistry = pint.UnitRegistry(
-    autoconvert_offset_to_baseunit=True,
-    cache_folder=":auto:",  # parsed definitions cached on disk: ~0.3 s faster start-up
-)
+
+def _cache_folder() -> Path:
+    """pint's on-disk cache of parsed definitions, one folder per pint installation.
+
+    pint keys a cached file by its content, and the cached ``default_en.txt`` names the absolute
+    path of the ``constants_en.txt`` it imports: one cache shared by two virtual environments
+    makes the second read the first's files, and fails once that environment is gone.
+    """
+    base = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache")
+    where = f"{Path(pint.__file__).resolve().parent}|{pint.__version__}".encode()
+    return base / "calcpad" / "pint" / hashlib.sha256(where).hexdigest()[:16]
+
+
+def _make_registry() -> pint.UnitRegistry:
+    try:  # parsed definitions cached on disk: ~0.3 s faster start-up
+        return pint.UnitRegistry(autoconvert_offset_to_baseunit=True, cache_folder=_cache_folder())
+    except (OSError, EOFError, ValueError):  # an unwritable or damaged cache: parse the files
+        return pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+
+
+ureg: pint.UnitRegistry = _make_registry()
 ureg.formatter.default_sort_func = None  # keep kip·ft, not ft·kip
 # Trade units that pint does not define (common practice).
 ureg.define("psf = pound_force / foot ** 2")

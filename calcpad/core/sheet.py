@@ -13,6 +13,7 @@ downstream of it.
 
 from __future__ import annotations
 
+import copy
 import difflib
 import hashlib
 import importlib
@@ -117,6 +118,11 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
 _VALUES: dict[tuple[Any, ...], tuple[Any, pint.Quantity, pint.Quantity]] = {}
 _VALUES_MAX = 5_000
 _EXACT = (float, int, np.float64)
+
+
+def _own(q: pint.Quantity) -> pint.Quantity:
+    """A copy of a Quantity the caller handed in: changing theirs later (``ito``) leaves the sheet's."""
+    return copy.copy(q)
 
 
 def _value_key(expr: Any, env: Mapping[str, pint.Quantity], unit: Any, prefs: DisplayPrefs) -> tuple[Any, ...] | None:
@@ -272,7 +278,7 @@ class Sheet:
 
         ``min``/``max``/``choices`` describe the allowed range a what-if control offers.
         """
-        q = parse_quantity(value, f"given {name!r}")
+        q = _own(parse_quantity(value, f"given {name!r}"))
         control: dict[str, Any] = {}
         for key, bound in (("min", min), ("max", max)):
             if bound is not None:
@@ -520,7 +526,7 @@ class Sheet:
             step = self._defs.get(name)
             if not isinstance(step, Given):
                 raise SheetError(f"sheet {self.title!r}: {name!r} is not a given{self._did_you_mean(name, given_only=True)}")
-            q = parse_quantity(value, f"given {name!r}")
+            q = _own(parse_quantity(value, f"given {name!r}"))
             if q.dimensionality != step.value.dimensionality:
                 raise SheetError(
                     f"given {name!r}: {value!r} does not have the dimension of its default {step.value:~}; "
@@ -625,7 +631,8 @@ class Sheet:
         key = _value_key(formula.expr, env, step.unit, self.prefs)
         hit = _VALUES.get(key) if key is not None else None
         if hit is not None and hit[0] is formula.expr:
-            value, shown = hit[1], hit[2]
+            # copies: a Quantity is mutable (``ito``), and each sheet's values are its own
+            value, shown = copy.copy(hit[1]), copy.copy(hit[2])
             self._values[name], self._shown[name] = value, shown
         else:
             value = evaluate_expr(formula.expr, env, name)
@@ -633,7 +640,8 @@ class Sheet:
             if key is not None:
                 if len(_VALUES) >= _VALUES_MAX:
                     _VALUES.clear()
-                _VALUES[key] = (formula.expr, value, shown)  # keeps the expression (and its id) alive
+                # keeps the expression (and its id) alive; stores copies so no sheet shares them
+                _VALUES[key] = (formula.expr, copy.copy(value), copy.copy(shown))
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
         return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 
@@ -768,7 +776,7 @@ class Sheet:
         self._compute()
         if name not in self._shown:
             raise KeyError(f"{name!r} is not a name in sheet {self.title!r}{self._did_you_mean(name)}")
-        return self._shown[name]
+        return copy.copy(self._shown[name])  # the caller may change it (``ito``); the sheet's stays
 
     def __contains__(self, name: str) -> bool:
         return name in self._defs

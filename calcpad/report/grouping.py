@@ -79,7 +79,16 @@ def group_calcs(outcomes: list[CalcOutcome]) -> list[CalcGroup]:
 
 
 def numbers_text(numbers: list[int]) -> str:
-    """``"Calc 4"`` or ``"Calcs 2, 3, 4"``."""
+    """``"Calc 4"``, ``"Calcs 2, 4"`` or ``"Calcs 2–4, 7"`` (three or more in a row as a range)."""
     if len(numbers) == 1:
         return f"Calc {numbers[0]}"
-    return "Calcs " + ", ".join(str(n) for n in numbers)
+    runs: list[list[int]] = []
+    for n in numbers:
+        if runs and n == runs[-1][-1] + 1:
+            runs[-1].append(n)
+        else:
+            runs.append([n])
+    parts = []
+    for run in runs:
+        parts.extend([f"{run[0]}–{run[-1]}"] if len(run) >= 3 else [str(n) for n in run])
+    return "Calcs " + ", ".join(parts)

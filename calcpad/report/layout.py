@@ -65,8 +65,18 @@ def _digest_short(record: dict[str, Any]) -> str:
     return str(record.get("record_digest", ""))[:12]
 
 
+#: Marks a calc heading names before "and N more" (the typical box under it lists them all).
+HEADING_MARKS = 6
+
+
+def _marks_text(marks: list[str]) -> str:
+    if len(marks) <= HEADING_MARKS:
+        return ", ".join(marks)
+    return f"{', '.join(marks[:HEADING_MARKS])} and {len(marks) - HEADING_MARKS} more"
+
+
 def _heading_text(g: CalcGroup) -> str:
-    who = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
+    who = f"typical for {_marks_text(g.marks)}" if g.typical else f"member {g.marks[0]}"
     return f"{numbers_text(g.numbers)} · {g.title} — {who}"
 
 
@@ -335,8 +345,9 @@ def _calc_section(c: _Context, g: CalcGroup, index: int) -> Iterator[str]:
 
 
 def _band(g: CalcGroup) -> tuple[str, str]:
-    marks = f"typical for {', '.join(g.marks)}" if g.typical else f"member {g.marks[0]}"
-    return g.title, f"{numbers_text(g.numbers)} · {marks}"
+    """The band's calc title and its one detail line (the heading on the page names the marks)."""
+    who = f"typical for {len(g.marks)} members" if g.typical else f"member {g.marks[0]}"
+    return g.title, f"{numbers_text(g.numbers)} · {who}"
 
 
 # ----------------------------------------------------------------------------- document
@@ -359,12 +370,12 @@ def submittal_chunks(job: Job, outcomes: list[CalcOutcome], record: dict[str, An
         "For review by a qualified, licensed engineer. Local codes and the authority having jurisdiction govern.",
     )
     css = page_css(info.paper, (f"Job {info.number}", info.title), f"Rev {info.revision or '—'} · {info.date or 'undated'}", footer)
-    css += band_css("cover", "Cover and sign-off", "")
-    css += band_css("front", "Contents, design criteria and summary", "")
+    css += band_css("cover", "Cover and sign-off", "", info.paper)
+    css += band_css("front", "Contents, design criteria and summary", "", info.paper)
     title = f"{info.number} {info.title}"
     yield f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8"><title>{_e(title)}</title><style>{CSS}{css}'
     for i, g in enumerate(printed, start=1):
-        yield band_css(f"g{i}", *_band(g))
+        yield band_css(f"g{i}", *_band(g), info.paper)
     yield "</style></head>\n<body>\n"
     yield _cover(c)
     yield _contents(c)

@@ -8,6 +8,8 @@ through CSS named pages: each printed calc gets ``@page g<N>`` with its own text
 
 from __future__ import annotations
 
+from calcpad.report.band import box_widths, fit_lines
+
 __all__ = ["PAPER_SIZES", "band_css", "css_string", "page_css"]
 
 PAPER_SIZES = {"letter": "letter", "a4": "A4"}
@@ -84,28 +86,39 @@ def css_string(text: str) -> str:
     return '"' + "".join(out) + '"'
 
 
-def band_css(name: str, section: str, detail: str) -> str:
-    """``@page name`` whose middle band cell reads ``section`` over ``detail``."""
-    content = css_string(section) + (' "\\A " ' + css_string(detail) if detail else "")
-    return f"@page {name} {{ @top-center {{ content: {content}; }} }}\n"
+def _lines_css(lines: list[str]) -> str:
+    """CSS ``content`` for lines shown one under another."""
+    return ' "\\A " '.join(css_string(line) for line in lines) or '""'
+
+
+def band_css(name: str, section: str, detail: str, paper: str = "letter") -> str:
+    """``@page name`` whose middle band cell reads ``section`` (at most two lines) over
+    ``detail`` (one line); longer text is cut with "…" so the band never runs over the page."""
+    width = box_widths(paper)["center"]
+    lines = fit_lines(section, width, 2 if detail else 3) + (fit_lines(detail, width, 1) if detail else [])
+    return f"@page {name} {{ @top-center {{ content: {_lines_css(lines)}; }} }}\n"
 
 
 def page_css(paper: str, left: tuple[str, str], right: str, footer: tuple[str, str]) -> str:
     """The ``@page`` rules shared by every page, then the static layout CSS.
 
-    ``left``: job number, project title; ``right``: revision and date on one line (the page
-    counter goes under it); ``footer``: left and right footer text.
+    ``left``: job number (one line), project title (two lines); ``right``: revision and date on
+    one line (the page counter goes under it); ``footer``: left and right footer text. Band text
+    longer than its box holds is cut with "…" (:mod:`calcpad.report.band`).
     """
     size = PAPER_SIZES[paper]
+    widths = box_widths(paper)
+    left_lines = fit_lines(left[0], widths["left"], 1) + fit_lines(left[1], widths["left"], 2)
+    right_line = fit_lines(right, widths["right"], 1)
     cell = "white-space: pre-wrap; vertical-align: middle; margin: .25in 0 .1in 0; padding: 0 9pt 0 5pt; border: .75pt solid #111;"
     foot = "vertical-align: top; padding-top: 3pt; margin-bottom: .2in;"
     return f"""
 @page {{
   size: {size};
   margin: 0.85in 0.55in 0.5in 0.55in;
-  @top-left {{ content: {css_string(left[0])} "\\A " {css_string(left[1])}; width: calc(30% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
+  @top-left {{ content: {_lines_css(left_lines)}; width: calc(30% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
   @top-center {{ content: ""; width: calc(40% - 14pt); text-align: left; {_BOX} {cell} border-width: .75pt 0 1.5pt .75pt; }}
-  @top-right {{ content: {css_string(right)} "\\A page " counter(page) " of " counter(pages);
+  @top-right {{ content: {_lines_css(right_line)} "\\A page " counter(page) " of " counter(pages);
                width: calc(30% - 14pt); text-align: right; {_BOX} {cell} border-width: .75pt .75pt 1.5pt .75pt; }}
   @bottom-left {{ content: {css_string(footer[0])}; width: 50%; text-align: left; {_BOX} font-size: 6.5pt; {foot} }}
   @bottom-right {{ content: {css_string(footer[1])}; width: 50%; text-align: right; {_BOX} font-size: 6.5pt; {foot} }}

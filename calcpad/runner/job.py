@@ -377,10 +377,25 @@ def section_problem(tpl: Template, name: str, value: Any, shop: ShopTable | None
         try:
             check_designation(item, shop if shop is not None else _NO_SHOP)
         except UnknownSectionError as exc:
-            return str(exc)
+            return _offer_words(str(exc), tpl.parameters[name].description)
         except InputError as exc:
             return str(exc)
     return None
+
+
+#: Words a section parameter's description may offer besides designations ("..., or custom for D_o and t").
+SECTION_WORDS = ("custom",)
+
+
+def _offer_words(message: str, description: str) -> str:
+    """An unknown-section message that also names the words the parameter itself accepts."""
+    words = [w for w in SECTION_WORDS if re.search(rf"\b{w}\b", description.lower())]
+    if not words:
+        return message
+    named = ", ".join(repr(w) for w in words)
+    if message.endswith("?"):
+        return f"{message[:-1]}, or {named} (this parameter accepts it)?"
+    return f"{message}; this parameter also accepts {named}"
 
 
 def _inputs(tpl: Template, raw: Any, loc: str, problems: list[tuple[str, str]], require_all: bool,

@@ -120,3 +120,32 @@ def test_formula_values_are_kept_per_exact_inputs_unit_and_preferences():
     si = moment("2 kip/ft", "10 ft", unit=None, system="SI")
     assert si.to("kN*m").magnitude == pytest.approx(25.0 * 1.3558179483314, rel=1e-9)  # 1 kip-ft = 1.35582 kN-m
     assert si.units != ureg.kip * ureg.ft
+
+
+def test_each_sheet_keeps_its_own_values_when_a_caller_changes_one_in_place():
+    """pint's ``ito`` changes a Quantity in place; a value read from one sheet, or handed to it,
+    must not change what another sheet (or the same one) prints. 1 kip-ft = 12 kip-in (unit fact)."""
+
+    def beam() -> Sheet:
+        sh = Sheet("beam")
+        sh.given("w", "2 kip/ft")
+        sh.given("L", "10 ft")
+        sh.step("M", "w*L**2/8", unit="kip*ft")
+        return sh
+
+    a, b = beam(), beam()  # b's M comes from the value store that a's filled
+    a["M"].ito("kip*in")
+    m = a["M"]
+    m.ito("kip*in")
+    assert m.magnitude == 300.0  # the caller's copy changed
+    assert a["M"].units == ureg.kip * ureg.ft and a["M"].magnitude == 25.0
+    assert b["M"].units == ureg.kip * ureg.ft and b["M"].magnitude == 25.0
+    html = sheet_html_fragment(b.evaluate())
+    assert "<mn>25.00</mn>" in html and "300" not in html
+
+    span = ureg.Quantity(10.0, "ft")
+    c = Sheet("given by object")
+    c.given("L", span)
+    c.set(L=span)
+    span.ito("inch")
+    assert c["L"].units == ureg.ft and c["L"].magnitude == 10.0

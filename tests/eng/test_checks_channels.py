@@ -116,3 +116,18 @@ def test_channel_with_noncompact_flange_not_covered():
     wide = Channel(6.0, 4.0, 0.25, 0.3)  # bf/tf = 16 > 0.38*sqrt(E/Fy) = 10.8
     with pytest.raises(NotCoveredError, match="compact flanges"):
         add_flexure_check(Sheet("x"), wide, M="1 kip*ft", F_y="36 ksi")
+
+
+@pytest.mark.parametrize("name", ["C10x20", "C4x6.25", "MC18x42.7", "MC6x16.3"])
+def test_a_computed_series_channel_reads_like_the_catalog_row(name):
+    # the checks read C_w (thin-wall with the section's own I_x), x_o and J of a computed channel
+    # as the AISC Shapes Database v16.0 tabulates them (catalog row: C_w, x_bar + e_o, J), 1 %
+    # plus half a unit of the table's third figure
+    from calcpad.eng.sections.channel_series import series_channel
+
+    row = get_section(name)
+    d, bf, tf, tw = (getattr(row, k) for k in ("d", "bf", "tf", "tw"))
+    ours, table = resolve_section(series_channel(d, bf, tf, tw)).values, resolve_section(row).values
+    for key in ("Cw", "x_o", "J", "Zx", "Iy"):
+        half_unit = 0.5 * 10.0 ** (math.floor(math.log10(abs(table[key]))) - 2)
+        assert abs(ours[key] - table[key]) <= half_unit + 0.01 * abs(table[key]), (key, ours[key], table[key])

@@ -111,24 +111,33 @@ def test_single_angles_match_the_table_at_36_ksi():
 
 
 #: Tee rows where the table's Q_s is not reproduced from the printed dimensions (measured: 14 rows
-#: within 0.02, all governed by the stem d/t_w, whose third figures move Q_s by about 0.05 per unit;
-#: WT18X116 (d = 18.6 in printed) 0.694 in the table, 0.825 from its printed d/t_w = 21.4).
+#: within 0.02, all governed by the stem d/t_w, whose third figures move Q_s by about 0.05 per unit).
 TEE_OFF_BY_ROUNDING = 0.02
-TEE_UNEXPLAINED = {"WT18X116"}
+#: Rows whose Q_s column belongs to another row of the oracle: its WT18X116 and WT18X115.5 rows are
+#: swapped in the dimension columns (WT18X115.5 prints d = 18.6, b_f = 12.1, the dimensions of half a
+#: W36X232, whose tee is WT18x116), so the Q_s is checked against the other row's dimensions.
+SWAPPED_TEES = {"WT18X116": "WT18X115.5", "WT18X115.5": "WT18X116"}
+#: WT18x115.5 (half a W36X231: d = 18.2 in, b_f = 16.5 in, t_f = 1.26 in, t_w = 0.760 in; half of the
+#: oracle's own W36X231 row), the dimensions the oracle's WT18X116 Q_s is computed from.
+WT18X115_5 = (18.2, 16.5, 1.26, 0.76)
 
 
 def test_tees_match_the_table():
     rows = _rows('select Type, Shape, d, bf, tf, tw, "Qs(50)" from "WT-MT-ST_shapes_AISC"')
     assert len(rows) > 250
+    dims = {shape: (d, bf, tf, tw) for _typ, shape, d, bf, tf, tw, _q in rows}
+    dims["WT18X115.5"] = WT18X115_5
     close, rounding, bad = 0, 0, []
     for typ, shape, d, bf, tf, tw, q in rows:
         fy = 50.0 if typ == "WT" else 36.0  # MT and ST rows are tabulated for A36
+        if shape in SWAPPED_TEES:
+            d, bf, tf, tw = dims[SWAPPED_TEES[shape]]
         got = section_qs(Tee(d, bf, tf, tw), fy).value
         if abs(got - q) <= TABLE_TOL:
             close += 1
         elif abs(got - q) <= TEE_OFF_BY_ROUNDING:
             rounding += 1
-        elif shape not in TEE_UNEXPLAINED:
+        else:
             bad.append((shape, q, round(got, 4)))
     assert not bad
     assert close >= 300 and rounding <= 15, (close, rounding)

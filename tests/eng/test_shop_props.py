@@ -136,9 +136,9 @@ def test_every_published_row_passes_the_cross_check(family: str, shop_family: st
 
 
 def test_published_angles_pass_but_for_a_few_light_or_unequal_ones() -> None:
-    # with the default radii (r1 = t/2, r2 = t/4) 5 of 137 rows fall outside 5 % on I_z or y_p
-    # (L2-1/2x2-1/2x3/16 I_z -5.7 %; L3-1/2x3 and L3x2 y_p up to 0.028 in): a shop states its mill's r1, r2 there
+    # with the default radii (those of the AISC series, angle_series.py) 2 of 137 rows fall outside
+    # 5 % on y_p (L3-1/2x3x3/8 -6.0 %, L3-1/2x3x1/2 -5.4 %): a shop states its mill's r1, r2 there
     rows = _published_rows("angle", "angle")
     refused = {name for name, shape, v, stated in rows for prop, x in stated.items()
                if mismatch(prop, x, reference("angle", prop, shape, v), "angle")}
-    assert len(rows) == 137 and len(refused) <= 7, sorted(refused)
+    assert len(rows) == 137 and len(refused) <= 2, sorted(refused)

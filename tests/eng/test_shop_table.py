@@ -169,3 +169,21 @@ def test_a_kernel_reads_the_table_named_by_the_environment_and_checks_its_digest
     monkeypatch.setenv(ENV_SHA256, "0" * 64)
     with pytest.raises(ShopTableError, match="changed since the job was read"):
         get_section("C6x8.2 KYF")
+
+
+def test_a_shop_channel_of_a_catalog_series_takes_the_series_outline():
+    # C6x8.2's dimensions (AISC Shapes Database v16.0: d 6.00, bf 1.92, tf 0.343, tw 0.200; A 2.39 in^2,
+    # J 0.0736 in^4, I_y 0.687 in^4): a row that gives no slope is modelled as the C6 series (1:6 flanges,
+    # its radii), so its J and I_y land on the table's; a row that states a slope keeps it
+    rows = f"""# source: Kestrel Yard Fabricators stock list (invented for the tests)
+{HEADER}
+C6 KYF plain,channel,6.00,,,1.92,0.343,0.200,,2.39,8.2
+C6 KYF flat,channel,6.00,,,1.92,0.343,0.200,0,2.39,8.2
+"""
+    table = read_shop_table(rows, "kyf_channels.csv")
+    with shop_table_in_use(table):
+        plain, flat = get_section("C6 KYF plain"), get_section("C6 KYF flat")
+        assert plain.slope == pytest.approx(1 / 6) and flat.slope == 0.0
+        assert plain.props.J == pytest.approx(0.0736, rel=0.01)
+        assert plain.props.Iy == pytest.approx(0.687, rel=0.01)
+        assert abs(flat.props.Iy / 0.687 - 1) > 0.02  # parallel flanges put more steel at the toes

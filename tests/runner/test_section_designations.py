@@ -111,14 +111,18 @@ def test_a_word_the_parameter_offers_is_left_to_the_template(tmp_path: Path) -> 
     assert [c.inputs["leg"] for c in job.calcs] == ["custom", "Pipe 1-1/2 Std"]
     legs = "mark,P [lbf],L [in],leg\nA1,120,30,bespoke\n"  # a word it does not offer
     problems = _problems(_write(tmp_path, LEGS_CALC, shop=None, legs=legs))
-    assert "'bespoke' is not in the catalog" in problems["calcs[1].table legs.csv row 2, column D (leg)"]
+    message = problems["calcs[1].table legs.csv row 2, column D (leg)"]
+    assert "'bespoke' is not in the catalog" in message
+    assert "'custom'" in message  # the message names the word the parameter does accept
 
 
 def test_member_table_cells_name_catalog_or_shop_sections(tmp_path: Path) -> None:
     legs = "mark,P [lbf],L [in],leg\nA1,120,30,Pipe 1-1/2 Std\nA2,120,30,Pipe 1-1/2 Sdt\nA3,120,30,Pipe 1-1/2 Std\nA4,90,30,HSS1.9x0.145\n"
     problems = _problems(_write(tmp_path, LEGS_CALC, shop=None, legs=legs))
     assert list(problems) == ["calcs[1].table legs.csv row 3, column D (leg)"]
-    assert "'Pipe 1-1/2 Sdt' is not in the catalog; did you mean 'Pipe 1-1/2 Std'" in problems["calcs[1].table legs.csv row 3, column D (leg)"]
+    message = problems["calcs[1].table legs.csv row 3, column D (leg)"]
+    assert "'Pipe 1-1/2 Sdt' is not in the catalog; did you mean 'Pipe 1-1/2 Std'" in message
+    assert message.endswith(", or 'custom' (this parameter accepts it)?")
 
 
 SHOP_TUBE = """# source: Kestrel Yard Fabricators stock tube (invented for the tests)

@@ -16,7 +16,8 @@ old rolling kept in the yard). Their table is a CSV file, one section per row::
   family     required                                   optional
   ========== ========================================== ==========================
   angle      d, b, t (long leg d)                       r1 (root fillet), r2 (toe)
-  channel    d, bf, tf, tw                              slope (no unit), r1, r2
+  channel    d, bf, tf, tw                              slope (no unit), r1, r2 (none
+                                                        given: a C/MC series' own, else 0)
   w          d, bf, tf, tw, k_des                       —
   hss_rect   h, b, t_nom (ERW: design wall 0.93 t_nom)  —
   hss_round  od, t_nom (ERW: design wall 0.93 t_nom)    —
@@ -63,6 +64,7 @@ from typing import Any
 
 from calcpad.core.errors import InputError, ProblemListError
 from calcpad.core.units import Q_, parse_quantity, parse_unit
+from calcpad.eng.sections.channel_series import channel_series, series_channel
 from calcpad.eng.sections.props import STEEL_DENSITY_PCF
 from calcpad.eng.sections.rolled import RolledAngle, RolledChannel, RolledIShape
 from calcpad.eng.sections.shapes import RectBar, RectTube, RoundTube, Shape
@@ -302,8 +304,7 @@ def _builder(family: str, designation: str, v: dict[str, float]) -> Callable[[],
         d, b = max(v["d"], v["b"]), min(v["d"], v["b"])
         return lambda: RolledAngle(d, b, v["t"], v.get("r1"), v.get("r2"), name=designation)
     if family == "channel":
-        return lambda: RolledChannel(v["d"], v["bf"], v["tf"], v["tw"], slope=v.get("slope", 0.0), r1=v.get("r1"), r2=v.get("r2"),
-                                     name=designation)
+        return lambda: _channel(designation, v)
     if family == "w":
         return lambda: RolledIShape(v["d"], v["bf"], v["tf"], v["tw"], max(v["k_des"] - v["tf"], 0.0), name=designation)
     if family == "hss_rect":
@@ -311,6 +312,16 @@ def _builder(family: str, designation: str, v: dict[str, float]) -> Callable[[],
     if family == "hss_round":
         return lambda: RoundTube(v["od"], _ERW * v["t_nom"], t_nominal=v["t_nom"], name=designation)
     return lambda: RectBar(v["t"], v["w"], name=designation)
+
+
+def _channel(designation: str, v: dict[str, float]) -> Shape:
+    """A shop channel: the slope and radii the row gives; a row that gives none and has the depth,
+    flange thickness and outstand of a C or MC series (another weight of it) takes that series'
+    slope and radii (:mod:`calcpad.eng.sections.channel_series`), else parallel flanges."""
+    dims = (v["d"], v["bf"], v["tf"], v["tw"])
+    if all(v.get(k) is None for k in ("slope", "r1", "r2")) and channel_series(*dims) is not None:
+        return series_channel(*dims, name=designation)
+    return RolledChannel(*dims, slope=v.get("slope", 0.0), r1=v.get("r1"), r2=v.get("r2"), name=designation)
 
 
 def _catalog_clash(designation: str) -> str | None:
