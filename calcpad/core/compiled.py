@@ -60,6 +60,8 @@ BLOCK_CASES = 65_536
 #: (no name can hold a NUL).
 _POOL = "\0pool"
 _TARGET = "\0target"
+#: Key of the record of conditions decided close to their boundary (:meth:`CompiledSheet.ratios_near`).
+_NEAR = "\0near"
 
 
 class _Pool:
@@ -335,8 +337,7 @@ def _compile(expr: sp.Basic, scale: dict[str, float]) -> Part:
                 return _binary(np.divide, _unary(np.log, arg), _const(div))
             return _unary(np.log, arg)
         if isinstance(e, sp.core.relational.Relational):
-            lhs, rhs, cmp = build(e.lhs), build(e.rhs), _COMPARE[e.rel_op]
-            return lambda env: _fresh(cmp(lhs(env)[0], rhs(env)[0]))
+            return _relation(build(e.lhs), build(e.rhs), _COMPARE[e.rel_op])
         if isinstance(e, (sp.And, sp.Or)):
             return _fold([build(a) for a in e.args], np.logical_and if isinstance(e, sp.And) else np.logical_or)
         if isinstance(e, sp.Not):
@@ -345,6 +346,37 @@ def _compile(expr: sp.Basic, scale: dict[str, float]) -> Part:
         raise SheetError(f"cannot compile {type(e).__name__} in {e}")
 
     return build(expr)
+
+
+class _Near:
+    """The cases in which a condition's sides lie within ``rel`` (relative to the larger side) of
+    each other: there another rounding of the same numbers may decide the other way."""
+
+    def __init__(self, rel: float) -> None:
+        self.rel = rel
+        self.masks: list[Any] = []
+
+    def note(self, a: Any, b: Any) -> None:
+        self.masks.append(np.abs(np.subtract(a, b)) <= self.rel * np.maximum(np.abs(a), np.abs(b)))
+
+    def mask(self, shape: tuple[int, ...]) -> np.ndarray:
+        out = np.zeros(shape, dtype=bool)
+        for m in self.masks:
+            out |= np.broadcast_to(m, shape)
+        return out
+
+
+def _relation(lhs: Part, rhs: Part, cmp: Any) -> Part:
+    """A comparison (a boolean array), noted in the near-boundary record when one is kept."""
+
+    def run(env: dict[str, Any]) -> tuple[Any, bool]:
+        a, b = lhs(env)[0], rhs(env)[0]
+        near = env.get(_NEAR)
+        if near is not None:
+            near.note(a, b)
+        return _fresh(cmp(a, b))
+
+    return run
 
 
 def _binary(op: Any, lhs: Part, rhs: Part) -> Part:
@@ -556,6 +588,15 @@ class CompiledSheet:
         only block by block, never as whole arrays."""
         return self._evaluate(values, set(self._checks))
 
+    def ratios_near(self, rel: float, /, **values: Any) -> tuple[CompiledResult, np.ndarray]:
+        """As :meth:`ratios` (evaluated in one pass: for a modest number of cases), with a boolean
+        array over the cases: True where a branch condition's two sides are within ``rel`` of
+        each other (relative to the larger), where a scalar evaluation of the same numbers,
+        rounded otherwise, might take the other branch."""
+        near = _Near(rel)
+        res = self._evaluate(values, set(self._checks), near)
+        return res, near.mask(res.valid.shape)
+
     def _varying(self, env: dict[str, Any], shape: tuple[int, ...]) -> set[str]:
         """Givens and steps whose values vary along the first axis of ``shape`` (cut into blocks)."""
         varying = {n for n, v in env.items() if np.ndim(v) == len(shape) and np.shape(v)[0] == shape[0]}
@@ -564,8 +605,9 @@ class CompiledSheet:
                 varying.add(name)
         return varying
 
-    def _evaluate(self, values: dict[str, Any], keep: set[str] | None) -> CompiledResult:
-        """Evaluate the plan; ``keep``: the step names returned (None: every step).
+    def _evaluate(self, values: dict[str, Any], keep: set[str] | None, near: _Near | None = None) -> CompiledResult:
+        """Evaluate the plan; ``keep``: the step names returned (None: every step); ``near``: a
+        record of conditions decided close to their boundary (the call is then not cut into blocks).
 
         Steps that do not vary along the first axis of the cases are evaluated once; the others
         in blocks of about :data:`BLOCK_CASES` cases (rows of the first axis), so the
@@ -578,7 +620,9 @@ class CompiledSheet:
         rows = shape[0] if shape else 1
         per_row = math.prod(shape[1:]) if shape else 1
         step_rows = max(1, BLOCK_CASES // max(per_row, 1))
-        blocked = self._varying(env, shape) if shape and rows > step_rows else set()
+        blocked = self._varying(env, shape) if shape and rows > step_rows and near is None else set()
+        if near is not None:
+            env[_NEAR] = near
         fails: dict[str, Any] = {}  # step -> cases where it is not finite (or its capacity not > 0)
         with np.errstate(all="ignore"):
             for name, fn in self._plan:  # everything that is not cut into blocks (all of it for small calls)
@@ -591,6 +635,7 @@ class CompiledSheet:
                     fails[name] = bad_here
             if blocked:
                 self._blocks(env, shape, step_rows, blocked, keep, fails)
+        env.pop(_NEAR, None)
         raw = dict(env)
         if keep is not None:
             env = {k: env[k] for k in self._checks}

@@ -65,3 +65,21 @@ def test_compiled_defaults_and_quantities():
     out = f(P=Q_(np.array([1.0, 2.0]), "kip"))
     assert out["M"].shape == (2,)
     assert out["M"][1] == pytest.approx(2 * out["M"][0])
+
+
+def test_ratios_near_marks_the_cases_at_a_branch_boundary():
+    """The column-curve limit KL/r = 4.71 sqrt(E/F_y) (AISC 360-16 E3) falls at
+    L = 4.71 sqrt(E/F_y) r / K, with r = sqrt(I/A) = sqrt(D_o² + D_i²)/4 for a round tube
+    (arithmetic): lengths within 1e-12 of it are marked, lengths 20 % off are not."""
+    sh = chain()
+    f = sh.compile()
+    d_o, t = 2.375, 0.154
+    r = np.hypot(d_o, d_o - 2 * t) / 4
+    limit = 4.71 * np.sqrt(29000 / 35) * r / 2.1
+    lengths = np.array([limit * (1 - 1e-12), limit * (1 + 1e-12), limit * 0.8, limit * 1.2])
+    res, near = f.ratios_near(1e-9, L=lengths)
+    assert near.tolist() == [True, True, False, False]
+    plain = f.ratios(L=lengths)
+    assert len(plain) == 2
+    for key in plain:  # the same ratios as without the record
+        assert np.array_equal(res[key], plain[key]), key

@@ -162,3 +162,43 @@ def test_scratch_sheets_kept_between_calls_give_each_call_its_own_ratios():
             s = Sheet("direct", method="ASD")
             r = check_member(s, HSS, L="10 ft", K=2.1, F_y=fy, P=f"{p} kip", M_x=f"{h * L_IN} kip*in", V=f"{h} kip")
             assert _table_ratios(sh)[case] == f"{r.governing_ratio:.3f}", (fy, case)
+
+
+def _direct(P, M, V):
+    r = check_member(Sheet("direct", method="ASD"), HSS, L="10 ft", K=2.1, F_y="50 ksi", P=P, M_x=M, V=V, table=False)
+    return r.governing, r.governing_ratio
+
+
+def test_many_cases_of_one_sign_pattern_on_the_compiled_sheet_match_direct_checks():
+    """Cases of one force-sign pattern are evaluated at once on the compiled scratch sheet. Each
+    answer must be the direct check_member one (limit state, ratio to 3 decimals); where the
+    compiled numbers sit on a decision (P_r/P_c = 0.2, the switch between AISC 360-16 Eqs. H1-1a
+    and H1-1b, or a ratio at a rounding of its 3 decimals) the scalar sheet answers."""
+    from calcpad import Q_
+    from calcpad.core.compiled import CompiledSheet
+    from calcpad.eng.checks import frame_member
+
+    frame_member._KEPT.clear()
+    frame_member._ANSWERS.clear()
+    s = Sheet("direct", method="ASD")
+    check_member(s, HSS, L="10 ft", K=2.1, F_y="50 ksi", P="5 kip", M_x="96 kip*in", V="0.8 kip", table=False)
+    p_c, m_c = s["P_c"].to("kip").magnitude, s["M_c"].to("kip*in").magnitude
+    at_h1 = (Q_(0.2 * p_c, "kip"), Q_(0.5 * m_c, "kip*in"), Q_(0.4, "kip"))  # P_r/P_c = 0.2 (to the last digit)
+    cases = [at_h1] + [(Q_(p, "kip"), Q_(m, "kip*in"), Q_(0.3, "kip")) for p, m in
+                       ((1.0, 20.0), (2.0, 35.0), (4.0, 50.0), (5.0, 96.0), (6.5, 80.0), (3.3, 12.0), (7.0, 5.0))]
+    scratches = frame_member._Scratches(Sheet("post", method="ASD"), HSS, "10 ft", {"K": 2.1, "F_y": "50 ksi"})
+    answers = scratches.check_all(cases)
+    assert isinstance(scratches.sheets[(1, 1, 1)].compiled, CompiledSheet)  # the compiled sheet was used
+    for (P, M, V), (name, ratio) in zip(cases, answers, strict=True):
+        d_name, d_ratio = _direct(P, M, V)
+        assert (name, f"{ratio:.3f}") == (d_name, f"{d_ratio:.3f}"), (P, M)
+        assert ratio == pytest.approx(d_ratio, rel=1e-12)
+    compiled = scratches.sheets[(1, 1, 1)].compiled
+    out = scratches.sheets[(1, 1, 1)].out
+    name, ratio = _direct(*cases[4])
+    assert name == "interaction"  # H1-1a: every ratio in proportion to P and M
+    scale = (round(ratio, 3) + 0.0005) / ratio  # the governing ratio moved onto x.xxx5
+    on_rounding = (cases[4][0] * scale, cases[4][1] * scale, cases[4][2])
+    trusted = scratches._trusted(compiled, out, [at_h1, cases[1], on_rounding])
+    assert trusted[0] is None and trusted[2] is None  # on a decision: left to the scalar sheet
+    assert trusted[1] is not None and trusted[1][0] == _direct(*cases[1])[0]

@@ -99,3 +99,27 @@ def test_sections_png_is_the_drawing_of_these_sections():
     assert sections_png([thin], ["Before"], dpi=100) == first
     other = sections_png([thick], ["Before"], dpi=100)  # same name, another wall: drawn anew
     assert other != first and other == _saved(draw_sections([thick], ["Before"]), dpi=100)
+
+
+def test_the_cycle_collector_is_held_off_only_while_a_figure_is_drawn():
+    """Python's ``gc`` is paused around building and saving a drawing and is on again after,
+    also when the drawing fails; the PNG is still matplotlib's own."""
+    import gc
+
+    seen = []
+
+    def build():
+        seen.append(gc.isenabled())
+        return draw_frame(_portal(1.5)[0])
+
+    assert gc.isenabled()
+    png = figure_png.png_once(("a drawing of the test",), build, 110)
+    assert seen == [False] and gc.isenabled()
+    assert png == _saved(draw_frame(_portal(1.5)[0]))
+
+    def fails():
+        raise InputError("no drawing")
+
+    with pytest.raises(InputError):
+        figure_png.png_once(("another drawing",), fails, 110)
+    assert gc.isenabled()

@@ -8,6 +8,8 @@ notebooks alike and can go straight into ``Sheet.figure``.
 
 from __future__ import annotations
 
+import functools
+import threading
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
@@ -339,6 +341,40 @@ _CONTENT: dict[Callable[..., Figure], Callable[..., tuple[Any, ...]]] = {
     draw_frame: _draw_frame_content, draw_frame_diagram: _draw_frame_diagram_content, plot_member: _plot_member_content}
 
 
+#: Agg renderers shared by the figures :func:`drawing_png` draws, by size, resolution and thread.
+_RENDERERS: dict[tuple[float, float, float, int], Any] = {}
+_RENDERERS_MAX = 8
+
+
+@functools.cache
+def _shared_renderer_canvas() -> type:
+    """An Agg canvas class that draws with a renderer shared by the figures of one size and
+    resolution (in one thread): matplotlib keeps text measurements per renderer, so labels
+    measured for one drawing are not measured again for the next, and no new pixel buffer is
+    made. Only for figures drawn and saved at once (the shared buffer holds the last drawing)."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg, RendererAgg
+
+    class SharedRendererCanvas(FigureCanvasAgg):
+        def get_renderer(self) -> RendererAgg:
+            w, h = self.figure.bbox.size
+            key = (w, h, self.figure.dpi, threading.get_ident())
+            renderer = _RENDERERS.get(key)
+            if renderer is None:
+                while len(_RENDERERS) >= _RENDERERS_MAX:
+                    _RENDERERS.pop(next(iter(_RENDERERS)), None)
+                renderer = _RENDERERS[key] = RendererAgg(w, h, self.figure.dpi)
+            self.renderer, self._lastKey = renderer, key[:3]
+            return renderer
+
+    return SharedRendererCanvas
+
+
+def _on_shared_renderer(fig: Figure) -> Figure:
+    """``fig``, drawn from now on with a shared renderer (:func:`_shared_renderer_canvas`)."""
+    _shared_renderer_canvas()(fig)
+    return fig
+
+
 def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwargs: Any) -> bytes:
     """PNG of ``draw(*args, **kwargs)`` (``draw_frame``, ``draw_frame_diagram`` or ``plot_member``) at
     ``dpi`` (110: as ``Sheet.figure`` saves a figure), drawn only when the same drawing was not made
@@ -346,4 +382,4 @@ def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwarg
     figure, without building it again for a frame drawn before."""
     if draw not in _CONTENT:
         raise InputError(f"draw: got {getattr(draw, '__name__', draw)!r}; expected one of {[f.__name__ for f in _CONTENT]}")
-    return png_once(_CONTENT[draw](*args, **kwargs), lambda: draw(*args, **kwargs), dpi)
+    return png_once(_CONTENT[draw](*args, **kwargs), lambda: _on_shared_renderer(draw(*args, **kwargs)), dpi)

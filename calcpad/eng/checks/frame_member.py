@@ -20,7 +20,9 @@ from typing import Any
 import numpy as np
 import pint
 
+from calcpad.core.compiled import CompiledSheet
 from calcpad.core.content_key import content_key
+from calcpad.core.errors import CalcpadError
 from calcpad.core.sheet import Sheet
 from calcpad.core.units import Q_
 from calcpad.eng.checks._common import CheckInputError
@@ -74,11 +76,38 @@ def _sign(q: pint.Quantity) -> int:
 
 #: Scratch sheets kept between calls, by the content of what they check and the force signs:
 #: the same member in another direction, or a calc like an earlier one, re-evaluates a kept sheet.
-_KEPT: dict[tuple[str, tuple[int, int, int]], tuple[Sheet, MemberChecks]] = {}
+_KEPT: dict[tuple[str, tuple[int, int, int]], _Scratch] = {}
 KEPT_LIMIT = 48
-#: Governing limit state and ratio by member content, force signs and the forces' exact values.
+#: Governing limit state and ratio by member content, force signs and the forces' exact values
+#: (answers of the scalar sheet only).
 _ANSWERS: dict[tuple[Any, ...], tuple[str, float]] = {}
 ANSWERS_LIMIT = 5_000
+#: Relative margin within which a compiled answer is not trusted: two limit states' ratios, a
+#: ratio and the rounding of its 3 decimals, a branch condition's two sides, a ratio and the
+#: largest (the compiled and the scalar sheet round differently, some 1e-15 apart).
+NEAR = 1e-9
+#: Cases of one force-sign pattern from which a scratch sheet is compiled (compiling costs some
+#: 5 scalar evaluations; a compiled sheet is kept with its scratch sheet).
+COMPILE_FROM = 6
+
+
+class _Scratch:
+    """A reusable scratch sheet, what :func:`check_member` wrote on it, and its compiled form
+    (made when first needed; False when the sheet does not compile)."""
+
+    __slots__ = ("compiled", "out", "sheet")
+
+    def __init__(self, sheet: Sheet, out: MemberChecks) -> None:
+        self.sheet, self.out = sheet, out
+        self.compiled: CompiledSheet | bool | None = None
+
+    def compile(self) -> CompiledSheet | None:
+        if self.compiled is None:
+            try:
+                self.compiled = CompiledSheet(self.sheet)
+            except CalcpadError:
+                self.compiled = False
+        return self.compiled or None
 
 
 class _Scratches:
@@ -91,38 +120,39 @@ class _Scratches:
     ``V_r``) holding the values passed; a sheet built otherwise is used for its own case only.
     Reusable sheets are also kept between calls (``_KEPT``, bounded), keyed by the exact content
     of the section, length, options and design method (:func:`content_key`; no key, no keeping).
+    Many cases of one pattern are evaluated at once on the compiled sheet (:meth:`check_all`).
     """
 
     def __init__(self, sh: Sheet, section: Any, L: Any, options: dict[str, Any]) -> None:
         self.sh, self.section, self.L, self.options = sh, section, L, options
-        self.sheets: dict[tuple[int, int, int], tuple[Sheet, MemberChecks]] = {}
+        self.sheets: dict[tuple[int, int, int], _Scratch] = {}
         key = content_key("check_member", type(section), section, L, options, sh.method, sh.prefs.system)
         # a kept sheet is re-evaluated in place: never share one between threads
         self.key = None if key is None else f"{key}:{threading.get_ident()}"
 
-    def _kept(self, signs: tuple[int, int, int]) -> tuple[Sheet, MemberChecks] | None:
+    def _kept(self, signs: tuple[int, int, int]) -> _Scratch | None:
         entry = self.sheets.get(signs)
         if entry is None and self.key is not None:
             entry = _KEPT.get((self.key, signs))
             if entry is not None:
                 self.sheets[signs] = entry
-                entry[0].title = self.sh.title  # messages name this calc's sheet
+                entry.sheet.title = self.sh.title  # messages name this calc's sheet
         return entry
 
-    def _keep(self, signs: tuple[int, int, int], entry: tuple[Sheet, MemberChecks]) -> None:
+    def _keep(self, signs: tuple[int, int, int], entry: _Scratch) -> None:
         self.sheets[signs] = entry
         if self.key is not None:
             _KEPT[(self.key, signs)] = entry
             while len(_KEPT) > KEPT_LIMIT:
                 _KEPT.pop(next(iter(_KEPT)), None)
 
-    def _build(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Sheet, MemberChecks]:
+    def _build(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> _Scratch:
         sh = self.sh
         scratch = Sheet(sh.title, method=sh.method, system=sh.prefs.system)
         with warnings.catch_warnings():  # cautions are raised again when the governing case is written
             warnings.simplefilter("ignore")
             out = check_member(scratch, self.section, L=self.L, P=P, M_x=M, V=V, table=False, **self.options)
-        return scratch, out
+        return _Scratch(scratch, out)
 
     @staticmethod
     def _forces(P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> dict[str, pint.Quantity]:
@@ -146,21 +176,25 @@ class _Scratches:
 
     @staticmethod
     def _governing(scratch: Sheet, out: MemberChecks) -> tuple[str, float]:
-        checks = {c.key: c for c in scratch.evaluate().checks}
-        name, key = max(out.keys.items(), key=lambda kv: checks[kv[1]].ratio)
-        return name, checks[key].ratio
+        """The limit state with the highest ratio (the first of equal ones) and its ratio: the
+        ratios read by check key (the sheet computes what changed; no result model is made)."""
+        ratios = {name: float(scratch[key].magnitude) for name, key in out.keys.items()}
+        name = max(ratios, key=lambda n: ratios[n])
+        return name, ratios[name]
+
+    def _memo(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[Any, ...] | None:
+        if self.key is None:
+            return None
+        forces = self._forces(P, M, V)
+        return self.key, _signs(P, M, V), tuple((n, repr(q.magnitude), q.units._units) for n, q in forces.items())
 
     def check(self, P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[str, float]:
         """The governing limit state and its ratio for one case's forces (an answer for the same
         member content and the same forces is taken from the previous evaluation)."""
-        key = (_sign(P), _sign(M), _sign(V))
-        forces = self._forces(P, M, V)
-        memo = None
-        if self.key is not None:
-            memo = (self.key, key, tuple((n, repr(q.magnitude), q.units._units) for n, q in forces.items()))
-            if memo in _ANSWERS:
-                return _ANSWERS[memo]
-        answer = self._evaluate(key, forces, P, M, V)
+        memo = self._memo(P, M, V)
+        if memo is not None and memo in _ANSWERS:
+            return _ANSWERS[memo]
+        answer = self._evaluate(_signs(P, M, V), self._forces(P, M, V), P, M, V)
         if memo is not None:
             if len(_ANSWERS) >= ANSWERS_LIMIT:
                 _ANSWERS.clear()
@@ -171,15 +205,79 @@ class _Scratches:
                   V: pint.Quantity) -> tuple[str, float]:
         entry = self._kept(key)
         if entry is not None:
-            scratch, out = entry
-            scratch.set(**forces)
+            entry.sheet.set(**forces)
             with warnings.catch_warnings():  # as for a new scratch sheet: cautions come with the governing case
                 warnings.simplefilter("ignore")
-                return self._governing(scratch, out)
-        scratch, out = self._build(P, M, V)
-        if self._holds(scratch, forces):
-            self._keep(key, (scratch, out))
-        return out.governing, out.governing_ratio
+                return self._governing(entry.sheet, entry.out)
+        entry = self._build(P, M, V)
+        if self._holds(entry.sheet, forces):
+            self._keep(key, entry)
+        return entry.out.governing, entry.out.governing_ratio
+
+    def check_all(self, cases: list[tuple[pint.Quantity, pint.Quantity, pint.Quantity]]) -> list[tuple[str, float]]:
+        """:meth:`check` for each case's forces, the cases of one force-sign pattern evaluated at
+        once on the compiled scratch sheet. A compiled answer is taken only where it cannot differ
+        from the scalar sheet's in what is shown or chosen (see :meth:`_trusted`), and every case
+        whose ratio is within :data:`NEAR` of the largest is answered by the scalar sheet: so the
+        first case with the largest ratio is the one :meth:`check` finds. Cases the scalar sheet
+        answers are evaluated in order (a failing case raises as :meth:`check` would)."""
+        answers: list[tuple[str, float] | None] = [None] * len(cases)
+        exact = [False] * len(cases)
+        groups: dict[tuple[int, int, int], list[int]] = {}
+        for i, (P, M, V) in enumerate(cases):
+            memo = self._memo(P, M, V)
+            if memo is not None and memo in _ANSWERS:
+                answers[i], exact[i] = _ANSWERS[memo], True
+            elif self._kept(_signs(P, M, V)) is None and _signs(P, M, V) not in groups:
+                try:  # the pattern's scratch sheet, built with this case's forces (its answer exact)
+                    answers[i], exact[i] = self.check(P, M, V), True
+                except Exception:  # raised again, in case order, when answered below
+                    groups[_signs(P, M, V)] = []
+            else:
+                groups.setdefault(_signs(P, M, V), []).append(i)
+        for signs, rows in groups.items():
+            entry = self._kept(signs)
+            if entry is not None and rows and (entry.compiled is not None or len(rows) >= COMPILE_FROM):
+                compiled = entry.compile()
+                if compiled is not None:
+                    for i, answer in zip(rows, self._trusted(compiled, entry.out, [cases[i] for i in rows]), strict=True):
+                        answers[i] = answer
+        while True:
+            for i, a in enumerate(answers):  # untrusted answers, and compiled ones near the largest: scalar
+                if a is None:
+                    answers[i], exact[i] = self.check(*cases[i]), True
+            top = max(a[1] for a in answers if a is not None)
+            close = [i for i, a in enumerate(answers) if not exact[i] and a is not None and a[1] >= top * (1 - 4 * NEAR)]
+            if not close:
+                return [a for a in answers if a is not None]
+            for i in close:
+                answers[i] = None
+
+    def _trusted(self, compiled: CompiledSheet, out: MemberChecks,
+                 cases: list[tuple[pint.Quantity, pint.Quantity, pint.Quantity]]) -> list[tuple[str, float] | None]:
+        """The compiled sheet's governing limit state and ratio per case, None where it might not
+        be the scalar sheet's: an invalid case (the scalar sheet says why), a branch condition or
+        the runner-up limit state within :data:`NEAR`, a ratio that close to a rounding of its
+        3 decimals."""
+        forces = [self._forces(*c) for c in cases]
+        values = {n: np.array([float(f[n].to(compiled.given_units[n]).magnitude) for f in forces]) for n in forces[0]}
+        res, near = compiled.ratios_near(NEAR, **values)
+        names = list(out.keys)
+        table = np.column_stack([np.broadcast_to(np.asarray(res[out.keys[n]], dtype=float), near.shape) for n in names])
+        trusted: list[tuple[str, float] | None] = []
+        for k, r in enumerate(table):
+            g = int(np.argmax(r))  # the first of equal ratios, as max() takes
+            ratio, runner_up = float(r[g]), float(np.delete(r, g).max(initial=-np.inf))
+            if near[k] or not res.valid[k] or runner_up >= ratio * (1 - 2 * NEAR) \
+                    or f"{ratio * (1 - NEAR):.3f}" != f"{ratio * (1 + NEAR):.3f}":
+                trusted.append(None)
+            else:
+                trusted.append((names[g], ratio))
+        return trusted
+
+
+def _signs(P: pint.Quantity, M: pint.Quantity, V: pint.Quantity) -> tuple[int, int, int]:
+    return _sign(P), _sign(M), _sign(V)
 
 
 def check_frame_member(
@@ -235,16 +333,17 @@ def check_frame_member(
         raise CheckInputError("B2", B2, "a sway amplifier B2 >= 1 (AISC 360-16 Eq. A-8-6)")
     rows, best = [], None
     scratches = _Scratches(sh, section, value(L), scratch_opts)
-    for m in members:
-        for c in names:
-            f = frame_member_forces(result, m, c)
-            if f.empty:
-                rows.append([m, f.case, f.P, f.M, f.V, "-", "no force"])
-                continue
-            governing, ratio = scratches.check(f.P * amp, f.M * amp, f.V)
-            rows.append([m, f.case, f.P, f.M, f.V, f"{ratio:.3f}", governing])
-            if best is None or ratio > best[0]:
-                best = (ratio, m, f)
+    found = [(m, frame_member_forces(result, m, c)) for m in members for c in names]
+    loaded = [f for _, f in found if not f.empty]
+    answers = iter(scratches.check_all([(f.P * amp, f.M * amp, f.V) for f in loaded]) if loaded else [])
+    for m, f in found:
+        if f.empty:
+            rows.append([m, f.case, f.P, f.M, f.V, "-", "no force"])
+            continue
+        governing, ratio = next(answers)
+        rows.append([m, f.case, f.P, f.M, f.V, f"{ratio:.3f}", governing])
+        if best is None or ratio > best[0]:
+            best = (ratio, m, f)
     if best is None:
         raise CheckInputError("cases", names, f"a case in which {', '.join(members)} carries force")
     _, gov_m, gov = best
