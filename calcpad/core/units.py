@@ -8,6 +8,7 @@ goes through :func:`parse_quantity` / :func:`parse_unit`, which read it with the
 
 from __future__ import annotations
 
+import copy
 import functools
 import math
 import numbers
@@ -61,12 +62,28 @@ def parse_quantity(text: Any, field_name: str = "value", expected: str | None = 
         q = text
         _check_finite_quantity(q, field_name)
     elif isinstance(text, str):
-        q = read_value(text, field_name)
+        q = _read_text(text, field_name)
     else:
         raise UnitInputError(f"{field_name}: got {text!r} ({type(text).__name__}); expected a value with a unit such as '84 in'")
     if expected is not None:
         _require_dimension(q, expected, field_name, text)
     return q
+
+
+#: Value text -> its quantity, successes only (a refusal names the field of each call). A copy is
+#: handed out: a Quantity is mutable (``ito``). Bounded: cleared when full.
+_READ: dict[str, pint.Quantity] = {}
+_READ_MAX = 4_096
+
+
+def _read_text(text: str, field_name: str) -> pint.Quantity:
+    hit = _READ.get(text)
+    if hit is None:
+        hit = read_value(text, field_name)
+        if len(_READ) >= _READ_MAX:
+            _READ.clear()
+        _READ[text] = hit
+    return copy.copy(hit)
 
 
 def _finite(x: numbers.Real, field_name: str) -> float:

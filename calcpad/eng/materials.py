@@ -103,6 +103,18 @@ def _all() -> dict[str, Material]:
     return {**_catalog(), **_USER}
 
 
+_INDEX: dict[str, Material] = {}
+
+
+def _index() -> dict[str, Material]:
+    """Normalised name and alias -> material; made once, again after a material is registered."""
+    if not _INDEX:
+        for m in _all().values():
+            for a in (m.name, *m.aliases):
+                _INDEX.setdefault(_norm(a), m)
+    return _INDEX
+
+
 def material_names() -> list[str]:
     """Names of all catalog and registered materials."""
     return [m.name for m in _all().values()]
@@ -125,12 +137,7 @@ def get_material(name: str | Material, shape: str | None = None) -> Material:
     if shape is not None and shape not in ("round", "shaped"):
         raise InputError(f"shape: {shape!r}; expected 'round' or 'shaped' (square/rectangular)")
     key = _norm(name) + (_norm(shape) if shape else "")
-    mats = _all()
-    names = {m.name: m for m in mats.values()}
-    index: dict[str, Material] = {}
-    for m in mats.values():
-        for a in (m.name, *m.aliases):
-            index.setdefault(_norm(a), m)
+    index = _index()
     if key in index:
         return index[key]
     starts = {m.name: m for a, m in index.items() if a.startswith(key)}
@@ -141,7 +148,8 @@ def get_material(name: str | Material, shape: str | None = None) -> Material:
                          "expected a more precise name, e.g. with 'round' or 'shaped' for A500")
     hits = difflib.get_close_matches(key, list(index), n=5, cutoff=0.5)
     sugg = list(dict.fromkeys(index[h].name for h in hits))[:3]
-    hint = f"did you mean {', '.join(map(repr, sugg))}?" if sugg else f"expected one of {', '.join(sorted(names))}"
+    names = sorted({m.name for m in _all().values()})
+    hint = f"did you mean {', '.join(map(repr, sugg))}?" if sugg else f"expected one of {', '.join(names)}"
     raise InputError(f"material: {name!r} is not in the catalog; {hint}")
 
 
@@ -227,4 +235,5 @@ def register_material(material: Material, aliases: tuple[str, ...] = ()) -> Mate
         raise InputError(f"material: {material!r}; expected a Material from define_material()")
     m = Material(**{**material.__dict__, "aliases": tuple(material.aliases) + tuple(aliases)})
     _USER[_norm(m.name)] = m
+    _INDEX.clear()  # the next lookup indexes the new material too
     return m

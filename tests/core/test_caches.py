@@ -8,6 +8,8 @@ formulas themselves.
 
 from __future__ import annotations
 
+import re
+
 import pytest
 
 from calcpad import Sheet
@@ -149,3 +151,16 @@ def test_each_sheet_keeps_its_own_values_when_a_caller_changes_one_in_place():
     c.set(L=span)
     span.ito("inch")
     assert c["L"].units == ureg.ft and c["L"].magnitude == 10.0
+
+
+def test_value_text_cache_hands_out_copies_and_never_keeps_a_refusal():
+    from calcpad.core.units import parse_quantity
+
+    first = parse_quantity("84 in", "given 'L'")
+    first.ito("ft")  # 84 in = 7 ft (unit fact)
+    assert first.magnitude == 7
+    again = parse_quantity("84 in", "given 'H'")
+    assert again.magnitude == 84 and again.units == ureg.inch
+    for field in ("given 'L'", "calcs[2].inputs.L"):
+        with pytest.raises(UnitInputError, match=re.escape(field)):
+            parse_quantity("84 inn", field)

@@ -89,9 +89,12 @@ def test_user_material_same_form():
     assert m.E == pytest.approx(29007.5, rel=1e-4)  # 200 GPa in ksi
     assert m.G == pytest.approx(m.E / 2.6)  # E/(2(1+nu)), nu = 0.3
     assert m.density == pytest.approx(490.06, rel=1e-3)
+    get_material("A36")  # the name index is made before the registration ...
     register_material(m, aliases=("HA55",))
-    assert get_material("ha55") == get_material("Harbor alloy 55")
+    assert get_material("ha55") == get_material("Harbor alloy 55")  # ... and finds the new material after it
     assert "Harbor alloy 55" in material_names()
+    register_material(define_material("Harbor alloy 55", "60 ksi", 75, source="mill cert 1235"), aliases=("HA55",))
+    assert get_material("HA55").Fy == 60  # a redefinition replaces the old values
 
 
 @pytest.mark.parametrize(
