@@ -27,6 +27,8 @@ from calcpad.core.errors import CalcpadError
 __all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "progress_bar", "run_calcs_on_cluster", "search_on_cluster", "split"]
 
 RETRIES = 2
+#: Most calcs in one batch chunk (fewer when that leaves under four chunks per worker).
+CHUNK_CALCS = 100
 
 
 @dataclass
@@ -149,13 +151,20 @@ def _run_calcs(calcs: list[Any], units: str, text: bool = False) -> list[Any]:
     return [run_calc_inprocess(c, text=text) for c in calcs]
 
 
-def _run_chunk(task: Callable[[list[Any], str], list[Any]], shop_table: Any, calcs: list[Any], units: str) -> list[dict[str, Any]]:
+def _run_chunk(task: Callable[[list[Any], str], list[Any]], shop_table: Any, calcs: list[Any], units: str,
+               templates: dict[int, Any] | None = None) -> list[dict[str, Any]]:
     """Worker side: ``task`` with the job's own section table in use (a worker is another process:
     the table the job named must travel with the chunk). Each outcome comes back without its
     calc (the client has it): the calc holds the template, whose compiled cells and parameter
-    quantities would otherwise be pickled back with every chunk."""
+    quantities would otherwise be pickled back with every chunk.
+
+    ``templates``: the calcs come without their template (``template`` holds a key of this dict):
+    each template was sent to every worker once (``scatter``), so a chunk neither carries nor
+    rebuilds it and the worker's caches keyed by the template's objects stay warm."""
     from calcpad.eng.sections.shop import shop_table_in_use
 
+    if templates is not None:
+        calcs = [dataclasses.replace(c, template=templates[c.template]) for c in calcs]
     with shop_table_in_use(shop_table):
         outcomes = task(calcs, units)
     return [{f.name: getattr(o, f.name) for f in dataclasses.fields(o) if f.init and f.name != "calc"} for o in outcomes]
@@ -174,7 +183,7 @@ def run_calcs_on_cluster(
 
     calcs = list(job.calcs)
     workers = max(1, len(client.scheduler_info().get("workers", {})) or 1)
-    size = chunk_calcs or max(1, min(25, math.ceil(len(calcs) / (4 * workers))))
+    size = chunk_calcs or max(1, min(CHUNK_CALCS, math.ceil(len(calcs) / (4 * workers))))
     ranges = [(a, min(a + size, len(calcs))) for a in range(0, len(calcs), size)]
 
     def describe(i: int) -> str:
@@ -192,7 +201,14 @@ def run_calcs_on_cluster(
                     progress(o)
 
     run = functools.partial(_run_chunk, task or functools.partial(_run_calcs, text=text), getattr(job, "shop_table", None))
-    _results, failures = map_chunks(client, run, [(calcs[a:b], job.info.units) for a, b in ranges], describe, tick)
+    # each template goes to every worker once; a chunk's calcs name theirs by key
+    keys: dict[int, int] = {}
+    sent: dict[int, Any] = {}
+    for c in calcs:
+        sent[keys.setdefault(id(c.template), len(keys))] = c.template
+    shared = {k: client.scatter(t, broadcast=True, hash=False) for k, t in sent.items()}
+    bare = [dataclasses.replace(c, template=keys[id(c.template)]) for c in calcs]
+    _results, failures = map_chunks(client, run, [(bare[a:b], job.info.units, shared) for a, b in ranges], describe, tick)
     by_chunk = {f.index - 1: f for f in failures}
     outcomes: list[Any] = []
     for i, (a, b) in enumerate(ranges):
