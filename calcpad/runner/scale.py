@@ -206,7 +206,8 @@ def run_calcs_on_cluster(
     sent: dict[int, Any] = {}
     for c in calcs:
         sent[keys.setdefault(id(c.template), len(keys))] = c.template
-    shared = {k: client.scatter(t, broadcast=True, hash=False) for k, t in sent.items()}
+    # one list: scatter() splits a container given alone into one future per item
+    shared = dict(zip(sent, client.scatter(list(sent.values()), broadcast=True, hash=False), strict=True))
     bare = [dataclasses.replace(c, template=keys[id(c.template)]) for c in calcs]
     _results, failures = map_chunks(client, run, [(bare[a:b], job.info.units, shared) for a, b in ranges], describe, tick)
     by_chunk = {f.index - 1: f for f in failures}

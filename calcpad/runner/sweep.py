@@ -242,7 +242,12 @@ def sweep(
             if progress is not None:
                 progress(jobs[i][1][5] - jobs[i][1][4])
 
-        results, failures = map_chunks(client, _chunk, [args for _c, args in jobs], describe, tick)
+        # the template, the grid's axes and the envelope's values go to every worker once (each
+        # chunk would carry them, and rebuild the template, every time)
+        # (in one list: scatter() would split a dict or a list given alone into one future per item)
+        tpl_f, grid_f, env_f = client.scatter([template, grid, env_vals], broadcast=True, hash=False)
+        sent = [(tpl_f, a[1], grid_f, a[3], a[4], a[5], a[6], env_f, a[8]) for _c, a in jobs]
+        results, failures = map_chunks(client, _chunk, sent, describe, tick)
         if failures:
             raise ChunkFailedError(failures)
     checks = list(dict.fromkeys(t for r in results for t in r["checks"]))
