@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import hashlib
 import os
+import pickle
 from pathlib import Path
 
 import pint
@@ -29,7 +30,7 @@ def _cache_folder() -> Path:
 def _make_registry() -> pint.UnitRegistry:
     try:  # parsed definitions cached on disk: ~0.3 s faster start-up
         return pint.UnitRegistry(autoconvert_offset_to_baseunit=True, cache_folder=_cache_folder())
-    except (OSError, EOFError, ValueError):  # an unwritable or damaged cache: parse the files
+    except (OSError, EOFError, ValueError, pickle.UnpicklingError):  # an unwritable or damaged cache: parse the files
         return pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
 
 

@@ -77,6 +77,7 @@ _READ_MAX = 4_096
 
 
 def _read_text(text: str, field_name: str) -> pint.Quantity:
+    """:func:`~calcpad.core.value_text.read_value` of ``text``, read once per text (see :data:`_READ`)."""
     hit = _READ.get(text)
     if hit is None:
         hit = read_value(text, field_name)
