@@ -17,7 +17,7 @@ from calcpad.report.grouping import CalcGroup, group_calcs
 from calcpad.runner.cases import case_key, entry_of, governing_check, governing_member, printed_each
 from calcpad.runner.execute import CalcOutcome
 
-__all__ = ["COMPACT_CSS", "CaseGroup", "marks_text", "print_groups"]
+__all__ = ["COMPACT_CSS", "SHORT_MARKS", "CaseGroup", "print_groups"]
 
 #: Print CSS of the compact member table (three columns of small rows) and a case's member list.
 COMPACT_CSS = (
@@ -64,13 +64,6 @@ class CaseGroup(CalcGroup):
     def label(self) -> str:
         """``Case 3``."""
         return f"Case {self.number}"
-
-
-def marks_text(marks: list[str]) -> str:
-    """The marks joined, shortened past :data:`SHORT_MARKS` (``M1, M2, M3, … (2,000 members)``)."""
-    if len(marks) <= SHORT_MARKS:
-        return ", ".join(marks)
-    return f"{', '.join(marks[:3])}, … ({len(marks):,} members)"
 
 
 def print_groups(outcomes: list[CalcOutcome], compact: bool = True) -> list[CalcGroup]:

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 
 from calcpad.runner.execute import CalcOutcome
 
-__all__ = ["CalcGroup", "group_calcs", "numbers_text"]
+__all__ = ["CalcGroup", "group_calcs", "marks_text", "numbers_text"]
 
 
 @dataclass
@@ -92,3 +92,10 @@ def numbers_text(numbers: list[int]) -> str:
     for run in runs:
         parts.extend([f"{run[0]}–{run[-1]}"] if len(run) >= 3 else [str(n) for n in run])
     return "Calcs " + ", ".join(parts)
+
+
+def marks_text(marks: list[str], limit: int) -> str:
+    """The marks joined; past ``limit`` the first ``limit`` and "and N more"."""
+    if len(marks) <= limit:
+        return ", ".join(marks)
+    return f"{', '.join(marks[:limit])} and {len(marks) - limit:,} more"

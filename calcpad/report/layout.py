@@ -18,8 +18,8 @@ from typing import Any
 from calcpad.core.errors import InputError
 from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
-from calcpad.report.compact import COMPACT_CSS, CaseGroup, marks_text, print_groups
-from calcpad.report.grouping import CalcGroup, numbers_text
+from calcpad.report.compact import COMPACT_CSS, SHORT_MARKS, CaseGroup, print_groups
+from calcpad.report.grouping import CalcGroup, marks_text, numbers_text
 from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
 from calcpad.runner.execute import CalcOutcome, rerun_calc
@@ -71,16 +71,10 @@ def _digest_short(record: dict[str, Any]) -> str:
 HEADING_MARKS = 6
 
 
-def _marks_text(marks: list[str]) -> str:
-    if len(marks) <= HEADING_MARKS:
-        return ", ".join(marks)
-    return f"{', '.join(marks[:HEADING_MARKS])} and {len(marks) - HEADING_MARKS} more"
-
-
 def _heading_text(g: CalcGroup) -> str:
     if isinstance(g, CaseGroup):
         return f"{g.label} · {g.title} — governing member {g.first.calc.member} of {len(g.outcomes):,}"
-    who = f"typical for {_marks_text(g.marks)}" if g.typical else f"member {g.marks[0]}"
+    who = f"typical for {marks_text(g.marks, HEADING_MARKS)}" if g.typical else f"member {g.marks[0]}"
     return f"{numbers_text(g.numbers)} · {g.title} — {who}"
 
 
@@ -212,7 +206,7 @@ def _criteria(c: _Context) -> str:
     for g in c.groups:
         t = g.first.calc.template
         templates.setdefault(t.name, (t.title, []))[1].extend(g.marks)
-    rows = "".join(f"<tr><td><code>{_e(n)}</code></td><td>{_e(t)}</td><td>{_e(marks_text(m))}</td></tr>" for n, (t, m) in templates.items())
+    rows = "".join(f"<tr><td><code>{_e(n)}</code></td><td>{_e(t)}</td><td>{_e(marks_text(m, SHORT_MARKS))}</td></tr>" for n, (t, m) in templates.items())
     typical = [g for g in c.groups if g.typical]
     typ = (
         "<p>Members with the same template, title and inputs are printed once as typical: "
@@ -227,7 +221,7 @@ def _criteria(c: _Context) -> str:
         for s in g.first.sheets:
             for text in s.assumptions:
                 assumed.setdefault(text, {}).update(dict.fromkeys(g.marks))
-    assumptions = "".join(f"<li>{_e(t)} <i>({_e(marks_text(list(m)))})</i></li>" for t, m in assumed.items())
+    assumptions = "".join(f"<li>{_e(t)} <i>({_e(marks_text(list(m), SHORT_MARKS))})</i></li>" for t, m in assumed.items())
     return (
         _h2("criteria", "Design criteria")
         + (f'<h3>Design basis</h3><ul class="basis">{basis}</ul>' if basis else "")

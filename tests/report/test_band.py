@@ -18,8 +18,8 @@ from pathlib import Path
 import pytest
 
 from calcpad.report.band import BAND_PT, ELLIPSIS, _font, box_widths, fit_lines, text_width
-from calcpad.report.grouping import numbers_text
-from calcpad.report.layout import HEADING_MARKS, _marks_text
+from calcpad.report.grouping import marks_text, numbers_text
+from calcpad.report.layout import HEADING_MARKS
 from tests.report.test_pdf import needs_chromium
 from tests.runner.conftest import JOB_HEAD, tiny_calc
 
@@ -76,8 +76,8 @@ def test_calc_numbers_print_runs_as_ranges() -> None:
 
 def test_a_heading_names_a_few_marks_and_counts_the_rest() -> None:
     marks = [f"P{i}" for i in range(1, 11)]
-    assert _marks_text(marks[:HEADING_MARKS]) == ", ".join(marks[:HEADING_MARKS])
-    assert _marks_text(marks) == f"{', '.join(marks[:HEADING_MARKS])} and {10 - HEADING_MARKS} more"
+    assert marks_text(marks[:HEADING_MARKS], HEADING_MARKS) == ", ".join(marks[:HEADING_MARKS])
+    assert marks_text(marks, HEADING_MARKS) == f"{', '.join(marks[:HEADING_MARKS])} and {10 - HEADING_MARKS} more"
 
 
 def _words(pdf: Path) -> list[list[tuple[str, float, float, float, float]]]:
