@@ -22,6 +22,7 @@ from calcpad.report.compact import COMPACT_CSS, SHORT_MARKS, CaseGroup, print_gr
 from calcpad.report.grouping import CalcGroup, marks_text, numbers_text
 from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
+from calcpad.runner.cases import governing_check
 from calcpad.runner.execute import CalcOutcome, rerun_calc
 from calcpad.runner.job import Job, print_mode
 from calcpad.runner.members import results_stems
@@ -76,11 +77,6 @@ def _heading_text(g: CalcGroup) -> str:
         return f"{g.label} · {g.title} — governing member {g.first.calc.member} of {len(g.outcomes):,}"
     who = f"typical for {marks_text(g.marks, HEADING_MARKS)}" if g.typical else f"member {g.marks[0]}"
     return f"{numbers_text(g.numbers)} · {g.title} — {who}"
-
-
-def _governing(checks: list[dict[str, Any]]) -> dict[str, Any] | None:
-    """The check with the highest ratio (one without a ratio counts as the highest)."""
-    return max(checks, key=lambda c: c["ratio"] if c["ratio"] is not None else float("inf")) if checks else None
 
 
 def _status_mark(status: str) -> str:
@@ -239,7 +235,7 @@ def _summary(c: _Context) -> Iterator[str]:
     yield _h2("summary", "Summary of checks") + f'<table class="list"><thead>{head}</thead><tbody>'
     for g in c.printed:
         for o in [g.first] if isinstance(g, CaseGroup) else g.outcomes:  # a case: its governing member
-            gov = _governing(o.checks)
+            gov = governing_check(o.checks)
             cls = ' class="ng"' if o.status != "OK" else ""
             if o.error is not None:
                 check = f"calc failed to run (cell {o.error.get('cell')})"
@@ -255,7 +251,7 @@ def _summary(c: _Context) -> Iterator[str]:
 
 
 def _member_table_row(o: CalcOutcome, g: CalcGroup, design: bool) -> str:
-    gov = _governing(o.checks)
+    gov = governing_check(o.checks)
     res = (o.calc.design or {}).get("result")
     chosen = (res or {}).get("chosen") or {}
     runner = (res or {}).get("runner_up") or {}
@@ -298,7 +294,7 @@ def _compact_member_table(members: list[tuple[CalcOutcome, CalcGroup]], design: 
     yield f'<table class="list"><thead>{head}</thead><tbody>'
     for g in cases:
         o = g.first
-        gov = _governing(o.checks)
+        gov = governing_check(o.checks)
         params = o.calc.template.parameters
         words = ", ".join(f"{n} = {v}" for n, v in o.calc.inputs.items() if n in params and params[n].kind == "text" and n != "member_mark")
         check = gov["name"] if gov else f"calc failed to run (cell {o.error.get('cell')})" if o.error else "(no checks)"
@@ -310,7 +306,7 @@ def _compact_member_table(members: list[tuple[CalcOutcome, CalcGroup]], design: 
     head = "<tr><th>Member</th><th>Row</th>" + ("<th>Size</th>" if design else "") + "<th>Ratio</th><th>Status</th><th>Case</th></tr>"
     yield f'<div class="members-compact"><table><thead>{head}</thead><tbody>'
     for o, g in sorted(members, key=lambda m: m[0].calc.number):
-        gov = _governing(o.checks)
+        gov = governing_check(o.checks)
         chosen = ((o.calc.design or {}).get("result") or {}).get("chosen") or {}
         size = f"<td>{_e(chosen.get('designation', ''))}</td>" if design else ""
         cls = ' class="ng"' if o.status != "OK" else ""
@@ -373,7 +369,7 @@ def _sheets_to_print(g: CalcGroup, mode: str) -> tuple[list[dict[str, Any]], str
     sheets = g.first.sheets
     if mode != "summary" or len(sheets) <= 1:
         return sheets, ""
-    gov = _governing(g.first.checks)
+    gov = governing_check(g.first.checks)
     chosen = next((s for s in sheets if gov and s.title == gov["sheet"]), sheets[0])
     note = f"Summary print: the governing sheet only ({chosen.title}; 1 of {len(sheets)} sheets). The full submittal prints every sheet."
     return [chosen], note
