@@ -14,6 +14,7 @@ import pint
 import sympy as sp
 
 from calcpad.core.errors import DimensionError, NonFiniteError, SheetError
+from calcpad.core.quick_eval import learn, quick
 from calcpad.core.units import Q_, format_number, kind_of, unit_symbol, ureg
 
 __all__ = ["describe_inputs", "evaluate_condition", "evaluate_expr", "is_finite", "non_finite_error"]
@@ -79,12 +80,19 @@ def evaluate_expr(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str = 
 
 
 def _quiet_eval(expr: sp.Basic, env: Mapping[str, pint.Quantity], step: str) -> pint.Quantity:
-    """Evaluate without numpy warnings; NaN and infinity are checked by the caller."""
+    """Evaluate without numpy warnings; NaN and infinity are checked by the caller. A formula met
+    before with inputs in the same units is worked in plain floats (:mod:`calcpad.core.quick_eval`:
+    the same numbers, checked against pint once); other numbers go through pint."""
+    value = quick(expr, env)
+    if value is not None:
+        return value
     try:
         with np.errstate(all="ignore"):
-            return _as_q(_eval(expr, env, step))
+            value = _as_q(_eval(expr, env, step))
     except OverflowError:
         raise NonFiniteError(f"step {step!r}: a value is too large to represent (overflow); inputs: {describe_inputs(env)}") from None
+    learn(expr, env, value)
+    return value
 
 
 def _as_q(v: object) -> pint.Quantity:

@@ -5,6 +5,7 @@ Import it as :data:`calcpad.core.units.ureg` (re-exported there); no second regi
 
 from __future__ import annotations
 
+import copy
 import hashlib
 import os
 import pickle
@@ -12,7 +13,7 @@ from pathlib import Path
 
 import pint
 
-__all__ = ["Q_", "Quantity", "ureg"]
+__all__ = ["Q_", "Quantity", "copy_quantity", "ureg"]
 
 
 def _cache_folder() -> Path:
@@ -46,3 +47,16 @@ ureg.define("kipf = kip")  # alias some engineers type
 
 Q_ = ureg.Quantity
 Quantity = pint.Quantity
+
+
+def copy_quantity(q: pint.Quantity) -> pint.Quantity:
+    """A copy of ``q`` that changing in place (``ito``) leaves ``q`` alone: a new Quantity object
+    with the same units and a copy of an array magnitude (a scalar is immutable, shared). The
+    same object ``copy.copy`` makes, without pint's constructor checks (a value is copied on
+    every read of a sheet)."""
+    new = object.__new__(type(q))
+    new.__dict__.update(q.__dict__)
+    mag = q._magnitude
+    if not isinstance(mag, (float, int)):
+        new._magnitude = copy.copy(mag)
+    return new

@@ -13,7 +13,6 @@ downstream of it.
 
 from __future__ import annotations
 
-import copy
 import difflib
 import hashlib
 import importlib
@@ -32,6 +31,7 @@ from calcpad.core.figure_png import figure_png
 from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_from_sympy, parse_condition, parse_formula
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
+from calcpad.core.registry import copy_quantity
 from calcpad.core.results import (
     EXISTING_NG,
     EXISTING_OK,
@@ -122,7 +122,7 @@ _EXACT = (float, int, np.float64)
 
 def _own(q: pint.Quantity) -> pint.Quantity:
     """A copy of a Quantity the caller handed in: changing theirs later (``ito``) leaves the sheet's."""
-    return copy.copy(q)
+    return copy_quantity(q)
 
 
 def _value_key(expr: Any, env: Mapping[str, pint.Quantity], unit: Any, prefs: DisplayPrefs) -> tuple[Any, ...] | None:
@@ -632,7 +632,7 @@ class Sheet:
         hit = _VALUES.get(key) if key is not None else None
         if hit is not None and hit[0] is formula.expr:
             # copies: a Quantity is mutable (``ito``), and each sheet's values are its own
-            value, shown = copy.copy(hit[1]), copy.copy(hit[2])
+            value, shown = copy_quantity(hit[1]), copy_quantity(hit[2])
             self._values[name], self._shown[name] = value, shown
         else:
             value = evaluate_expr(formula.expr, env, name)
@@ -641,7 +641,7 @@ class Sheet:
                 if len(_VALUES) >= _VALUES_MAX:
                     _VALUES.clear()
                 # keeps the expression (and its id) alive; stores copies so no sheet shares them
-                _VALUES[key] = (formula.expr, copy.copy(value), copy.copy(shown))
+                _VALUES[key] = (formula.expr, copy_quantity(value), copy_quantity(shown))
         sigs = {n: self._sig(self._defs[n]) for n in formula.names}
         return FormulaResult(name, formula.expr, env, shown, step.description, step.ref, self._sig(step), sigs, getattr(step, "quiet", False))
 
@@ -650,7 +650,7 @@ class Sheet:
             value = step.value
             self._values[step.name] = value
             shown = value
-            if value.dimensionless and str(value.units) == "dimensionless":
+            if not value._units:  # no unit at all (pint's "dimensionless"): a plain number
                 shown = Q_(float(value.magnitude), "")
             self._shown[step.name] = shown
             return GivenResult(step.name, shown, step.description, step.source, self._sig(step))
@@ -776,7 +776,7 @@ class Sheet:
         self._compute()
         if name not in self._shown:
             raise KeyError(f"{name!r} is not a name in sheet {self.title!r}{self._did_you_mean(name)}")
-        return copy.copy(self._shown[name])  # the caller may change it (``ito``); the sheet's stays
+        return copy_quantity(self._shown[name])  # the caller may change it (``ito``); the sheet's stays
 
     def __contains__(self, name: str) -> bool:
         return name in self._defs

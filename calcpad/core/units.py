@@ -8,7 +8,6 @@ goes through :func:`parse_quantity` / :func:`parse_unit`, which read it with the
 
 from __future__ import annotations
 
-import copy
 import functools
 import math
 import numbers
@@ -20,7 +19,7 @@ import numpy as np
 import pint
 
 from calcpad.core.errors import UnitInputError
-from calcpad.core.registry import Q_, Quantity, ureg
+from calcpad.core.registry import Q_, Quantity, copy_quantity, ureg
 from calcpad.core.value_text import ACCEPTED_FORMS, read_unit, read_value
 
 __all__ = [
@@ -84,7 +83,7 @@ def _read_text(text: str, field_name: str) -> pint.Quantity:
         if len(_READ) >= _READ_MAX:
             _READ.clear()
         _READ[text] = hit
-    return copy.copy(hit)
+    return copy_quantity(hit)
 
 
 def _finite(x: numbers.Real, field_name: str) -> float:
@@ -239,8 +238,14 @@ def unit_system_of(unit: pint.Unit | str) -> str | None:
     """
     if isinstance(unit, str):
         unit = ureg.parse_units(unit)
+    return _system_of(unit._units)
+
+
+@functools.lru_cache(maxsize=1024)
+def _system_of(units: Any) -> str | None:
+    """:func:`unit_system_of` by the unit's items (a shown value asks it for every result)."""
     found = set()
-    for name in unit._units:
+    for name in units:
         base = ureg.parse_unit_name(name)
         base_name = base[0][1] if base else name
         if base_name in _US_UNIT_NAMES:
