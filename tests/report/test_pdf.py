@@ -198,3 +198,26 @@ def test_failing_chromium_leaves_no_pdf_and_says_why(tmp_path: Path, tiny_env: P
     assert main(["run", "tiny", "--out", str(out)]) == 0
     assert sorted(p.name for p in (out / "rev-draft").iterdir()) == ["record.json", "submittal.html"]  # no temporary file left either
     assert "submittal.pdf not written: Chromium exited with code 1 and wrote no PDF" in capsys.readouterr().err
+
+
+@needs_chromium
+def test_the_example_submittal_is_a_tagged_pdf(printed: dict[str, Any]) -> None:
+    # a structure tree (headings, tables) for screen readers: PDF 1.7 (ISO 32000-1) 14.7, /StructTreeRoot
+    assert b"/StructTreeRoot" in (printed["out"] / "submittal.pdf").read_bytes()
+
+
+@needs_chromium
+def test_a_submittal_of_very_many_rows_prints_untagged_and_says_so(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    from calcpad.report import pdf as pdf_module
+
+    rows = "".join(f"<tr><td>M{i}</td><td>0.{i:03d}</td></tr>" for i in range(40))
+    html = tmp_path / "submittal.html"
+    html.write_text(f"<!doctype html><html><body><h1>Members</h1><table>{rows}</table></body></html>", encoding="utf-8")
+    tagged = pdf_module.write_pdf(html, tmp_path / "tagged.pdf", chromium=CHROMIUM)
+    assert tagged.written and "without accessibility tags" not in tagged.message
+    assert b"/StructTreeRoot" in (tmp_path / "tagged.pdf").read_bytes()
+    monkeypatch.setattr(pdf_module, "TAGGED_ROWS_MAX", 39)  # 40 rows: one too many
+    untagged = pdf_module.write_pdf(html, tmp_path / "untagged.pdf", chromium=CHROMIUM)
+    assert untagged.written and "without accessibility tags (40 table rows" in untagged.message
+    assert b"/StructTreeRoot" not in (tmp_path / "untagged.pdf").read_bytes()
+    assert page_texts(tmp_path / "untagged.pdf") == page_texts(tmp_path / "tagged.pdf")  # the same pages
