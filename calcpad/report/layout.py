@@ -18,7 +18,7 @@ from typing import Any
 from calcpad.core.errors import InputError
 from calcpad.core.results import status_ok
 from calcpad.render.html import CAUTION, CSS
-from calcpad.report.compact import COMPACT_CSS, SHORT_MARKS, CaseGroup, print_groups
+from calcpad.report.compact import COLUMN_ROWS, COMPACT_CSS, SHORT_MARKS, CaseGroup, print_groups
 from calcpad.report.grouping import CalcGroup, marks_text, numbers_text
 from calcpad.report.styles import band_css, page_css
 from calcpad.report.toc import TOC_END
@@ -304,15 +304,17 @@ def _compact_member_table(members: list[tuple[CalcOutcome, CalcGroup]], design: 
                f'<td class="num"><span class="toc-page" data-ref="{g.anchor}" data-find="{_e(_heading_text(g))}"></span></td></tr>')
     yield "</tbody></table>"
     head = "<tr><th>Member</th><th>Row</th>" + ("<th>Size</th>" if design else "") + "<th>Ratio</th><th>Status</th><th>Case</th></tr>"
-    yield f'<div class="members-compact"><table><thead>{head}</thead><tbody>'
-    for o, g in sorted(members, key=lambda m: m[0].calc.number):
+    yield '<div class="members-compact">'
+    for k, (o, g) in enumerate(sorted(members, key=lambda m: m[0].calc.number)):
+        if k % COLUMN_ROWS == 0:
+            yield ("</tbody></table>" if k else "") + f"<table><thead>{head}</thead><tbody>"
         gov = governing_check(o.checks)
         chosen = ((o.calc.design or {}).get("result") or {}).get("chosen") or {}
         size = f"<td>{_e(chosen.get('designation', ''))}</td>" if design else ""
         cls = ' class="ng"' if o.status != "OK" else ""
         yield (f'<tr{cls}><td>{_e(o.calc.member)}</td><td class="num">{o.calc.row}</td>{size}<td class="num">{_ratio(gov["ratio"] if gov else None)}</td>'
                f"<td>{_status_mark(o.status)}</td><td>{_e(_case_cell(g))}</td></tr>")
-    yield "</tbody></table></div>"
+    yield ("</tbody></table>" if members else "") + "</div>"
 
 
 def _member_tables(c: _Context) -> Iterator[str]:

@@ -11,6 +11,7 @@ from typing import Any
 
 import pytest
 
+from calcpad.report.compact import COLUMN_ROWS, COMPACT_CSS
 from calcpad.report.layout import submittal_html
 from calcpad.runner.cases import PRINT_EACH
 from calcpad.runner.execute import run_job
@@ -87,6 +88,18 @@ def test_submittal_prints_one_calc_per_governing_case(large: Any) -> None:
     for o in plain:  # every member in the compact table with its governing ratio
         assert re.search(rf"<tr[^>]*><td>{o.calc.member}</td><td class=\"num\">{o.calc.row}</td><td class=\"num\">"
                          rf"{_governing(o)[1]['ratio']:.3f}</td>", page)
+
+
+def test_compact_table_is_one_table_per_column_each_with_its_header(large: Any) -> None:
+    job, plain, spooled = large
+    page = submittal_html(job, spooled, job_record(job, spooled, "inprocess", 0.0))
+    block = page.split('<div class="members-compact">', 1)[1].split("</div>", 1)[0]
+    tables = re.findall(r"<table><thead>(.*?)</thead><tbody>(.*?)</tbody></table>", block)
+    assert "".join(f"<table><thead>{h}</thead><tbody>{b}</tbody></table>" for h, b in tables) == block  # nothing else
+    counts = [b.count("<tr") for _h, b in tables]
+    assert counts == [COLUMN_ROWS] * (len(plain) // COLUMN_ROWS) + ([len(plain) % COLUMN_ROWS] if len(plain) % COLUMN_ROWS else [])
+    assert all(h.startswith("<tr><th>Member</th><th>Row</th>") for h, _b in tables)
+    assert "break-inside: avoid" in COMPACT_CSS.split(".members-compact table", 1)[1].split("}", 1)[0]
 
 
 def test_one_member_printed_on_request_is_worked_again(large: Any) -> None:
