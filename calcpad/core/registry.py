@@ -6,14 +6,16 @@ Import it as :data:`calcpad.core.units.ureg` (re-exported there); no second regi
 from __future__ import annotations
 
 import copy
+import functools
 import hashlib
 import os
 import pickle
 from pathlib import Path
+from typing import Any
 
 import pint
 
-__all__ = ["Q_", "Quantity", "copy_quantity", "ureg"]
+__all__ = ["Q_", "Quantity", "base_factor", "conversion_factor", "copy_quantity", "ureg"]
 
 
 def _cache_folder() -> Path:
@@ -60,3 +62,24 @@ def copy_quantity(q: pint.Quantity) -> pint.Quantity:
     if not isinstance(mag, (float, int)):
         new._magnitude = copy.copy(mag)
     return new
+
+
+@functools.lru_cache(maxsize=4096)
+def conversion_factor(src: Any, dst: Any) -> float | None:
+    """What pint multiplies a magnitude by to convert from the units container ``src`` to
+    ``dst`` (its ``convert`` is ``value * factor`` for multiplicative units), None when the two
+    are equal (pint leaves the value as it is). Raises pint's DimensionalityError, and
+    ValueError for offset units (their conversion is not a factor)."""
+    if src == dst:
+        return None
+    for units in (src, dst):
+        if Q_(1.0, units)._get_non_multiplicative_units():
+            raise ValueError(f"{units} is an offset unit: no conversion factor")
+    return float(ureg.convert(1.0, src, dst))
+
+
+@functools.lru_cache(maxsize=4096)
+def base_factor(src: Any) -> float | None:
+    """:func:`conversion_factor` from ``src`` to its base units (``to_base_units``); None for
+    units already in base units. Raises ValueError for offset units."""
+    return conversion_factor(src, Q_(1.0, src).to_base_units()._units)

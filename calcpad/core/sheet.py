@@ -31,7 +31,7 @@ from calcpad.core.figure_png import figure_png
 from calcpad.core.formula import CONSTANTS, RESERVED_NAMES, Formula, formula_from_sympy, parse_condition, parse_formula
 from calcpad.core.names import is_valid_name
 from calcpad.core.quantity_eval import evaluate_condition, evaluate_expr, is_finite, non_finite_error
-from calcpad.core.registry import copy_quantity
+from calcpad.core.registry import base_factor, conversion_factor, copy_quantity
 from calcpad.core.results import (
     EXISTING_NG,
     EXISTING_OK,
@@ -118,6 +118,38 @@ def calc_heading(what: str, title: str = "", mark: str = "", part: str = "") -> 
 _VALUES: dict[tuple[Any, ...], tuple[Any, pint.Quantity, pint.Quantity]] = {}
 _VALUES_MAX = 5_000
 _EXACT = (float, int, np.float64)
+
+
+def _in_base(q: pint.Quantity) -> Any:
+    """``q.to_base_units().magnitude``, by the units' factor (the same number: pint multiplies by it)."""
+    try:
+        f = base_factor(q._units)
+    except ValueError:  # an offset unit
+        return q.to_base_units().magnitude
+    return q._magnitude if f is None else q._magnitude * f
+
+
+def _in_unit(q: pint.Quantity, unit: pint.Unit) -> Any:
+    """``q.to(unit).magnitude`` by the units' factor (a table column converts every cell)."""
+    try:
+        f = conversion_factor(q._units, unit._units)
+    except ValueError:
+        return q.to(unit).magnitude
+    return q._magnitude if f is None else q._magnitude * f
+
+
+#: Text of a value's units as ``str(q.units)`` prints it, by the units in order (digests).
+_UNIT_TEXT: dict[tuple[Any, ...], str] = {}
+
+
+def _unit_text(q: pint.Quantity) -> str:
+    key = tuple(q._units.items())
+    text = _UNIT_TEXT.get(key)
+    if text is None:
+        text = str(q.units)
+        if len(_UNIT_TEXT) < 4096:
+            _UNIT_TEXT[key] = text
+    return text
 
 
 def _own(q: pint.Quantity) -> pint.Quantity:
@@ -457,8 +489,8 @@ class Sheet:
             dims = {v.dimensionality for v in cells}
             if len(dims) != 1:
                 return _column_scale(rows, j), None, None
-            unit = self.prefs.unit_for(max(cells, key=lambda v: abs(float(v.to_base_units().magnitude))))
-            mags = [abs(float(v.to(unit).magnitude)) for v in cells]
+            unit = self.prefs.unit_for(max(cells, key=lambda v: abs(float(_in_base(v)))))
+            mags = [abs(float(_in_unit(v, unit))) for v in cells]
         elif any(isinstance(v, pint.Quantity) for v in cells):
             return _column_scale(rows, j), None, None
         else:
@@ -766,7 +798,7 @@ class Sheet:
         if self._digest is None:
             h = hashlib.sha256()
             for g in self.givens():
-                h.update(f"{g.name}={g.value.magnitude!r} {g.value.units}\n".encode())
+                h.update(f"{g.name}={g.value.magnitude!r} {_unit_text(g.value)}\n".encode())
             self._digest = h.hexdigest()
         return self._digest
 

@@ -312,10 +312,10 @@ class DisplayPrefs:
         return ureg.parse_units(ladder[-1][0])
 
 
-def unit_symbol(unit: pint.Unit | str, style: str = "text") -> str:
+def unit_symbol(unit: pint.Unit | pint.Quantity | str, style: str = "text") -> str:
     """Abbreviated unit in the author's order: ``kip·ft``, ``in⁴`` (text), ``kip \\cdot ft`` (latex).
 
-    ``style`` is one of ``"text"`` (Unicode), ``"ascii"``, ``"latex"``.
+    ``unit`` may be a quantity (its units). ``style`` is one of ``"text"`` (Unicode), ``"ascii"``, ``"latex"``.
     """
     # the key keeps the units' order: kip·ft and ft·kip are equal units printed differently
     key = (unit if isinstance(unit, str) else tuple(unit._units.items()), style)

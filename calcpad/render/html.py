@@ -86,7 +86,7 @@ def _value_key(q: Any) -> tuple[Any, ...] | None:
     m = getattr(q, "magnitude", None)
     if type(m) not in (float, int, np.float64):  # a numpy float's repr is exact too (and differs from float's)
         return None
-    return (repr(m), q.units._units)
+    return (repr(m), q._units)  # the units' container (``q.units`` builds a Unit object each time)
 
 
 def _row_key(step: object) -> tuple[Any, ...] | None:

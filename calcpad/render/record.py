@@ -34,7 +34,7 @@ RECORD_FORMAT = "calcpad-record/1"
 
 def quantity_record(q: pint.Quantity) -> dict[str, Any]:
     """``{"value": 1.75, "unit": "kip*ft"}``."""
-    return {"value": float(q.magnitude), "unit": unit_symbol(q.units, "ascii")}
+    return {"value": float(q.magnitude), "unit": unit_symbol(q, "ascii")}  # reads q's units (no Unit object made)
 
 
 def sheet_record(result: SheetResult) -> dict[str, Any]:

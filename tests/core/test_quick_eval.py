@@ -18,7 +18,7 @@ from calcpad.core import quick_eval
 from calcpad.core.errors import DimensionError, NonFiniteError, SheetError
 from calcpad.core.formula import parse_formula
 from calcpad.core.quantity_eval import _eval, evaluate_expr
-from calcpad.core.registry import Q_, copy_quantity
+from calcpad.core.registry import Q_, base_factor, conversion_factor, copy_quantity
 
 
 @pytest.fixture(autouse=True)
@@ -146,3 +146,21 @@ def test_a_plain_number_to_a_computed_power_is_planned_like_pint() -> None:
             assert got is not None and got.magnitude == oracle.magnitude and got._units == oracle._units
         else:
             assert got is None  # other units: another plan, learnt when pint has evaluated it once
+
+
+@pytest.mark.parametrize(("src", "dst"), [("kip*ft", "lbf*in"), ("in**4", "mm**4"), ("psf", "kPa"), ("ksi", "ksi"),
+                                          ("inch/foot", ""), ("degree", "radian"), ("kip/in", "N/m")])
+def test_conversion_factor_converts_as_pint_does(src: str, dst: str) -> None:
+    rng = random.Random(11)
+    for _ in range(20):
+        q = Q_(rng.uniform(-1e4, 1e4), src)
+        target = Q_(1.0, dst)
+        f = conversion_factor(q._units, target._units)
+        assert (q.magnitude if f is None else q.magnitude * f) == q.to(target.units).magnitude  # pint, bit for bit
+        b = base_factor(q._units)
+        assert (q.magnitude if b is None else q.magnitude * b) == q.to_base_units().magnitude
+
+
+def test_offset_units_have_no_conversion_factor() -> None:
+    with pytest.raises(ValueError, match="offset unit"):
+        conversion_factor(Q_(1.0, "degF")._units, Q_(1.0, "degC")._units)

@@ -11,6 +11,7 @@ sheet in full (:func:`check_member`), after a table of the governing ratio of ev
 
 from __future__ import annotations
 
+import functools
 import threading
 import warnings
 from collections.abc import Sequence
@@ -67,7 +68,14 @@ def frame_member_forces(result: Any, member: str, case: str, n: int = 41) -> Mem
 
 
 def _q(value: float, unit: str) -> pint.Quantity:
-    return Q_(value + 0.0, unit)  # + 0.0: no negative zero in the sheet
+    return Q_(value + 0.0, _units(unit))  # + 0.0: no negative zero in the sheet
+
+
+@functools.lru_cache(maxsize=64)
+def _units(text: str) -> Any:
+    """The units container of a frame's unit text (read once; a Quantity made from the container
+    skips pint's parsing)."""
+    return Q_(1.0, text)._units
 
 
 def _sign(q: pint.Quantity) -> int:
