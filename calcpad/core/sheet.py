@@ -138,6 +138,8 @@ def _in_unit(q: pint.Quantity, unit: pint.Unit) -> Any:
     return q._magnitude if f is None else q._magnitude * f
 
 
+_NO_UNITS = Q_(1.0, "")._units
+
 #: Text of a value's units as ``str(q.units)`` prints it, by the units in order (digests).
 _UNIT_TEXT: dict[tuple[Any, ...], str] = {}
 
@@ -683,7 +685,7 @@ class Sheet:
             self._values[step.name] = value
             shown = value
             if not value._units:  # no unit at all (pint's "dimensionless"): a plain number
-                shown = Q_(float(value.magnitude), "")
+                shown = Q_(float(value.magnitude), _NO_UNITS)  # as Q_(x, ""), without reading "" each time
             self._shown[step.name] = shown
             return GivenResult(step.name, shown, step.description, step.source, self._sig(step))
         if isinstance(step, FormulaStep):
