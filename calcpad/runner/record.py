@@ -60,6 +60,8 @@ import math
 import platform
 from collections.abc import Iterator, Sequence
 from importlib import metadata
+from itertools import chain, compress, repeat
+from json.encoder import c_make_encoder, encode_basestring  # type: ignore[attr-defined]
 from pathlib import Path
 from typing import Any, overload
 
@@ -80,6 +82,7 @@ __all__ = [
     "package_versions",
     "record_chunks",
     "record_digest",
+    "record_layout",
     "record_text",
     "seal",
     "shop_sections_record",
@@ -131,7 +134,7 @@ class SpooledCalcs(Sequence[dict[str, Any]]):
     """The record's ``calcs`` when a run kept them in a spool (:mod:`calcpad.runner.spool`): each
     entry is read back when asked (``calcs[i]``, iteration), and :func:`record_chunks` and
     :func:`record_digest` stream their stored JSON, so a large job never holds every entry.
-    ``entries`` are objects with ``pretty()`` (the entry as ``json.dumps(indent=1)`` prints it
+    ``entries`` are objects with ``pretty()`` (the entry as :func:`record_layout` prints it
     two levels deep in the record) and ``canonical()`` (sorted keys, no spaces)."""
 
     def __init__(self, entries: list[Any]) -> None:
@@ -180,14 +183,118 @@ def record_digest(record: dict[str, Any]) -> str:
     return h.hexdigest()
 
 
+#: Compact JSON as the record file prints a value on one line: json's C encoder (the pure-Python
+#: one where CPython's C accelerator is missing), ``separators=(", ", ": ")``, no NaN/Infinity.
+_ONE_LINE = json.JSONEncoder(ensure_ascii=False, allow_nan=False, separators=(", ", ": "))
+if c_make_encoder is not None:  # one encoder made once: json.dumps would make one per call
+    _C_LINE = c_make_encoder(None, _ONE_LINE.default, encode_basestring, None, ": ", ", ", False, False, False)
+
+    def _one_line(value: Any) -> str:
+        return "".join(_C_LINE(value, 0))
+else:  # pragma: no cover - CPython always has the accelerator
+    _one_line = _ONE_LINE.encode
+#: Containers as the layout sees them (exact types; anything else json prints goes on one line).
+_NESTED = frozenset((dict, list, tuple))
+_DICT, _TEXT = frozenset((dict,)), frozenset((str,))
+#: Containers at most this deep are always opened (the record, its blocks, each calc entry).
+OPEN_DEPTH = 2
+#: A deeper list of texts longer than this in all (a sheet's assumptions) gets one text per line.
+TEXTS_WIDTH = 160
+
+
+def _items(value: Any) -> Any:
+    return value.values() if type(value) is dict else value
+
+
+def _opened(value: Any, depth: int) -> bool:
+    """Whether :func:`record_layout` prints the container ``value`` one item per line: always
+    down to :data:`OPEN_DEPTH`; deeper, when every item is a container (a table of steps, checks,
+    rows), some item holds containers (a sheet record) or it is a list of texts longer than
+    :data:`TEXTS_WIDTH` in all (assumptions); otherwise on one line."""
+    items = _items(value)
+    if not items:
+        return False
+    if depth <= OPEN_DEPTH:
+        return True
+    kinds = set(map(type, items))
+    if kinds <= _NESTED:
+        return True
+    if kinds.isdisjoint(_NESTED):
+        return kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH
+    return not _NESTED.isdisjoint(map(type, chain.from_iterable(map(_items, (i for i in items if type(i) in _NESTED)))))
+
+
+def _one_line_records(items: Any) -> bool:
+    """Whether ``items`` are all dicts that :func:`_opened` prints on one line (below
+    :data:`OPEN_DEPTH`): each empty or holding a non-container, none holding a container of containers."""
+    if set(map(type, items)) != _DICT:
+        return False
+    if _NESTED.isdisjoint(map(type, chain.from_iterable(map(dict.values, items)))):
+        return True  # flat records: steps
+    if not all(not i or not _NESTED.issuperset(map(type, i.values())) for i in items):
+        return False  # a record of containers only (a table itself)
+    values = list(chain.from_iterable(map(dict.values, items)))
+    nested = compress(values, map(_NESTED.__contains__, map(type, values)))
+    return _NESTED.isdisjoint(map(type, chain.from_iterable(map(_items, nested))))
+
+
+def _layout(value: Any, depth: int, out: list[str]) -> None:
+    """Append the opened container ``value`` (``depth`` levels deep) to ``out``."""
+    is_dict = type(value) is dict
+    items = value.values() if is_dict else value
+    inner = "\n" + " " * (depth + 1)
+    if depth >= OPEN_DEPTH and _one_line_records(items):
+        # a table of records, each on one line: one call of the C encoder, then a line break
+        # after each record's closing brace ("}, {" or '}, "' only there when counted once per record)
+        text = _one_line(value)
+        mark = '}, "' if is_dict else "}, {"
+        if text.count(mark) == len(value) - 1:
+            out += (text[0], inner, text[1:-1].replace(mark, "}," + inner + mark[-1]), "\n", " " * depth, text[-1])
+            return
+    out.append("{" if is_dict else "[")
+    sep, depth = inner, depth + 1
+    for key, item in (value.items() if is_dict else zip(repeat(None), value)):
+        head = sep + (encode_basestring(key) if type(key) is str else _key(key)) + ": " if is_dict else sep
+        sep = "," + inner
+        kind = type(item)
+        if kind is str:
+            out.append(head + encode_basestring(item))
+        elif kind in _NESTED and _opened(item, depth):
+            out.append(head)
+            _layout(item, depth, out)
+        else:
+            out.append(head + _one_line(item))
+    out.append(inner[:-1] + ("}" if is_dict else "]"))
+
+
+def _key(key: Any) -> str:
+    """A dict key as json.dumps prints it (a non-text key as its JSON text, quoted)."""
+    return encode_basestring(key if type(key) is str else next(iter(json.loads(_one_line({key: None})))))
+
+
+def record_layout(value: Any, depth: int = 0) -> str:
+    """``value`` as the record file prints it ``depth`` levels deep (first line not indented).
+
+    One space of indent per level, like ``json.dumps(indent=1)``, down to each step, check and
+    table row, which is one line of compact JSON (``separators=(", ", ": ")``, written by json's C
+    encoder), so a diff of two records shows one line per changed step. The record itself, its
+    blocks and each calc entry are always opened (:data:`OPEN_DEPTH`); deeper, see
+    :func:`_opened`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
+    if type(value) in _NESTED and _opened(value, depth):
+        out: list[str] = []
+        _layout(value, depth, out)
+        return "".join(out)
+    return _one_line(value)
+
+
 def record_chunks(record: dict[str, Any]) -> Iterator[str]:
-    """The record file's text in pieces: exactly ``json.dumps(record, indent=1,
-    ensure_ascii=False, allow_nan=False) + "\\n"``, with spooled calcs streamed one at a time."""
+    """The record file's text in pieces: exactly ``record_layout(record) + "\\n"``
+    (:func:`record_layout`), with spooled calcs streamed one at a time."""
     if not record:
         yield "{}\n"
         return
     for i, (key, value) in enumerate(record.items()):
-        yield ("{\n " if i == 0 else ",\n ") + json.dumps(key, ensure_ascii=False) + ": "
+        yield ("{\n " if i == 0 else ",\n ") + _key(key) + ": "
         if isinstance(value, SpooledCalcs):
             if not value.entries:
                 yield "[]"
@@ -196,7 +303,7 @@ def record_chunks(record: dict[str, Any]) -> Iterator[str]:
                 yield ("[\n  " if j == 0 else ",\n  ") + entry.pretty()
             yield "\n ]"
         else:
-            yield json.dumps(value, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n ")
+            yield record_layout(value, 1)
     yield "\n}\n"
 
 
