@@ -60,7 +60,7 @@ import math
 import platform
 from collections.abc import Iterator, Sequence
 from importlib import metadata
-from itertools import chain, compress, repeat
+from itertools import chain, repeat
 from json.encoder import c_make_encoder, encode_basestring  # type: ignore[attr-defined]
 from pathlib import Path
 from typing import Any, overload
@@ -183,73 +183,97 @@ def record_digest(record: dict[str, Any]) -> str:
     return h.hexdigest()
 
 
-#: Compact JSON as the record file prints a value on one line: json's C encoder (the pure-Python
-#: one where CPython's C accelerator is missing), ``separators=(", ", ": ")``, no NaN/Infinity.
+#: Compact JSON as the record file prints a value on one line: ``separators=(", ", ": ")``, no
+#: NaN/Infinity, by json's C encoder made once (``json.dumps`` makes one per call).
 _ONE_LINE = json.JSONEncoder(ensure_ascii=False, allow_nan=False, separators=(", ", ": "))
-if c_make_encoder is not None:  # one encoder made once: json.dumps would make one per call
-    _C_LINE = c_make_encoder(None, _ONE_LINE.default, encode_basestring, None, ": ", ", ", False, False, False)
+_C_LINE = c_make_encoder(None, _ONE_LINE.default, encode_basestring, None, ": ", ", ", False, False, False) if c_make_encoder else None
 
-    def _one_line(value: Any) -> str:
-        return "".join(_C_LINE(value, 0))
-else:  # pragma: no cover - CPython always has the accelerator
-    _one_line = _ONE_LINE.encode
+
+def _one_line(value: Any) -> str:
+    """``value`` as compact JSON on one line (:data:`_ONE_LINE`)."""
+    return "".join(_C_LINE(value, 0)) if _C_LINE is not None else _ONE_LINE.encode(value)
+
+
 #: Containers as the layout sees them (exact types; anything else json prints goes on one line).
 _NESTED = frozenset((dict, list, tuple))
-_DICT, _TEXT = frozenset((dict,)), frozenset((str,))
+_DICT, _SEQS, _TEXT = frozenset((dict,)), frozenset((list, tuple)), frozenset((str,))
 #: Containers at most this deep are always opened (the record, its blocks, each calc entry).
 OPEN_DEPTH = 2
 #: A deeper list of texts longer than this in all (a sheet's assumptions) gets one text per line.
 TEXTS_WIDTH = 160
 
 
-def _items(value: Any) -> Any:
-    return value.values() if type(value) is dict else value
+def _holds_nested(values: Any) -> bool:
+    """Whether a container among ``values`` (other values are skipped) holds a container."""
+    for v in values:
+        kind = type(v)
+        if kind is dict:
+            if not _NESTED.isdisjoint(map(type, v.values())):
+                return True
+        elif kind in _SEQS and not _NESTED.isdisjoint(map(type, v)):
+            return True
+    return False
 
 
-def _opened(value: Any, depth: int) -> bool:
-    """Whether :func:`record_layout` prints the container ``value`` one item per line: always
-    down to :data:`OPEN_DEPTH`; deeper, when every item is a container (a table of steps, checks,
-    rows), some item holds containers (a sheet record) or it is a list of texts longer than
-    :data:`TEXTS_WIDTH` in all (assumptions); otherwise on one line."""
-    items = _items(value)
+def _one_line_record(record: dict[Any, Any]) -> bool:
+    """Whether a dict below :data:`OPEN_DEPTH` prints on one line: empty or holding a
+    non-container, and no container of containers."""
+    values = record.values()
+    return not (values and _NESTED.issuperset(map(type, values))) and not _holds_nested(values)
+
+
+def _records_text(value: Any, items: Any) -> str | None:
+    """The one-line text of ``value`` when its ``items`` (all dicts) each print on one line, else None.
+
+    The text comes first (json's C encoder, needed anyway) and its brackets are counted: one per
+    record and per container a record holds (none in a text) proves there is nothing deeper
+    without looking at every value; otherwise each record is looked at."""
+    if not _one_line_record(next(iter(items))):  # the first record tells a table of sheets early
+        return None
+    text = _one_line(value)
+    braces, brackets = text.count("{"), text.count("[")
+    own = type(value) is dict
+    if braces == len(value) + own and brackets == 1 - own:
+        return text  # flat records (steps) and no bracket in any text
+    kinds = list(map(type, chain.from_iterable(map(dict.values, items))))
+    inner = kinds.count(list) + kinds.count(tuple)
+    if braces == len(value) + own + kinds.count(dict) and brackets == 1 - own + inner:
+        return text if all(not r or not _NESTED.issuperset(map(type, r.values())) for r in items) else None
+    return text if all(map(_one_line_record, items)) else None  # a bracket in a text
+
+
+#: What :func:`_shape` tells of a container: one line, opened, opened and every item a dict.
+_ONE_LINE_, _OPEN, _RECORDS = 0, 1, 2
+
+
+def _shape(value: Any, depth: int) -> int:
+    """How :func:`record_layout` prints the container ``value`` (``depth`` levels deep): opened,
+    one item per line, always down to :data:`OPEN_DEPTH`; deeper, when every item is a container
+    (a table of steps, checks, rows), some item holds containers (a sheet record) or it is a list
+    of texts longer than :data:`TEXTS_WIDTH` in all (assumptions); otherwise on one line."""
+    items = value.values() if type(value) is dict else value
     if not items:
-        return False
-    if depth <= OPEN_DEPTH:
-        return True
+        return _ONE_LINE_
     kinds = set(map(type, items))
     if kinds <= _NESTED:
-        return True
+        return _RECORDS if kinds == _DICT and depth >= OPEN_DEPTH else _OPEN
+    if depth <= OPEN_DEPTH:
+        return _OPEN
     if kinds.isdisjoint(_NESTED):
-        return kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH
-    return not _NESTED.isdisjoint(map(type, chain.from_iterable(map(_items, (i for i in items if type(i) in _NESTED)))))
+        return _OPEN if kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH else _ONE_LINE_
+    return _OPEN if _holds_nested(items) else _ONE_LINE_
 
 
-def _one_line_records(items: Any) -> bool:
-    """Whether ``items`` are all dicts that :func:`_opened` prints on one line (below
-    :data:`OPEN_DEPTH`): each empty or holding a non-container, none holding a container of containers."""
-    if set(map(type, items)) != _DICT:
-        return False
-    if _NESTED.isdisjoint(map(type, chain.from_iterable(map(dict.values, items)))):
-        return True  # flat records: steps
-    if not all(not i or not _NESTED.issuperset(map(type, i.values())) for i in items):
-        return False  # a record of containers only (a table itself)
-    values = list(chain.from_iterable(map(dict.values, items)))
-    nested = compress(values, map(_NESTED.__contains__, map(type, values)))
-    return _NESTED.isdisjoint(map(type, chain.from_iterable(map(_items, nested))))
-
-
-def _layout(value: Any, depth: int, out: list[str]) -> None:
-    """Append the opened container ``value`` (``depth`` levels deep) to ``out``."""
+def _layout(value: Any, depth: int, out: list[str], shape: int) -> None:
+    """Append the container ``value`` (``depth`` levels deep, opened: ``shape`` from :func:`_shape`) to ``out``."""
     is_dict = type(value) is dict
-    items = value.values() if is_dict else value
     inner = "\n" + " " * (depth + 1)
-    if depth >= OPEN_DEPTH and _one_line_records(items):
-        # a table of records, each on one line: one call of the C encoder, then a line break
-        # after each record's closing brace ("}, {" or '}, "' only there when counted once per record)
-        text = _one_line(value)
+    if shape == _RECORDS and (text := _records_text(value, value.values() if is_dict else value)) is not None:
+        # each record on one line: a line break after each record's closing brace ("}, {" or
+        # '}, "' is there only, when counted once per record)
         mark = '}, "' if is_dict else "}, {"
         if text.count(mark) == len(value) - 1:
-            out += (text[0], inner, text[1:-1].replace(mark, "}," + inner + mark[-1]), "\n", " " * depth, text[-1])
+            out += (text[0], inner, text[1:-1].replace(mark, "}," + inner + mark[-1]), inner[:-1], text[-1])
             return
     out.append("{" if is_dict else "[")
     sep, depth = inner, depth + 1
@@ -259,9 +283,9 @@ def _layout(value: Any, depth: int, out: list[str]) -> None:
         kind = type(item)
         if kind is str:
             out.append(head + encode_basestring(item))
-        elif kind in _NESTED and _opened(item, depth):
+        elif kind in _NESTED and (shape := _shape(item, depth)):
             out.append(head)
-            _layout(item, depth, out)
+            _layout(item, depth, out, shape)
         else:
             out.append(head + _one_line(item))
     out.append(inner[:-1] + ("}" if is_dict else "]"))
@@ -279,10 +303,11 @@ def record_layout(value: Any, depth: int = 0) -> str:
     table row, which is one line of compact JSON (``separators=(", ", ": ")``, written by json's C
     encoder), so a diff of two records shows one line per changed step. The record itself, its
     blocks and each calc entry are always opened (:data:`OPEN_DEPTH`); deeper, see
-    :func:`_opened`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
-    if type(value) in _NESTED and _opened(value, depth):
+    :func:`_shape`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
+    shape = _shape(value, depth) if type(value) in _NESTED else _ONE_LINE_
+    if shape:
         out: list[str] = []
-        _layout(value, depth, out)
+        _layout(value, depth, out, shape)
         return "".join(out)
     return _one_line(value)
 

@@ -104,6 +104,26 @@ def test_layout_keeps_the_top_levels_indented_and_each_step_on_one_line() -> Non
     assert max(map(len, lines)) < 160
 
 
+def test_layout_of_texts_holding_brackets_and_odd_values() -> None:
+    """Texts that look like JSON structure ("}, {", '}, "', brackets) keep each record on its own
+    line; non-text keys, tuples and empty records print as json.dumps reads them."""
+    tricky = ['a}, {"b', 'ends in }, ', "Shear [x]", "{", "]"]
+    steps = {f"s{i}": {"value": float(i), "unit": "in", "description": t} for i, t in enumerate(tricky)}
+    checks = [{"title": t, "demand": {"value": 1.0, "unit": "kip"}, "ratio": 0.5} for t in tricky]
+    table = [{"note": t} for t in tricky] + [{}]
+    record = {"calcs": [{"results": {"S": steps}, "checks": checks, "table": table, "odd": {1: {True: (1, 2)}, None: {"x": [1]}}}]}
+    text = record_layout(record)
+    assert json.loads(text) == json.loads(json.dumps(record))
+    lines = text.splitlines()
+    for name, step in steps.items():  # one line per step, exactly the step as json reads it
+        line = next(line for line in lines if line.startswith(f'     "{name}": '))
+        assert json.loads("{" + line.rstrip(",") + "}") == {name: step}
+    for records in (checks, table):
+        found = [json.loads(line.strip().rstrip(",")) for line in lines if line.startswith("    {")]
+        assert all(r in found for r in records)
+    assert "".join(record_chunks(record)) == text + "\n"
+
+
 def test_non_finite_values_are_refused_in_the_stream() -> None:
     with pytest.raises(ValueError):
         record_text({"x": float("nan")})
