@@ -47,7 +47,9 @@ versions, so in-process and kernel runs give the same record apart from ``run``.
 ``calcpad verify`` (``runner/verify.py``) re-runs a record; ``calcpad diff`` (``runner/diff.py``)
 compares two.
 
-Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`.
+Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`; the
+file's text is :func:`record_layout` of the record (:func:`record_chunks` streams it): indented
+down to each calc entry, then one line per step, check and table row.
 """
 
 from __future__ import annotations
