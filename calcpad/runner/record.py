@@ -60,9 +60,9 @@ import hashlib
 import json
 import math
 import platform
-from collections.abc import Iterator, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from importlib import metadata
-from itertools import chain, repeat
+from itertools import chain
 from json.encoder import c_make_encoder, encode_basestring  # type: ignore[attr-defined]
 from pathlib import Path
 from typing import Any, overload
@@ -185,17 +185,20 @@ def record_digest(record: dict[str, Any]) -> str:
     return h.hexdigest()
 
 
-#: Compact JSON as the record file prints a value on one line: ``separators=(", ", ": ")``, no
-#: NaN/Infinity, by json's C encoder made once (``json.dumps`` makes one per call).
-_ONE_LINE = json.JSONEncoder(ensure_ascii=False, allow_nan=False, separators=(", ", ": "))
-_C_LINE = c_make_encoder(None, _ONE_LINE.default, encode_basestring, None, ": ", ", ", False, False, False) if c_make_encoder else None
+@functools.lru_cache(maxsize=64)
+def _encoder(gap: str) -> Callable[[Any], str]:
+    """Compact JSON with ``"," + gap`` between items (``" "``: on one line; a newline and an
+    indent: a dict of plain values one item per line), no NaN/Infinity: json's C encoder, made
+    once per gap (``json.dumps`` makes one per call)."""
+    enc = json.JSONEncoder(ensure_ascii=False, allow_nan=False, separators=("," + gap, ": "))
+    if c_make_encoder is None:  # pragma: no cover - CPython has the accelerator
+        return enc.encode
+    c_enc = c_make_encoder(None, enc.default, encode_basestring, None, ": ", "," + gap, False, False, False)
+    return lambda value: "".join(c_enc(value, 0))
 
 
-def _one_line(value: Any) -> str:
-    """``value`` as compact JSON on one line (:data:`_ONE_LINE`)."""
-    return "".join(_C_LINE(value, 0)) if _C_LINE is not None else _ONE_LINE.encode(value)
-
-
+#: A value as compact JSON on one line (``separators=(", ", ": ")``).
+_one_line = _encoder(" ")
 #: Containers as the layout sees them (exact types; anything else json prints goes on one line).
 _NESTED = frozenset((dict, list, tuple))
 _DICT, _SEQS, _TEXT = frozenset((dict,)), frozenset((list, tuple)), frozenset((str,))
@@ -220,8 +223,10 @@ def _holds_nested(values: Any) -> bool:
 def _one_line_record(record: dict[Any, Any]) -> bool:
     """Whether a dict below :data:`OPEN_DEPTH` prints on one line: empty or holding a
     non-container, and no container of containers."""
-    values = record.values()
-    return not (values and _NESTED.issuperset(map(type, values))) and not _holds_nested(values)
+    kinds = set(map(type, record.values()))
+    if kinds.isdisjoint(_NESTED):
+        return True  # flat (a step) or empty
+    return not kinds <= _NESTED and not _holds_nested(record.values())
 
 
 def _records_text(value: Any, items: Any) -> str | None:
@@ -245,7 +250,7 @@ def _records_text(value: Any, items: Any) -> str | None:
 
 
 #: What :func:`_shape` tells of a container: one line, opened, opened and every item a dict.
-_ONE_LINE_, _OPEN, _RECORDS = 0, 1, 2
+_INLINE, _OPEN, _RECORDS = 0, 1, 2
 
 
 def _shape(value: Any, depth: int) -> int:
@@ -255,15 +260,15 @@ def _shape(value: Any, depth: int) -> int:
     of texts longer than :data:`TEXTS_WIDTH` in all (assumptions); otherwise on one line."""
     items = value.values() if type(value) is dict else value
     if not items:
-        return _ONE_LINE_
+        return _INLINE
     kinds = set(map(type, items))
     if kinds <= _NESTED:
         return _RECORDS if kinds == _DICT and depth >= OPEN_DEPTH else _OPEN
     if depth <= OPEN_DEPTH:
         return _OPEN
     if kinds.isdisjoint(_NESTED):
-        return _OPEN if kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH else _ONE_LINE_
-    return _OPEN if _holds_nested(items) else _ONE_LINE_
+        return _OPEN if kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH else _INLINE
+    return _OPEN if _holds_nested(items) else _INLINE
 
 
 def _layout(value: Any, depth: int, out: list[str], shape: int) -> None:
@@ -279,18 +284,32 @@ def _layout(value: Any, depth: int, out: list[str], shape: int) -> None:
             return
     out.append("{" if is_dict else "[")
     sep, depth = inner, depth + 1
-    for key, item in (value.items() if is_dict else zip(repeat(None), value)):
-        head = sep + (encode_basestring(key) if type(key) is str else _key(key)) + ": " if is_dict else sep
-        sep = "," + inner
-        kind = type(item)
-        if kind is str:
-            out.append(head + encode_basestring(item))
-        elif kind in _NESTED and (shape := _shape(item, depth)):
-            out.append(head)
+    if is_dict:
+        plain: dict[Any, Any] = {}  # a run of plain values: one encoder call, one per line
+        for key, item in value.items():
+            if type(item) not in _NESTED:
+                plain[key] = item
+                continue
+            if plain:
+                out.append(sep + _encoder(inner)(plain)[1:-1])
+                sep, plain = "," + inner, {}
+            shape = _shape(item, depth)
+            out.append(sep + _key(key) + ": " + ("" if shape else _one_line(item)))
+            if shape:
+                _layout(item, depth, out, shape)
+            sep = "," + inner
+        if plain:
+            out.append(sep + _encoder(inner)(plain)[1:-1])
+        out.append(inner[:-1] + "}")
+        return
+    for item in value:
+        if type(item) in _NESTED and (shape := _shape(item, depth)):
+            out.append(sep)
             _layout(item, depth, out, shape)
         else:
-            out.append(head + _one_line(item))
-    out.append(inner[:-1] + ("}" if is_dict else "]"))
+            out.append(sep + _one_line(item))
+        sep = "," + inner
+    out.append(inner[:-1] + "]")
 
 
 def _key(key: Any) -> str:
@@ -306,7 +325,7 @@ def record_layout(value: Any, depth: int = 0) -> str:
     encoder), so a diff of two records shows one line per changed step. The record itself, its
     blocks and each calc entry are always opened (:data:`OPEN_DEPTH`); deeper, see
     :func:`_shape`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
-    shape = _shape(value, depth) if type(value) in _NESTED else _ONE_LINE_
+    shape = _shape(value, depth) if type(value) in _NESTED else _INLINE
     if shape:
         out: list[str] = []
         _layout(value, depth, out, shape)
