@@ -249,38 +249,36 @@ def _records_text(value: Any, items: Any) -> str | None:
     return text if all(map(_one_line_record, items)) else None  # a bracket in a text
 
 
-#: What :func:`_shape` tells of a container: one line, opened, opened and every item a dict.
-_INLINE, _OPEN, _RECORDS = 0, 1, 2
+def _layout(value: Any, depth: int, out: list[str]) -> None:
+    """Append the container ``value`` to ``out`` as the record file prints it ``depth`` levels deep.
 
-
-def _shape(value: Any, depth: int) -> int:
-    """How :func:`record_layout` prints the container ``value`` (``depth`` levels deep): opened,
-    one item per line, always down to :data:`OPEN_DEPTH`; deeper, when every item is a container
-    (a table of steps, checks, rows), some item holds containers (a sheet record) or it is a list
-    of texts longer than :data:`TEXTS_WIDTH` in all (assumptions); otherwise on one line."""
-    items = value.values() if type(value) is dict else value
-    if not items:
-        return _INLINE
-    kinds = set(map(type, items))
-    if kinds <= _NESTED:
-        return _RECORDS if kinds == _DICT and depth >= OPEN_DEPTH else _OPEN
-    if depth <= OPEN_DEPTH:
-        return _OPEN
-    if kinds.isdisjoint(_NESTED):
-        return _OPEN if kinds == _TEXT and type(value) is not dict and sum(map(len, items)) > TEXTS_WIDTH else _INLINE
-    return _OPEN if _holds_nested(items) else _INLINE
-
-
-def _layout(value: Any, depth: int, out: list[str], shape: int) -> None:
-    """Append the container ``value`` (``depth`` levels deep, opened: ``shape`` from :func:`_shape`) to ``out``."""
+    Opened, one item per line: always down to :data:`OPEN_DEPTH`; deeper, when every item is a
+    container (a table of steps, checks, rows), some item holds containers (a sheet record) or it
+    is a list of texts longer than :data:`TEXTS_WIDTH` in all (assumptions). Otherwise on one line."""
     is_dict = type(value) is dict
+    items = value.values() if is_dict else value
+    if not items:
+        out.append(_one_line(value))
+        return
+    kinds = set(map(type, items))
     inner = "\n" + " " * (depth + 1)
-    if shape == _RECORDS and (text := _records_text(value, value.values() if is_dict else value)) is not None:
-        # each record on one line: a line break after each record's closing brace ("}, {" or
-        # '}, "' is there only, when counted once per record)
-        mark = '}, "' if is_dict else "}, {"
-        if text.count(mark) == len(value) - 1:
-            out += (text[0], inner, text[1:-1].replace(mark, "}," + inner + mark[-1]), inner[:-1], text[-1])
+    if kinds <= _NESTED:
+        if kinds == _DICT and depth >= OPEN_DEPTH and (text := _records_text(value, items)) is not None:
+            # each record on one line: a line break after each record's closing brace ("}, {" or
+            # '}, "' is there only, when replaced once per record)
+            mark = '}, "' if is_dict else "}, {"
+            body = text[1:-1]
+            lines = body.replace(mark, "}," + inner + mark[-1])
+            if len(lines) - len(body) == (len(value) - 1) * (len(inner) - 1):
+                out += (text[0], inner, lines, inner[:-1], text[-1])
+                return
+    elif depth > OPEN_DEPTH:
+        if kinds.isdisjoint(_NESTED):  # plain values: one line, but for a long list of texts
+            one_line = is_dict or kinds != _TEXT or sum(map(len, items)) <= TEXTS_WIDTH
+        else:  # a record: one line, but for one holding a container of containers (a sheet)
+            one_line = not _holds_nested(items)
+        if one_line:
+            out.append(_one_line(value))
             return
     out.append("{" if is_dict else "[")
     sep, depth = inner, depth + 1
@@ -293,19 +291,17 @@ def _layout(value: Any, depth: int, out: list[str], shape: int) -> None:
             if plain:
                 out.append(sep + _encoder(inner)(plain)[1:-1])
                 sep, plain = "," + inner, {}
-            shape = _shape(item, depth)
-            out.append(sep + _key(key) + ": " + ("" if shape else _one_line(item)))
-            if shape:
-                _layout(item, depth, out, shape)
+            out.append(sep + _key(key) + ": ")
+            _layout(item, depth, out)
             sep = "," + inner
         if plain:
             out.append(sep + _encoder(inner)(plain)[1:-1])
         out.append(inner[:-1] + "}")
         return
     for item in value:
-        if type(item) in _NESTED and (shape := _shape(item, depth)):
+        if type(item) in _NESTED:
             out.append(sep)
-            _layout(item, depth, out, shape)
+            _layout(item, depth, out)
         else:
             out.append(sep + _one_line(item))
         sep = "," + inner
@@ -324,13 +320,12 @@ def record_layout(value: Any, depth: int = 0) -> str:
     table row, which is one line of compact JSON (``separators=(", ", ": ")``, written by json's C
     encoder), so a diff of two records shows one line per changed step. The record itself, its
     blocks and each calc entry are always opened (:data:`OPEN_DEPTH`); deeper, see
-    :func:`_shape`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
-    shape = _shape(value, depth) if type(value) in _NESTED else _INLINE
-    if shape:
-        out: list[str] = []
-        _layout(value, depth, out, shape)
-        return "".join(out)
-    return _one_line(value)
+    :func:`_layout`. ``json.loads`` gives ``value`` back; non-finite numbers are refused."""
+    if type(value) not in _NESTED:
+        return _one_line(value)
+    out: list[str] = []
+    _layout(value, depth, out)
+    return "".join(out)
 
 
 def record_chunks(record: dict[str, Any]) -> Iterator[str]:
