@@ -24,7 +24,8 @@ from typing import IO, Any
 
 from calcpad.runner.cases import CaseTracker
 from calcpad.runner.execute import CalcOutcome, SheetItem
-from calcpad.runner.record import calc_record, record_layout, template_digest
+from calcpad.runner.record import calc_record, template_digest
+from calcpad.runner.recordtext import record_layout
 
 __all__ = ["RunSpool"]
 
