@@ -48,8 +48,8 @@ versions, so in-process and kernel runs give the same record apart from ``run``.
 compares two.
 
 Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`; the
-file's text is :func:`record_layout` of the record (:func:`record_chunks` streams it): indented
-down to each calc entry, then one line per step, check and table row.
+file's text is :func:`~calcpad.runner.recordtext.record_layout` of the record (streamed by
+:func:`record_chunks`): indented down to each calc entry, then one line per step, check and row.
 """
 
 from __future__ import annotations
