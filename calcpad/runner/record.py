@@ -47,7 +47,9 @@ versions, so in-process and kernel runs give the same record apart from ``run``.
 ``calcpad verify`` (``runner/verify.py``) re-runs a record; ``calcpad diff`` (``runner/diff.py``)
 compares two.
 
-Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`.
+Writing it (with the submittal) into an output folder is :mod:`calcpad.runner.outfolder`; the
+file's text is :func:`~calcpad.runner.recordtext.record_layout` of the record (streamed by
+:func:`record_chunks`): indented down to each calc entry, then one line per step, check and row.
 """
 
 from __future__ import annotations
@@ -66,6 +68,7 @@ from typing import Any, overload
 from calcpad.core.results import OK_SLENDER, status_ok
 from calcpad.runner.execute import CalcOutcome
 from calcpad.runner.job import Job, input_record
+from calcpad.runner.recordtext import key_text, record_layout
 
 __all__ = [
     "JOB_RECORD_FORMAT",
@@ -80,6 +83,7 @@ __all__ = [
     "package_versions",
     "record_chunks",
     "record_digest",
+    "record_layout",
     "record_text",
     "seal",
     "shop_sections_record",
@@ -131,7 +135,7 @@ class SpooledCalcs(Sequence[dict[str, Any]]):
     """The record's ``calcs`` when a run kept them in a spool (:mod:`calcpad.runner.spool`): each
     entry is read back when asked (``calcs[i]``, iteration), and :func:`record_chunks` and
     :func:`record_digest` stream their stored JSON, so a large job never holds every entry.
-    ``entries`` are objects with ``pretty()`` (the entry as ``json.dumps(indent=1)`` prints it
+    ``entries`` are objects with ``pretty()`` (the entry as :func:`record_layout` prints it
     two levels deep in the record) and ``canonical()`` (sorted keys, no spaces)."""
 
     def __init__(self, entries: list[Any]) -> None:
@@ -181,13 +185,13 @@ def record_digest(record: dict[str, Any]) -> str:
 
 
 def record_chunks(record: dict[str, Any]) -> Iterator[str]:
-    """The record file's text in pieces: exactly ``json.dumps(record, indent=1,
-    ensure_ascii=False, allow_nan=False) + "\\n"``, with spooled calcs streamed one at a time."""
+    """The record file's text in pieces: exactly ``record_layout(record) + "\\n"``
+    (:func:`record_layout`), with spooled calcs streamed one at a time."""
     if not record:
         yield "{}\n"
         return
     for i, (key, value) in enumerate(record.items()):
-        yield ("{\n " if i == 0 else ",\n ") + json.dumps(key, ensure_ascii=False) + ": "
+        yield ("{\n " if i == 0 else ",\n ") + key_text(key) + ": "
         if isinstance(value, SpooledCalcs):
             if not value.entries:
                 yield "[]"
@@ -196,7 +200,7 @@ def record_chunks(record: dict[str, Any]) -> Iterator[str]:
                 yield ("[\n  " if j == 0 else ",\n  ") + entry.pretty()
             yield "\n ]"
         else:
-            yield json.dumps(value, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n ")
+            yield record_layout(value, 1)
     yield "\n}\n"
 
 

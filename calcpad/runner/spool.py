@@ -25,6 +25,7 @@ from typing import IO, Any
 from calcpad.runner.cases import CaseTracker
 from calcpad.runner.execute import CalcOutcome, SheetItem
 from calcpad.runner.record import calc_record, template_digest
+from calcpad.runner.recordtext import record_layout
 
 __all__ = ["RunSpool"]
 
@@ -53,7 +54,7 @@ class SpooledEntry:
         self._pretty, self._canonical, self.template_sha256 = pretty, canonical, template_sha256
 
     def pretty(self) -> str:
-        """The entry as the record file prints it (``json.dumps(indent=1)``, two levels deep)."""
+        """The entry as the record file prints it (``record_layout(entry, 2)``, two levels deep)."""
         return self._pretty.text()
 
     def canonical(self) -> str:
@@ -140,7 +141,7 @@ class RunSpool:
         if path not in self._shas:
             self._shas[path] = template_digest(path)
         entry = calc_record(o, self._shas[path])
-        pretty = json.dumps(entry, indent=1, ensure_ascii=False, allow_nan=False).replace("\n", "\n  ")
+        pretty = record_layout(entry, 2)  # as the record file prints it, two levels deep
         canonical = json.dumps(entry, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
         spooled = SpooledEntry(self._put(pretty), self._put(canonical), self._shas[path])
         printable = self._html and self._cases.printable(o)

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import json
 import math
 import shutil
 from pathlib import Path
@@ -10,7 +9,7 @@ from typing import Any
 
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import parse_job
-from calcpad.runner.record import job_record
+from calcpad.runner.record import job_record, record_text
 
 ROOT = Path(__file__).resolve().parents[2]
 
@@ -95,7 +94,7 @@ def run_text(text: str, source: str = "job.toml") -> dict[str, Any]:
 def write_record(record: dict[str, Any], folder: Path) -> Path:
     """Write ``record`` as ``folder/record.json`` (as the runner does) and return the folder."""
     folder.mkdir(parents=True, exist_ok=True)
-    (folder / "record.json").write_text(json.dumps(record, indent=1, ensure_ascii=False, allow_nan=False) + "\n", encoding="utf-8")
+    (folder / "record.json").write_text(record_text(record), encoding="utf-8")
     return folder
 
 

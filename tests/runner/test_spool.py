@@ -1,5 +1,6 @@
 """The run spool: a job whose calcs wait in a spool file writes the same record and submittal,
-byte for byte, as one held in memory; the streamed record text is json.dumps's."""
+byte for byte, as one held in memory; the streamed record text is record_layout's, which json
+reads back as the same record."""
 
 from __future__ import annotations
 
@@ -14,7 +15,7 @@ import pytest
 from calcpad.report.layout import submittal_chunks, submittal_html
 from calcpad.runner.execute import CalcOutcome, run_job
 from calcpad.runner.job import parse_job
-from calcpad.runner.record import SpooledCalcs, job_record, record_chunks, record_digest, record_text, seal
+from calcpad.runner.record import SpooledCalcs, job_record, record_chunks, record_digest, record_layout, record_text, seal
 from calcpad.runner.spool import RunSpool, SpooledSheet
 
 from .conftest import JOB_HEAD, tiny_calc
@@ -41,8 +42,9 @@ def test_spooled_record_equals_the_record_held_in_memory(tiny_env: Path) -> None
         assert rec["summary"] == held["summary"] and rec["templates"] == held["templates"]
         assert list(rec["calcs"]) == held["calcs"]
         rec["run"] = held["run"]
-        # the streamed file text is what json.dumps(indent=1) prints for the record held in memory
-        assert record_text(rec) == json.dumps(held, indent=1, ensure_ascii=False, allow_nan=False) + "\n"
+        # the streamed file text is record_layout of the whole record held in memory, and json reads it back
+        assert record_text(rec) == record_layout(held) + "\n"
+        assert json.loads(record_text(rec)) == held
         # and the digest is over the canonical JSON, whether calcs are spooled or not
         body = {k: v for k, v in held.items() if k not in ("run", "record_digest")}
         canonical = json.dumps(body, sort_keys=True, separators=(",", ":"), ensure_ascii=False, allow_nan=False)
@@ -66,13 +68,60 @@ def test_spooled_submittal_is_the_same_page(tiny_env: Path) -> None:
     assert "".join(chunks) == submittal_html(job, plain, held)
 
 
-def test_record_chunks_equal_json_dumps_for_any_record() -> None:
+def test_record_chunks_equal_the_layout_for_any_record() -> None:
     record = {"format": "x", "calcs": [], "nested": {"a": [1, {"b": "é\nq"}], "c": {}}, "list": [[], {}, "t"], "n": None}
-    assert "".join(record_chunks(record)) == json.dumps(record, indent=1, ensure_ascii=False) + "\n"
+    assert "".join(record_chunks(record)) == record_layout(record) + "\n"
+    assert json.loads(record_layout(record)) == record
     assert "".join(record_chunks({})) == "{}\n"
     sealed = seal(copy.deepcopy(record))
     assert sealed["record_digest"] == hashlib.sha256(
         json.dumps(record, sort_keys=True, separators=(",", ":"), ensure_ascii=False).encode("utf-8")).hexdigest()
+
+
+def test_layout_keeps_the_top_levels_indented_and_each_step_on_one_line() -> None:
+    """Down to a calc entry the text is json.dumps(indent=1)'s; below, a step, a check and a table
+    row are each one line of compact JSON (separators ", " and ": "); a sheet record holding
+    tables of steps is opened, and so is a long list of texts."""
+    step = {"value": 2.5, "unit": "in", "description": "Leg height"}
+    check = {"title": "Shear", "demand": {"value": 1.0, "unit": "kip"}, "ratio": 0.5, "status": "OK"}
+    notes = ["The leg is a cantilever fixed at its base and loaded sideways at its top.", "x" * 100]
+    sheet = {"title": "S", "meta": {"member": "M1"}, "inputs": {"H": step}, "checks": [check], "assumptions": notes, "tags": ["a", "b"]}
+    entry = {"number": 1, "results": {"S": {"H": step}}, "checks": [check], "sheets": [sheet], "table": {"name": "t.csv", "row": 2}}
+    record = {"format": "x", "job": {"codes": ["AISC 360-16"], "rows": [["M1", "260"]]}, "calcs": [entry]}
+    text = record_layout(record)
+    assert json.loads(text) == record
+    head = json.dumps({"format": "x", "job": {"codes": ["AISC 360-16"]}}, indent=1)  # the top levels as before
+    assert text.startswith(head[: head.index('"AISC 360-16"')])
+    lines = text.splitlines()
+    one_line = json.dumps(step, separators=(", ", ": "))
+    assert lines.count(f'     "H": {one_line}') == 1 and lines.count(f'      "H": {one_line}') == 1  # results and sheet inputs
+    assert lines.count("    " + json.dumps(check, separators=(", ", ": "))) == 1  # the calc's check
+    assert lines.count("      " + json.dumps(check, separators=(", ", ": "))) == 1  # the sheet's check
+    assert '     "meta": {"member": "M1"},' in lines and '     "tags": ["a", "b"]' in lines
+    assert '   "table": {"name": "t.csv", "row": 2}' in lines
+    assert "      " + json.dumps(notes[0]) + "," in lines  # long assumptions: one per line
+    assert lines.count('   ["M1", "260"]') == 1  # a table row
+    assert max(map(len, lines)) < 160
+
+
+def test_layout_of_texts_holding_brackets_and_odd_values() -> None:
+    """Texts that look like JSON structure ("}, {", '}, "', brackets) keep each record on its own
+    line; non-text keys, tuples and empty records print as json.dumps reads them."""
+    tricky = ['a}, {"b', 'ends in }, ', "Shear [x]", "{", "]"]
+    steps = {f"s{i}": {"value": float(i), "unit": "in", "description": t} for i, t in enumerate(tricky)}
+    checks = [{"title": t, "demand": {"value": 1.0, "unit": "kip"}, "ratio": 0.5} for t in tricky]
+    table = [{"note": t} for t in tricky] + [{}]
+    record = {"calcs": [{"results": {"S": steps}, "checks": checks, "table": table, "odd": {1: {True: (1, 2)}, None: {"x": [1]}}}]}
+    text = record_layout(record)
+    assert json.loads(text) == json.loads(json.dumps(record))
+    lines = text.splitlines()
+    for name, step in steps.items():  # one line per step, exactly the step as json reads it
+        line = next(line for line in lines if line.startswith(f'     "{name}": '))
+        assert json.loads("{" + line.rstrip(",") + "}") == {name: step}
+    for records in (checks, table):
+        found = [json.loads(line.strip().rstrip(",")) for line in lines if line.startswith("    {")]
+        assert all(r in found for r in records)
+    assert "".join(record_chunks(record)) == text + "\n"
 
 
 def test_non_finite_values_are_refused_in_the_stream() -> None:
