@@ -45,11 +45,14 @@ EXIT_OK, EXIT_NG, EXIT_BAD, EXIT_WRITE, EXIT_INTERNAL, EXIT_INTERRUPTED = 0, 1, 
 
 def _write_atomic(path: Path, text: str) -> None:
     """Write ``text`` to ``path`` through a temporary sibling file (never half-written)."""
+    from calcpad.runner.outfolder import new_file_mode
+
     path.parent.mkdir(parents=True, exist_ok=True)
     fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
     try:
         with os.fdopen(fd, "w", encoding="utf-8") as fh:
             fh.write(text)
+        os.chmod(tmp, new_file_mode())  # mkstemp's files are owner-only
         os.replace(tmp, path)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)

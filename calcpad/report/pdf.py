@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import os
 import shutil
+import stat
 import subprocess
 import tempfile
 from dataclasses import dataclass, field
@@ -91,10 +92,18 @@ def print_pdf(chromium: str, html_path: Path, pdf_path: Path, timeout: float = 3
 
 
 def _replace_text(path: Path, text: str) -> None:
+    """Replace ``path``'s text atomically, keeping its permissions (``mkstemp`` makes a file only
+    its owner can read: a submittal on a shared drive must stay readable by the reviewers)."""
+    mode = stat.S_IMODE(path.stat().st_mode)
     fd, tmp = tempfile.mkstemp(dir=path.parent, prefix=f".{path.name}.", suffix=".tmp")
-    with os.fdopen(fd, "w", encoding="utf-8") as fh:
-        fh.write(text)
-    os.replace(tmp, path)
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8") as fh:
+            fh.write(text)
+        os.chmod(tmp, mode)
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
 
 
 def write_pdf(html_path: str | Path, pdf_path: str | Path, *, chromium: str | None = None, timeout: float = 300) -> PdfResult:

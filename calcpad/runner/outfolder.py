@@ -67,6 +67,7 @@ __all__ = [
     "check_target",
     "folder_lock",
     "issue_revision",
+    "new_file_mode",
     "read_manifest",
     "revision_folder",
     "write_outputs",
@@ -174,6 +175,12 @@ def _umask() -> int:
     mask = os.umask(0)
     os.umask(mask)
     return mask
+
+
+def new_file_mode() -> int:
+    """The mode an ordinary new file gets (0o666 less the umask): ``mkstemp`` makes owner-only
+    files, and what calcpad writes for reviewers must be as readable as any other file."""
+    return 0o666 & ~_umask()
 
 
 # ----------------------------------------------------------------------------- scratch folders
@@ -540,6 +547,7 @@ def _issue_locked(out: Path, shown: str, by: str, revision: str | None) -> dict[
         try:
             with os.fdopen(fd, "w", encoding="utf-8") as fh:
                 fh.write(json.dumps(info, indent=1, ensure_ascii=False) + "\n")
+            os.chmod(tmp, new_file_mode())
             os.replace(tmp, issued_path)
         except BaseException:
             with contextlib.suppress(OSError):

@@ -221,3 +221,12 @@ def test_a_submittal_of_very_many_rows_prints_untagged_and_says_so(tmp_path: Pat
     assert untagged.written and "without accessibility tags (40 table rows" in untagged.message
     assert b"/StructTreeRoot" not in (tmp_path / "untagged.pdf").read_bytes()
     assert page_texts(tmp_path / "untagged.pdf") == page_texts(tmp_path / "tagged.pdf")  # the same pages
+
+
+@needs_chromium
+def test_the_submittal_keeps_its_permissions_when_page_numbers_are_filled(printed: dict[str, Any]) -> None:
+    # the HTML is rewritten with the contents' pages after the first print: it must stay as
+    # readable as the files written beside it (record.json), not owner-only as a temporary file is
+    html, rec = printed["out"] / "submittal.html", printed["out"] / "record.json"
+    assert 'class="toc-page"' in printed["html"]  # the page was rewritten with numbers
+    assert oct(html.stat().st_mode & 0o777) == oct(rec.stat().st_mode & 0o777)

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import os
+import stat
 from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
@@ -115,6 +116,9 @@ def test_cli_diff_exit_codes_and_html(revisions: dict[str, Any], tmp_path: Path,
     assert "calc added" in out and "status flipped" in out and "P3 (leg_bending)" in out
     text = html.read_text()
     assert "Changes since revision A" in text and text.count("<tr>") == 1 + 8
+    mask = os.umask(0)
+    os.umask(mask)
+    assert stat.S_IMODE(html.stat().st_mode) == 0o666 & ~mask  # as readable as any new file, not owner-only
     assert main(["diff", str(a), str(b), "--html", str(html)]) == 1  # our own file may be replaced
     foreign = tmp_path / "notes.html"
     foreign.write_text("my notes")
