@@ -18,6 +18,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
 from calcpad.core.units import format_number
+from calcpad.eng.analysis._arrows import straight
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -90,6 +91,28 @@ def _support(ax: Any, x: float, y: float, kind: tuple[bool, bool, bool], s: floa
         ax.add_patch(Circle((x - 1.2 * s, y), 0.2 * s, fill=False, ec="k"))
 
 
+def _add_straight(ax: Any, Arrow: Any, tail: tuple[float, float], tip: tuple[float, float], **props: Any) -> None:
+    """``ax.add_patch(Arrow(tail, tip, **props))`` for a straight arrow, its two ends widening the
+    data limits. ``add_patch`` widens them by the arrow's outline as drawn in the axes' limits of
+    the moment (the shaft shrunk by 2 points: hundredths of a pixel in the final view) and draws
+    the arrow twice for it."""
+    arrow = ax.add_artist(Arrow(tail, tip, **props))
+    arrow._set_in_autoscale(True)  # as add_patch: counted when the limits are recomputed
+    ax.update_datalim([tail, tip])
+
+
+def _add_polygon(ax: Any, xy: np.ndarray, **props: Any) -> None:
+    """``ax.fill(x, y, **props)`` for one closed polygon of straight edges, whose corners are its
+    data limits (``ax.fill`` searches every edge for curve extrema: a tenth of a diagram's time)."""
+    from matplotlib.patches import Polygon
+
+    poly = Polygon(xy, facecolor=props.get("color"), fill=True, closed=True)
+    poly.set(**props)  # as ax.fill: "color" sets the edge too
+    ax.add_artist(poly)
+    poly._set_in_autoscale(True)
+    ax.update_datalim(xy)
+
+
 def draw_frame(
     frame: Frame,
     result: FrameResult | None = None,
@@ -132,7 +155,7 @@ def draw_frame(
             cases = frame.combos[case]
         else:
             raise InputError(f"case {case!r} not found; expected one of {list(frame.cases) + list(frame.combos)}")
-        _draw_loads(ax, frame, cases, s, FancyArrowPatch)
+        _draw_loads(ax, frame, cases, s, functools.partial(FancyArrowPatch, connectionstyle=straight()))
     if result is not None and case is not None:
         dmax = 0.0
         dgs = [result.diagram(m, case, n=31) for m in frame.members]
@@ -198,8 +221,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             sign = np.sign(w * f) or 1.0
             for t in np.linspace(0.05, 0.95, 7):
                 px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
-                ax.add_patch(Arrow((px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
-                                   arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
+                _add_straight(ax, Arrow, (px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
+                              arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8)
             spread.setdefault((cn, _num(w), d), []).append(mname)
         for mname, P, a, d in case.point:
             m = frame.members[mname]
@@ -209,8 +232,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
             sign = np.sign(P * f) or 1.0
             px, py = x1 + c * a, y1 + sn * a
-            ax.add_patch(Arrow((px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
-                               mutation_scale=12, color=_LOAD, lw=1.5))
+            _add_straight(ax, Arrow, (px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
+                          mutation_scale=12, color=_LOAD, lw=1.5)
             at = (px - sign * dx * L0 * 1.1, py - sign * dy * L0 * 1.1)
             labels.setdefault((round(at[0], 6), round(at[1], 6), "left"), []).append(f"{cn}: {_num(P)}")
     for (tx, ty, ha), lines in labels.items():  # loads of several cases at one place share one stacked label
@@ -224,8 +247,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
         mag = np.hypot(fx, fy)
         if mag > 0:
             ux, uy = fx / mag, fy / mag
-            ax.add_patch(Arrow((x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
-                               color=_LOAD, lw=1.8))
+            _add_straight(ax, Arrow, (x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
+                          color=_LOAD, lw=1.8)
             ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{_num(mag)} {frame.fu}", fontsize=8, color=_LOAD,
                     ha="center", va="center")
         if mz:
@@ -273,7 +296,7 @@ def draw_frame_diagram(
         val = getattr(dg, quantity)
         ox, oy = bx + sgn * k * val * (-sn), by + sgn * k * val * c
         ax.plot(bx, by, "-", color=_MEMBER, lw=2)
-        ax.fill(np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]], color=_LOAD, alpha=0.25, lw=0)
+        _add_polygon(ax, np.column_stack([np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]]]), color=_LOAD, alpha=0.25, lw=0)
         ax.plot(ox, oy, "-", color=_LOAD, lw=1)
         for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
             if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
