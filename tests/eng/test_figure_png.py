@@ -1,16 +1,19 @@
-"""Figures saved once per distinct drawing (``core.figure_png``, ``diagrams.drawing_png``): the bytes
-are always those matplotlib writes for the figure as it is now — a changed frame, a figure changed
+"""Figures saved once per distinct drawing (``core.figure_png``, ``diagrams.drawing_png``): the picture
+is always the one matplotlib draws for the figure as it is now — a changed frame, a figure changed
 after it was drawn, or other matplotlib settings never get a PNG kept from before.
 
-The reference is matplotlib's own ``savefig`` on a figure built afresh (no cache involved).
+The reference is matplotlib's own ``savefig`` PNG of a figure built afresh (no cache involved),
+compared pixel by pixel: ``figure_png`` writes an opaque drawing's pixels as RGB, matplotlib as RGBA.
 """
 
 from __future__ import annotations
 
 import io
+import struct
 
 import matplotlib
 import pytest
+from PIL import Image
 
 from calcpad import Sheet
 from calcpad.core import figure_png
@@ -23,6 +26,26 @@ def _saved(fig, dpi: int = 110) -> bytes:
     buf = io.BytesIO()
     fig.savefig(buf, format="png", dpi=dpi, metadata={"Software": None})
     return buf.getvalue()
+
+
+def _pixels(png: bytes) -> tuple[tuple[int, int], bytes]:
+    """Size and RGBA pixels of a PNG (the picture, whatever the colour type of the file)."""
+    image = Image.open(io.BytesIO(png))
+    return image.size, image.convert("RGBA").tobytes()
+
+
+def _same_picture(png: bytes, reference: bytes) -> bool:
+    return _pixels(png) == _pixels(reference)
+
+
+def _chunks(png: bytes) -> list[str]:
+    """The chunk types of a PNG file, in order (PNG specification, section 5.3)."""
+    out, at = [], 8
+    while at < len(png):
+        length, kind = struct.unpack(">I4s", png[at:at + 8])
+        out.append(kind.decode("ascii"))
+        at += 12 + length
+    return out
 
 
 def _portal(push: float = 1.0):
@@ -47,10 +70,10 @@ def _empty_cache():
 def test_drawing_png_is_what_matplotlib_saves_for_the_figure():
     fr, res = _portal()
     first = drawing_png(draw_frame, fr, res, "W")
-    assert first == _saved(draw_frame(fr, res, "W"))
+    assert _same_picture(first, _saved(draw_frame(fr, res, "W")))
     assert drawing_png(draw_frame, fr, res, "W") == first  # the second time from the kept PNG
-    assert drawing_png(draw_frame_diagram, res, "W", "M") == _saved(draw_frame_diagram(res, "W", "M"))
-    assert drawing_png(plot_member, res, "c1", "W", ("N", "M")) == _saved(plot_member(res, "c1", "W", ("N", "M")))
+    assert _same_picture(drawing_png(draw_frame_diagram, res, "W", "M"), _saved(draw_frame_diagram(res, "W", "M")))
+    assert _same_picture(drawing_png(plot_member, res, "c1", "W", ("N", "M")), _saved(plot_member(res, "c1", "W", ("N", "M"))))
 
 
 def test_a_changed_frame_is_drawn_anew():
@@ -59,7 +82,7 @@ def test_a_changed_frame_is_drawn_anew():
     _fr2, res2 = _portal(2.5)  # another load: other moment labels
     after = drawing_png(draw_frame_diagram, res2, "W", "M")
     assert after != before
-    assert after == _saved(draw_frame_diagram(res2, "W", "M"))
+    assert _same_picture(after, _saved(draw_frame_diagram(res2, "W", "M")))
 
 
 def test_a_figure_changed_after_drawing_is_saved_as_it_is_now():
@@ -72,7 +95,7 @@ def test_a_figure_changed_after_drawing_is_saved_as_it_is_now():
     pngs = [s.png for s in sh.evaluate().figures]
     fresh = draw_frame(fr, res, "W")
     fresh.axes[0].set_title("Portal P-1, wind")
-    assert pngs[1] == _saved(fresh) and pngs[1] != pngs[0]
+    assert _same_picture(pngs[1], _saved(fresh)) and pngs[1] != pngs[0]
 
 
 def test_other_matplotlib_settings_are_drawn_anew():
@@ -80,7 +103,7 @@ def test_other_matplotlib_settings_are_drawn_anew():
     plain = drawing_png(draw_frame, fr, res, "W")
     with matplotlib.rc_context({"axes.facecolor": "#ffe0e0"}):
         tinted = drawing_png(draw_frame, fr, res, "W")
-        assert tinted == _saved(draw_frame(fr, res, "W"))
+        assert _same_picture(tinted, _saved(draw_frame(fr, res, "W")))
     assert tinted != plain
 
 
@@ -95,10 +118,10 @@ def test_sections_png_is_the_drawing_of_these_sections():
 
     thin, thick = RoundTube("2.375 in", "0.143 in", name="leg"), RoundTube("2.375 in", "0.200 in", name="leg")
     first = sections_png([thin], ["Before"], dpi=100)
-    assert first == _saved(draw_sections([thin], ["Before"]), dpi=100)
+    assert _same_picture(first, _saved(draw_sections([thin], ["Before"]), dpi=100))
     assert sections_png([thin], ["Before"], dpi=100) == first
     other = sections_png([thick], ["Before"], dpi=100)  # same name, another wall: drawn anew
-    assert other != first and other == _saved(draw_sections([thick], ["Before"]), dpi=100)
+    assert other != first and _same_picture(other, _saved(draw_sections([thick], ["Before"]), dpi=100))
 
 
 def test_the_cycle_collector_is_held_off_only_while_a_figure_is_drawn():
@@ -115,7 +138,7 @@ def test_the_cycle_collector_is_held_off_only_while_a_figure_is_drawn():
     assert gc.isenabled()
     png = figure_png.png_once(("a drawing of the test",), build, 110)
     assert seen == [False] and gc.isenabled()
-    assert png == _saved(draw_frame(_portal(1.5)[0]))
+    assert _same_picture(png, _saved(draw_frame(_portal(1.5)[0])))
 
     def fails():
         raise InputError("no drawing")
@@ -123,3 +146,28 @@ def test_the_cycle_collector_is_held_off_only_while_a_figure_is_drawn():
     with pytest.raises(InputError):
         figure_png.png_once(("another drawing",), fails, 110)
     assert gc.isenabled()
+
+
+def test_a_png_is_the_same_bytes_on_a_rerun_without_dates_or_text():
+    """No time or text chunk (PNG specification, 11.3.4/11.3.6), so a rerun writes the same file;
+    an opaque drawing is written as RGB (colour type 2), the resolution as matplotlib states it."""
+    fr, res = _portal(1.2)
+    first = figure_png.figure_png(draw_frame(fr, res, "W"), 110)
+    figure_png._PNG.clear()
+    assert figure_png.figure_png(draw_frame(fr, res, "W"), 110) == first
+    chunks = _chunks(first)
+    assert chunks[0] == "IHDR" and chunks[-1] == "IEND" and set(chunks) == {"IHDR", "pHYs", "IDAT", "IEND"}
+    assert Image.open(io.BytesIO(first)).mode == "RGB"
+    assert Image.open(io.BytesIO(first)).info["dpi"] == pytest.approx((110, 110), abs=0.01)
+
+
+def test_a_see_through_figure_keeps_its_alpha():
+    from matplotlib.figure import Figure
+
+    fig = Figure(figsize=(2, 1.5))
+    fig.patch.set_alpha(0.0)  # no background: the PNG must say which pixels are empty
+    fig.add_subplot(1, 1, 1).plot([0, 1], [0, 1])
+    png = figure_png.figure_png(fig, 80)
+    assert Image.open(io.BytesIO(png)).mode == "RGBA"
+    assert _same_picture(png, _saved(fig, dpi=80))
+    assert Image.open(io.BytesIO(png)).getchannel("A").getextrema()[0] == 0
