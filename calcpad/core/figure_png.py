@@ -22,7 +22,7 @@ from typing import Any
 
 from calcpad.core.content_key import content_key
 
-__all__ = ["figure_png", "mark_content", "png_once"]
+__all__ = ["figure_png", "mark_content", "matplotlib_settings", "png_once"]
 
 #: Figure attribute holding the content mark (dropped when the figure changes).
 KEY_ATTR = "_calcpad_content_key"
@@ -31,14 +31,15 @@ LIMIT = 64
 _PNG: dict[tuple[str, int], bytes] = {}
 
 
-def _settings() -> str:
+def matplotlib_settings() -> str:
+    """matplotlib's version and settings (``rcParams``) as text: a drawing depends on them."""
     import matplotlib as mpl  # loaded already when there is a figure, and about to be used otherwise
 
     return f"{mpl.__version__}|{sorted(mpl.rcParams.items())!r}"
 
 
 def _digest(content: tuple[Any, ...]) -> str | None:
-    return content_key(content, _settings())
+    return content_key(content, matplotlib_settings())
 
 
 def mark_content(fig: Any, *content: Any) -> Any:

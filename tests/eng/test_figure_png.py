@@ -171,3 +171,52 @@ def test_a_see_through_figure_keeps_its_alpha():
     assert Image.open(io.BytesIO(png)).mode == "RGBA"
     assert _same_picture(png, _saved(fig, dpi=80))
     assert Image.open(io.BytesIO(png)).getchannel("A").getextrema()[0] == 0
+
+
+def _braced(load: float = 0.8):
+    """Another frame than the portal: a braced bay with a distributed load and a node moment."""
+    fr = Frame("kip", "in")
+    for n, x, y in (("A", 0, 0), ("B", 0, 96), ("C", 180, 96), ("D", 180, 0)):
+        fr.node(n, x, y)
+    for name, i, j in (("c1", "A", "B"), ("bm", "B", "C"), ("c2", "D", "C"), ("br", "A", "C")):
+        fr.member(name, i, j, E="29000 ksi", A="4 in^2", I="30 in^4")
+    fr.support("A", "pinned")
+    fr.support("D", "pinned")
+    fr.member_load("G", "bm", -load / 100)
+    fr.member_point_load("G", "c1", load, 48, "x")
+    fr.node_load("G", "C", Mz=load * 10)
+    return fr, fr.solve()
+
+
+def test_a_kept_figure_drawn_again_is_the_picture_of_a_new_figure():
+    """drawing_png reuses one figure per kind of drawing (``diagrams._skeleton``): emptied, it must
+    draw exactly what a new figure shows — also after a drawing that failed half-way."""
+    from calcpad.eng.analysis import _skeleton
+
+    _skeleton._FIGURES.clear()
+    fr, res = _portal(1.0)
+    fr2, res2 = _braced()
+    drawing_png(draw_frame, fr, res, "W")
+    drawing_png(draw_frame_diagram, res, "W", "M")
+    drawing_png(plot_member, res, "c1", "W", ("N", "V", "M"))
+    kept = {k[0]: v[0] for k, v in _skeleton._FIGURES.items()}
+    with pytest.raises(InputError, match="case"):
+        drawing_png(draw_frame, fr2, res2, "no such case")  # fails after the members are drawn
+    assert _same_picture(drawing_png(draw_frame, fr2, res2, "G"), _saved(draw_frame(fr2, res2, "G")))
+    assert _same_picture(drawing_png(draw_frame_diagram, res2, "G", "V"), _saved(draw_frame_diagram(res2, "G", "V")))
+    assert _same_picture(drawing_png(plot_member, res2, "br", "G", ("N", "V", "M")),
+                         _saved(plot_member(res2, "br", "G", ("N", "V", "M"))))
+    assert {k[0]: v[0] for k, v in _skeleton._FIGURES.items()} == kept  # the same figures, reused
+    assert _same_picture(drawing_png(draw_frame, fr, res, "W", title="Portal"), _saved(draw_frame(fr, res, "W", title="Portal")))
+
+
+def test_a_kept_figure_is_not_reused_under_other_settings():
+    from calcpad.eng.analysis import _skeleton
+
+    fr, res = _portal(1.1)
+    drawing_png(draw_frame_diagram, res, "W", "M")
+    with matplotlib.rc_context({"xtick.color": "#aa0000", "grid.linestyle": "--"}):
+        other = drawing_png(draw_frame_diagram, res, "W", "N")
+        assert _same_picture(other, _saved(draw_frame_diagram(res, "W", "N")))
+    kept = [v[0] for v in _skeleton._FIGURES.values()]
+    assert not any(draw_frame(fr, res, "W") is fig for fig in kept)  # a figure handed out is always new

@@ -9,7 +9,6 @@ notebooks alike and can go straight into ``Sheet.figure``.
 from __future__ import annotations
 
 import functools
-import threading
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
@@ -19,6 +18,7 @@ from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
 from calcpad.core.units import format_number
 from calcpad.eng.analysis._arrows import straight
+from calcpad.eng.analysis._skeleton import layout, on_shared_renderer, reusing
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -127,8 +127,7 @@ def draw_frame(
     about 8 % of the frame size unless ``deflection_scale`` is given)."""
     from matplotlib.patches import FancyArrowPatch
 
-    fig = _figure()
-    ax = fig.add_subplot(1, 1, 1)
+    fig, (ax,) = layout("draw_frame", 7.0, 5.0, 1, _figure)
     ext = _extent(frame)
     s = 0.03 * ext
     for m in frame.members.values():
@@ -276,8 +275,7 @@ def draw_frame_diagram(
     for m in chosen:
         if m not in frame.members:
             raise InputError(f"members: {m!r} not found; expected some of {list(frame.members)}")
-    fig = _figure()
-    ax = fig.add_subplot(1, 1, 1)
+    fig, (ax,) = layout("draw_frame_diagram", 7.0, 5.0, 1, _figure)
     ext = _extent(frame)
     for m in frame.members.values():
         if m.name not in chosen:
@@ -313,9 +311,9 @@ def _draw_frame_diagram_content(result: FrameResult, case: str, quantity: str = 
     return ("draw_frame_diagram", _solution(result), case, quantity, scale, None if members is None else list(members))
 
 
-def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
-    fig = _figure(7.0, 2.1 * len(rows), rows=len(rows))
-    axes = [fig.add_subplot(len(rows), 1, i + 1) for i in range(len(rows))]
+def _three_panels(kind: str, x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
+    n = len(rows)
+    fig, axes = layout(kind, 7.0, 2.1 * n, n, functools.partial(_figure, 7.0, 2.1 * n, rows=n))
     for ax, (lab, y, unit) in zip(axes, rows, strict=True):
         ax.plot(x, y, color=_MEMBER, lw=1.5)
         ax.fill_between(x, 0, y, color=_MEMBER, alpha=0.15)
@@ -337,7 +335,7 @@ def plot_beam(sol: BeamSolution, title: str = "Beam") -> Figure:
     rows = [("V", sol.V, u.get("force", "")), ("M", sol.M, u.get("moment", ""))]
     if sol.delta is not None:
         rows.append(("deflection (down +)", sol.delta, u.get("length", "")))
-    fig = _three_panels(sol.x, rows, title, f"x [{u.get('length', '')}]")
+    fig = _three_panels("plot_beam", sol.x, rows, title, f"x [{u.get('length', '')}]")
     return mark_content(fig, "plot_beam", sol.x, rows, title, u)
 
 
@@ -351,7 +349,7 @@ def plot_member(result: FrameResult, member: str, case: str, quantities: tuple[s
         if q not in units:
             raise InputError(f"quantities: {q!r}; expected some of {list(units)}")
         rows.append((q, getattr(dg, q), units[q]))
-    fig = _three_panels(dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
+    fig = _three_panels("plot_member", dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
     return mark_content(fig, *_plot_member_content(result, member, case, quantities))
 
 
@@ -364,45 +362,17 @@ _CONTENT: dict[Callable[..., Figure], Callable[..., tuple[Any, ...]]] = {
     draw_frame: _draw_frame_content, draw_frame_diagram: _draw_frame_diagram_content, plot_member: _plot_member_content}
 
 
-#: Agg renderers shared by the figures :func:`drawing_png` draws, by size, resolution and thread.
-_RENDERERS: dict[tuple[float, float, float, int], Any] = {}
-_RENDERERS_MAX = 8
-
-
-@functools.cache
-def _shared_renderer_canvas() -> type:
-    """An Agg canvas class that draws with a renderer shared by the figures of one size and
-    resolution (in one thread): matplotlib keeps text measurements per renderer, so labels
-    measured for one drawing are not measured again for the next, and no new pixel buffer is
-    made. Only for figures drawn and saved at once (the shared buffer holds the last drawing)."""
-    from matplotlib.backends.backend_agg import FigureCanvasAgg, RendererAgg
-
-    class SharedRendererCanvas(FigureCanvasAgg):
-        def get_renderer(self) -> RendererAgg:
-            w, h = self.figure.bbox.size
-            key = (w, h, self.figure.dpi, threading.get_ident())
-            renderer = _RENDERERS.get(key)
-            if renderer is None:
-                while len(_RENDERERS) >= _RENDERERS_MAX:
-                    _RENDERERS.pop(next(iter(_RENDERERS)), None)
-                renderer = _RENDERERS[key] = RendererAgg(w, h, self.figure.dpi)
-            self.renderer, self._lastKey = renderer, key[:3]
-            return renderer
-
-    return SharedRendererCanvas
-
-
-def _on_shared_renderer(fig: Figure) -> Figure:
-    """``fig``, drawn from now on with a shared renderer (:func:`_shared_renderer_canvas`)."""
-    _shared_renderer_canvas()(fig)
-    return fig
-
-
 def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwargs: Any) -> bytes:
     """PNG of ``draw(*args, **kwargs)`` (``draw_frame``, ``draw_frame_diagram`` or ``plot_member``) at
     ``dpi`` (110: as ``Sheet.figure`` saves a figure), drawn only when the same drawing was not made
-    before in this process (the inputs decide). For ``Sheet.figure``: the same bytes as passing the
-    figure, without building it again for a frame drawn before."""
+    before in this process (the inputs decide), on a figure and renderer kept from the last drawing
+    of its kind (:mod:`calcpad.eng.analysis._skeleton`). For ``Sheet.figure``: the same picture as
+    passing the figure, without building it again for a frame drawn before."""
     if draw not in _CONTENT:
         raise InputError(f"draw: got {getattr(draw, '__name__', draw)!r}; expected one of {[f.__name__ for f in _CONTENT]}")
-    return png_once(_CONTENT[draw](*args, **kwargs), lambda: _on_shared_renderer(draw(*args, **kwargs)), dpi)
+
+    def build() -> Figure:
+        with reusing():  # saved before the next drawing: a kept figure of this kind will do
+            return on_shared_renderer(draw(*args, **kwargs))
+
+    return png_once(_CONTENT[draw](*args, **kwargs), build, dpi)

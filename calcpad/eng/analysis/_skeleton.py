@@ -1,0 +1,119 @@
+"""matplotlib objects kept between the drawings :func:`diagrams.drawing_png` draws and saves at once.
+
+- One Agg renderer per size, resolution and thread (:func:`on_shared_renderer`): matplotlib keeps
+  text measurements per renderer, so labels measured for one drawing are not measured again for
+  the next, and no new pixel buffer is made.
+- One figure per kind of drawing, size and thread (:func:`layout`, inside :func:`reusing`): the
+  next drawing of that kind gets the figure back with its axes emptied (every artist removed,
+  data limits reset) but their ticks, spines and layout kept, as long as matplotlib's settings
+  (``rcParams``) are those it was made with. A fresh figure makes some twenty
+  ``Tick`` objects (five artists each) and its axes anew: about a fifth of a frame drawing. A kind
+  of drawing sets the same axes properties every time (aspect, margins, grid, label positions),
+  so what it draws on the emptied figure is what it draws on a new one.
+
+Only for figures saved and dropped before the next drawing of their kind in the thread: the
+renderer's buffer and the kept figure hold the last drawing.
+"""
+
+from __future__ import annotations
+
+import functools
+import threading
+from collections.abc import Callable, Iterator
+from contextlib import contextmanager
+from typing import Any
+
+from calcpad.core.figure_png import KEY_ATTR, matplotlib_settings
+
+__all__ = ["layout", "on_shared_renderer", "reusing"]
+
+#: Agg renderers shared by the figures drawn and saved at once, by size, resolution and thread.
+_RENDERERS: dict[tuple[float, float, float, int], Any] = {}
+_RENDERERS_MAX = 8
+#: Figures kept for reuse by (kind, width, height, rows, thread): the figure, its axes, the
+#: figure's own ``stale_callback`` (``mark_content`` chains one onto it for each drawing) and
+#: matplotlib's settings when it was made (the axes took colours, fonts and ticks from them).
+_FIGURES: dict[tuple[str, float, float, int, int], tuple[Any, list[Any], Any, str]] = {}
+_FIGURES_MAX = 8
+_STATE = threading.local()
+
+
+@functools.cache
+def _shared_renderer_canvas() -> type:
+    """An Agg canvas class that draws with a renderer shared by the figures of one size and
+    resolution (in one thread)."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg, RendererAgg
+
+    class SharedRendererCanvas(FigureCanvasAgg):
+        def get_renderer(self) -> RendererAgg:
+            w, h = self.figure.bbox.size
+            key = (w, h, self.figure.dpi, threading.get_ident())
+            renderer = _RENDERERS.get(key)
+            if renderer is None:
+                while len(_RENDERERS) >= _RENDERERS_MAX:
+                    _RENDERERS.pop(next(iter(_RENDERERS)), None)
+                renderer = _RENDERERS[key] = RendererAgg(w, h, self.figure.dpi)
+            self.renderer, self._lastKey = renderer, key[:3]
+            return renderer
+
+    return SharedRendererCanvas
+
+
+def on_shared_renderer(fig: Any) -> Any:
+    """``fig``, drawn from now on with a shared renderer."""
+    if not isinstance(fig.canvas, _shared_renderer_canvas()):
+        _shared_renderer_canvas()(fig)
+    return fig
+
+
+@contextmanager
+def reusing() -> Iterator[None]:
+    """Within: :func:`layout` hands out kept figures (for a drawing saved before the next one)."""
+    before = getattr(_STATE, "on", False)
+    _STATE.on = True
+    try:
+        yield
+    finally:
+        _STATE.on = before
+
+
+def layout(kind: str, w: float, h: float, rows: int, make: Callable[[], Any]) -> tuple[Any, list[Any]]:
+    """A figure from ``make()`` with ``rows`` axes in one column, and the axes. Inside
+    :func:`reusing`, the figure kept for ``kind`` at this size, emptied, when there is one."""
+    if not getattr(_STATE, "on", False):
+        fig = make()
+        return fig, [fig.add_subplot(rows, 1, i + 1) for i in range(rows)]
+    key, settings = (kind, w, h, rows, threading.get_ident()), matplotlib_settings()
+    kept = _FIGURES.get(key)
+    if kept is not None and kept[3] == settings:
+        fig, axes, callback, _ = kept
+        _empty(fig, axes, callback)
+        return fig, axes
+    fig = on_shared_renderer(make())
+    axes = [fig.add_subplot(rows, 1, i + 1) for i in range(rows)]
+    _FIGURES.pop(key, None)
+    while len(_FIGURES) >= _FIGURES_MAX:
+        _FIGURES.pop(next(iter(_FIGURES)), None)
+    _FIGURES[key] = (fig, axes, fig.stale_callback, settings)
+    return fig, axes
+
+
+def _empty(fig: Any, axes: list[Any], callback: Any) -> None:
+    """Remove what a drawing put on ``fig`` (also one that failed half-way): figure legends, every
+    artist of the axes and their legends; data limits back to none and view limits to 0-1, as on
+    new axes."""
+    for legend in list(fig.legends):
+        legend.remove()
+    for ax in axes:
+        for artist in [*ax.lines, *ax.patches, *ax.texts, *ax.collections, *ax.images, *ax.artists, *ax.tables]:
+            artist.remove()
+        if ax.get_legend() is not None:
+            ax.get_legend().remove()
+        ax.relim()  # no artists left: the data limits are null and ignored, as on new axes
+        # the view of new axes: a patch added before the drawing is autoscaled takes its data
+        # limits from its outline in the view of the moment (arrow heads are sized in points)
+        ax.set_xlim(0.0, 1.0, auto=None)
+        ax.set_ylim(0.0, 1.0, auto=None)
+    fig.stale_callback = callback
+    if hasattr(fig, KEY_ATTR):
+        delattr(fig, KEY_ATTR)
