@@ -91,11 +91,46 @@ def layout(kind: str, w: float, h: float, rows: int, make: Callable[[], Any]) ->
         return fig, axes
     fig = on_shared_renderer(make())
     axes = [fig.add_subplot(rows, 1, i + 1) for i in range(rows)]
+    _ticks_once_per_draw(fig, axes)
     _FIGURES.pop(key, None)
     while len(_FIGURES) >= _FIGURES_MAX:
         _FIGURES.pop(next(iter(_FIGURES)), None)
     _FIGURES[key] = (fig, axes, fig.stale_callback, settings)
     return fig, axes
+
+
+def _ticks_once_per_draw(fig: Any, axes: list[Any]) -> None:
+    """Each axis of ``fig`` works out its ticks once per view while the figure is drawn. matplotlib
+    asks an axis for the ticks to draw about six times in a draw (the title's place, the axis
+    label's, the spines', the axis itself), each time running the locator and the formatter over
+    the same view; the view is settled (aspect applied) before the axes are drawn."""
+    draw = fig.draw
+
+    def drawn_with_tick_memo(renderer: Any) -> Any:
+        _STATE.ticks = {}
+        try:
+            return draw(renderer)
+        finally:
+            _STATE.ticks = None
+
+    fig.draw = drawn_with_tick_memo
+    for axis in (a for ax in axes for a in (ax.xaxis, ax.yaxis)):
+        if callable(getattr(axis, "_update_ticks", None)):  # matplotlib's private step (3.x)
+            axis._update_ticks = _tick_memo(axis, axis._update_ticks)
+
+
+def _tick_memo(axis: Any, update: Callable[[], list[Any]]) -> Callable[[], list[Any]]:
+    def update_ticks() -> list[Any]:
+        memo = getattr(_STATE, "ticks", None)
+        if memo is None:  # not within a draw of the figure
+            return update()
+        key = (id(axis), *axis.get_view_interval(), id(axis.get_major_locator()), id(axis.get_major_formatter()),
+               id(axis.get_minor_locator()), id(axis.get_minor_formatter()))
+        if key not in memo:
+            memo[key] = update()
+        return list(memo[key])
+
+    return update_ticks
 
 
 def _empty(fig: Any, axes: list[Any], callback: Any) -> None:
