@@ -3,7 +3,8 @@
 Each code, in its own interpreter, runs the example job once and records every drawing it asks
 for (``drawing_png`` of the frame drawings and member plots, ``sections_png``), then draws and
 saves each of them again ``--passes`` times with the content cache emptied before every drawing
-(what a calc with loads of its own costs: build the figure, draw it, encode the PNG). Baseline and
+(what a calc with loads of its own costs: ``png_once`` keys the content, builds the figure,
+draws it and encodes the PNG). Baseline and
 current code alternate ``--rounds`` times so machine noise hits both alike; the best pass of all
 rounds is kept. CPU time of the process (steadier than wall time on a shared machine) per drawing,
 per kind of drawing and in total, and the ratio now/baseline.
@@ -41,7 +42,7 @@ from calcpad.runner.job import load_job
 seen = []
 def recorder(kind, original):
     def png_once(content, build, dpi):
-        seen.append((kind if kind != "frame" else content[0], build, dpi))
+        seen.append((kind if kind != "frame" else content[0], content, build, dpi))
         return original(content, build, dpi)
     return png_once
 diagrams.png_once = recorder("frame", diagrams.png_once)
@@ -49,29 +50,28 @@ plot.png_once = recorder("draw_sections", plot.png_once)
 out = run_job(load_job(root + "/examples/harbor_ridge_condenser_stand.toml"))
 assert not any(o.error for o in out), [o.error for o in out if o.error]
 
-def draw(build, dpi):
+def draw(content, build, dpi):
     figure_png._PNG.clear()  # no kept PNG: every drawing is built, drawn and encoded
-    with figure_png._collector_paused():
-        return figure_png.figure_png(build(), dpi)
+    return figure_png.png_once(content, build, dpi)
 
 if save:
     from pathlib import Path
     folder = Path(save); folder.mkdir(parents=True, exist_ok=True)
-    for i, (kind, build, dpi) in enumerate(seen):
-        (folder / f"{i:02d}_{kind}.png").write_bytes(draw(build, dpi))
+    for i, (kind, content, build, dpi) in enumerate(seen):
+        (folder / f"{i:02d}_{kind}.png").write_bytes(draw(content, build, dpi))
 best, kinds, sizes = None, {}, {}
 for _ in range(passes):
     per = {}
-    for kind, build, dpi in seen:
+    for kind, content, build, dpi in seen:
         c = time.process_time()
-        png = draw(build, dpi)
+        png = draw(content, build, dpi)
         per.setdefault(kind, []).append(time.process_time() - c)
         sizes.setdefault(kind, []).append(len(png))
     total = sum(sum(v) for v in per.values())
     if best is None or total < best:
         best, kinds = total, {k: sum(v) / len(v) for k, v in per.items()}
 counts = {}
-for kind, _, _ in seen:
+for kind, *_ in seen:
     counts[kind] = counts.get(kind, 0) + 1
 print(json.dumps({"drawings": len(seen), "cpu": best, "kinds": kinds, "counts": counts,
                   "bytes": {k: sum(v) // len(v) for k, v in sizes.items()}}))

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import gc
 import io
+import threading
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from typing import Any
@@ -29,17 +30,34 @@ KEY_ATTR = "_calcpad_content_key"
 #: Distinct drawings kept, the oldest dropped first (a PNG is some 30-60 kB).
 LIMIT = 64
 _PNG: dict[tuple[str, int], bytes] = {}
+#: The settings read when :func:`png_once` began, held while it builds the figure (per thread).
+_HELD = threading.local()
 
 
 def matplotlib_settings() -> str:
-    """matplotlib's version and settings (``rcParams``) as text: a drawing depends on them."""
+    """matplotlib's version and settings (``rcParams``) as text: a drawing depends on them.
+    While :func:`png_once` builds a figure, the text it read before (the drawing functions it
+    calls do not change the settings; reading them costs about a millisecond each time)."""
+    held = getattr(_HELD, "settings", None)
+    if held is not None:
+        return held
     import matplotlib as mpl  # loaded already when there is a figure, and about to be used otherwise
 
     return f"{mpl.__version__}|{sorted(mpl.rcParams.items())!r}"
 
 
-def _digest(content: tuple[Any, ...]) -> str | None:
-    return content_key(content, matplotlib_settings())
+@contextmanager
+def _settings_held(settings: str) -> Iterator[None]:
+    before = getattr(_HELD, "settings", None)
+    _HELD.settings = settings
+    try:
+        yield
+    finally:
+        _HELD.settings = before
+
+
+def _digest(content: tuple[Any, ...], settings: str | None = None) -> str | None:
+    return content_key(content, settings or matplotlib_settings())
 
 
 def mark_content(fig: Any, *content: Any) -> Any:
@@ -93,11 +111,12 @@ def _collector_paused() -> Iterator[None]:
 def png_once(content: tuple[Any, ...], build: Callable[[], Any], dpi: int) -> bytes:
     """The PNG at ``dpi`` of the figure ``build()`` returns, which draws ``content`` (as for
     :func:`mark_content`); ``build`` is called only when this content has not been drawn before."""
-    digest = _digest(content)
+    settings = matplotlib_settings()
+    digest = _digest(content, settings)
     png = _kept((digest, dpi)) if digest is not None else None
     if png is not None:
         return png
-    with _collector_paused():
+    with _collector_paused(), _settings_held(settings):
         png = figure_png(build(), dpi)
     if digest is not None:
         _keep((digest, dpi), png)
