@@ -27,6 +27,9 @@ __all__ = ["figure_png", "mark_content", "matplotlib_settings", "png_once"]
 
 #: Figure attribute holding the content mark (dropped when the figure changes).
 KEY_ATTR = "_calcpad_content_key"
+#: zlib level of the PNGs (:func:`_encode`): a third less time than matplotlib's 6, files as large
+#: as matplotlib's RGBA ones.
+COMPRESS_LEVEL = 3
 #: Distinct drawings kept, the oldest dropped first (a PNG is some 30-60 kB).
 LIMIT = 64
 _PNG: dict[tuple[str, int], bytes] = {}
@@ -142,8 +145,10 @@ def figure_png(fig: Any, dpi: int) -> bytes:
 def _encode(rgba: bytes, fig: Any, dpi: int) -> bytes | None:
     """PNG of the raw pixels ``savefig`` drew for ``fig`` at ``dpi``, with the resolution chunk
     matplotlib writes and no text chunks. An opaque drawing (every figure with a background) is
-    written as RGB: the same picture as matplotlib's RGBA file, about a fifth faster to compress
-    and an eighth smaller. ``None`` when the pixels are not those of the figure's size."""
+    written as RGB, the same picture as matplotlib's RGBA file, at zlib level 3 (matplotlib: 6).
+    On the example job's six drawings: RGBA at 6 (matplotlib's file) 10.1 ms and 36 KiB a drawing,
+    RGB at 6 8.7 ms and 33 KiB, RGB at 3 6.5 ms and 37 KiB (1 and 2 no faster, and larger).
+    ``None`` when the pixels are not those of the figure's size."""
     from PIL import Image  # matplotlib's own PNG writer
 
     width, height = int(fig.get_figwidth() * dpi), int(fig.get_figheight() * dpi)
@@ -153,7 +158,7 @@ def _encode(rgba: bytes, fig: Any, dpi: int) -> bytes | None:
     if image.getchannel("A").getextrema() == (255, 255):
         image = image.convert("RGB")
     out = io.BytesIO()
-    image.save(out, format="png", dpi=(dpi, dpi))
+    image.save(out, format="png", dpi=(dpi, dpi), compress_level=COMPRESS_LEVEL)
     return out.getvalue()
 
 
