@@ -17,7 +17,7 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
 from calcpad.core.units import format_number
-from calcpad.eng.analysis._arrows import straight
+from calcpad.eng.analysis._arrows import arrow_row, straight
 from calcpad.eng.analysis._skeleton import layout, on_shared_renderer, reusing
 
 if TYPE_CHECKING:  # pragma: no cover
@@ -218,10 +218,13 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             c, sn = (x2 - x1) / L, (y2 - y1) / L
             dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
             sign = np.sign(w * f) or 1.0
-            for t in np.linspace(0.05, 0.95, 7):
-                px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
-                _add_straight(ax, Arrow, (px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
-                              arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8)
+            t = np.linspace(0.05, 0.95, 7)
+            px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
+            tails = np.column_stack([px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6])
+            ends = [(tuple(tail), tip) for tail, tip in zip(tails.tolist(), zip(px.tolist(), py.tolist(), strict=True), strict=True)]
+            row = ax.add_artist(arrow_row(ends, arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
+            row._set_in_autoscale(True)  # as add_patch
+            ax.update_datalim(np.vstack([tails, np.column_stack([px, py])]))
             spread.setdefault((cn, _num(w), d), []).append(mname)
         for mname, P, a, d in case.point:
             m = frame.members[mname]
