@@ -33,7 +33,8 @@ COMPRESS_LEVEL = 3
 #: Distinct drawings kept, the oldest dropped first (a PNG is some 30-60 kB).
 LIMIT = 64
 _PNG: dict[tuple[str, int], bytes] = {}
-#: The settings read when :func:`png_once` began, held while it builds the figure (per thread).
+#: The settings read when :func:`png_once` began, held while it builds the figure (per thread);
+#: held, they also say that the figure being built is saved at once under png_once's key.
 _HELD = threading.local()
 
 
@@ -66,7 +67,10 @@ def _digest(content: tuple[Any, ...], settings: str | None = None) -> str | None
 def mark_content(fig: Any, *content: Any) -> Any:
     """Mark ``fig`` as the drawing of ``content`` (what decides the drawing: names, numbers,
     arrays, models; see :func:`calcpad.core.content_key.content_key`) and return it. The mark is
-    dropped as soon as the figure or anything in it changes."""
+    dropped as soon as the figure or anything in it changes. Inside :func:`png_once` (which keeps
+    the PNG under its own key and saves the figure at once) the figure is returned unmarked."""
+    if getattr(_HELD, "settings", None) is not None:
+        return fig
     digest = _digest(content)
     if digest is None:  # no exact description: saved every time
         return fig
