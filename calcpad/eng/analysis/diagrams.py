@@ -125,25 +125,32 @@ def draw_frame(
     """Draw the frame model: members, node names, supports, end releases (open circles), the
     loads of ``case`` and, with ``result``, the deflected shape (magnified automatically to
     about 8 % of the frame size unless ``deflection_scale`` is given)."""
+    from matplotlib.collections import LineCollection
     from matplotlib.patches import FancyArrowPatch
 
     fig, (ax,) = layout("draw_frame", 7.0, 5.0, 1, _figure)
     ext = _extent(frame)
     s = 0.03 * ext
+    # one artist for all members, one for all releases, one for all nodes (an artist each was
+    # a third of the time it took to set up a frame drawing); each member still its own path
+    ax.add_collection(LineCollection([(frame.nodes[m.i], frame.nodes[m.j]) for m in frame.members.values()],
+                                     colors=_MEMBER, linewidths=2.5, capstyle="round", zorder=2))
+    releases: list[tuple[float, float]] = []
     for m in frame.members.values():
         (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
-        ax.plot([x1, x2], [y1, y2], "-", color=_MEMBER, lw=2.5, solid_capstyle="round", zorder=2)
         L = np.hypot(x2 - x1, y2 - y1)
         ux, uy = (x2 - x1) / L, (y2 - y1) / L
         # names below a beam and inside a post: loads are drawn on the other side
         ox, oy = uy * 1.3 * s, -ux * 1.3 * s
         ax.text((x1 + x2) / 2 + ox, (y1 + y2) / 2 + oy, m.name, fontsize=8, color=_MEMBER,
                 ha="left" if ox > 0.5 * abs(oy) else "right" if ox < -0.5 * abs(oy) else "center", va="center")
-        for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)):
-            if flag:
-                ax.plot(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s, "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
+        releases += [(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s)
+                     for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)) if flag]
+    if releases:
+        ax.plot(*zip(*releases, strict=True), "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
+    if frame.nodes:
+        ax.plot(*zip(*frame.nodes.values(), strict=True), "s", color="k", ms=3, zorder=3)
     for n, (x, y) in frame.nodes.items():
-        ax.plot(x, y, "s", color="k", ms=3, zorder=3)
         ax.text(x + 0.6 * s, y + 0.6 * s, n, fontsize=9, fontweight="bold")
         if n in frame.supports:
             _support(ax, x, y, frame.supports[n], s)
