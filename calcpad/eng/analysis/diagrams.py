@@ -278,6 +278,8 @@ def draw_frame_diagram(
     """Draw ``N``, ``V`` or ``M`` of ``case`` on the frame, offset normal to each member (moment
     on the tension side: positive M drawn on the member's local -y side). ``members`` limits the
     diagram to some members (the others are drawn plain)."""
+    from matplotlib.collections import LineCollection
+
     if quantity not in ("N", "V", "M"):
         raise InputError(f"quantity: got {quantity!r}; expected 'N', 'V' or 'M'")
     frame = result.frame
@@ -296,6 +298,7 @@ def draw_frame_diagram(
     k = scale if scale is not None else (0.12 * ext / vmax if vmax > 0 else 1.0)
     unit = result.units["moment"] if quantity == "M" else result.units["force"]
     sgn = -1.0 if quantity == "M" else 1.0
+    paths: list[np.ndarray] = []  # each member's axis, then its diagram's outline: one artist, a path each
     for dg in dgs:
         m = frame.members[dg.member]
         (x1, y1) = frame.nodes[m.i]
@@ -303,12 +306,13 @@ def draw_frame_diagram(
         bx, by = x1 + c * dg.x, y1 + sn * dg.x
         val = getattr(dg, quantity)
         ox, oy = bx + sgn * k * val * (-sn), by + sgn * k * val * c
-        ax.plot(bx, by, "-", color=_MEMBER, lw=2)
+        paths += [np.column_stack([bx, by]), np.column_stack([ox, oy])]
         _add_polygon(ax, np.column_stack([np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]]]), color=_LOAD, alpha=0.25, lw=0)
-        ax.plot(ox, oy, "-", color=_LOAD, lw=1)
         for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
             if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
                 ax.text(ox[idx], oy[idx], f"{_num(val[idx])}", fontsize=7, color=_LOAD)
+    ax.add_collection(LineCollection(paths, colors=[_MEMBER, _LOAD] * len(dgs), linewidths=[2, 1] * len(dgs),
+                                     capstyle="projecting", joinstyle="round", zorder=2))
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
     ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
