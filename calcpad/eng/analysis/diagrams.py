@@ -171,12 +171,15 @@ def draw_frame(
             base = x0 + np.vstack([c * dg.x, sn * dg.x])
             dmax = max(dmax, float(np.abs(np.vstack([dg.xg, dg.yg]) - base).max()))
         scale = deflection_scale if deflection_scale is not None else (0.08 * ext / dmax if dmax > 0 else 1.0)
+        shapes = []
         for dg in dgs:
             m = frame.members[dg.member]
             x0, y0 = frame.nodes[m.i]
             c, sn = result.direction(dg.member)
             bx, by = x0 + c * dg.x, y0 + sn * dg.x
-            ax.plot(bx + scale * (dg.xg - bx), by + scale * (dg.yg - by), "--", color=_DEFL, lw=1.2, zorder=1)
+            shapes.append(np.column_stack([bx + scale * (dg.xg - bx), by + scale * (dg.yg - by)]))
+        ax.add_collection(LineCollection(shapes, colors=_DEFL, linewidths=1.2, linestyles="--", capstyle="butt",
+                                         joinstyle="round", zorder=1))
         ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{_num(scale)}")
         fig.legend(loc="lower right", fontsize=8, frameon=False)  # below the axes: no search for a spot
     ax.set_aspect("equal", adjustable="datalim")
