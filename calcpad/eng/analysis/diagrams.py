@@ -231,10 +231,11 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             t = np.linspace(0.05, 0.95, 7)
             px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
             tails = np.column_stack([px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6])
-            ends = [(tuple(tail), tip) for tail, tip in zip(tails.tolist(), zip(px.tolist(), py.tolist(), strict=True), strict=True)]
+            tips = np.column_stack([px, py])
+            ends = [(tuple(a), tuple(b)) for a, b in zip(tails.tolist(), tips.tolist(), strict=True)]
             row = ax.add_artist(arrow_row(ends, arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
             row._set_in_autoscale(True)  # as add_patch
-            ax.update_datalim(np.vstack([tails, np.column_stack([px, py])]))
+            ax.update_datalim(np.vstack([tails, tips]))
             spread.setdefault((cn, _num(w), d), []).append(mname)
         for mname, P, a, d in case.point:
             m = frame.members[mname]
