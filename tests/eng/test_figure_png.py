@@ -122,6 +122,10 @@ def test_sections_png_is_the_drawing_of_these_sections():
     assert sections_png([thin], ["Before"], dpi=100) == first
     other = sections_png([thick], ["Before"], dpi=100)  # same name, another wall: drawn anew
     assert other != first and _same_picture(other, _saved(draw_sections([thick], ["Before"]), dpi=100))
+    pair = sections_png([thin, thick], ["Before", "After"], dpi=100)  # two sections: another kept figure
+    assert _same_picture(pair, _saved(draw_sections([thin, thick], ["Before", "After"]), dpi=100))
+    again = sections_png([thick, thin], None, dpi=100)  # that figure emptied and drawn again
+    assert again != pair and _same_picture(again, _saved(draw_sections([thick, thin]), dpi=100))
 
 
 def test_the_cycle_collector_is_held_off_only_while_a_figure_is_drawn():
@@ -189,9 +193,9 @@ def _braced(load: float = 0.8):
 
 
 def test_a_kept_figure_drawn_again_is_the_picture_of_a_new_figure():
-    """drawing_png reuses one figure per kind of drawing (``diagrams._skeleton``): emptied, it must
+    """drawing_png reuses one figure per kind of drawing (``calcpad.eng.figure_reuse``): emptied, it must
     draw exactly what a new figure shows — also after a drawing that failed half-way."""
-    from calcpad.eng.analysis import _skeleton
+    from calcpad.eng import figure_reuse as _skeleton
 
     _skeleton._FIGURES.clear()
     fr, res = _portal(1.0)
@@ -211,7 +215,7 @@ def test_a_kept_figure_drawn_again_is_the_picture_of_a_new_figure():
 
 
 def test_a_kept_figure_is_not_reused_under_other_settings():
-    from calcpad.eng.analysis import _skeleton
+    from calcpad.eng import figure_reuse as _skeleton
 
     fr, res = _portal(1.1)
     drawing_png(draw_frame_diagram, res, "W", "M")

@@ -18,7 +18,7 @@ from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
 from calcpad.core.units import format_number
 from calcpad.eng.analysis._arrows import arrow_row, straight
-from calcpad.eng.analysis._skeleton import layout, on_shared_renderer, reusing
+from calcpad.eng.figure_reuse import layout, on_shared_renderer, reusing
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -384,7 +384,7 @@ def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwarg
     """PNG of ``draw(*args, **kwargs)`` (``draw_frame``, ``draw_frame_diagram`` or ``plot_member``) at
     ``dpi`` (110: as ``Sheet.figure`` saves a figure), drawn only when the same drawing was not made
     before in this process (the inputs decide), on a figure and renderer kept from the last drawing
-    of its kind (:mod:`calcpad.eng.analysis._skeleton`). For ``Sheet.figure``: the same picture as
+    of its kind (:mod:`calcpad.eng.figure_reuse`). For ``Sheet.figure``: the same picture as
     passing the figure, without building it again for a frame drawn before."""
     if draw not in _CONTENT:
         raise InputError(f"draw: got {getattr(draw, '__name__', draw)!r}; expected one of {[f.__name__ for f in _CONTENT]}")

@@ -1,4 +1,5 @@
-"""matplotlib objects kept between the drawings :func:`diagrams.drawing_png` draws and saves at once.
+"""matplotlib objects kept between drawings that are saved as soon as they are drawn (the frame
+drawings of ``analysis.diagrams.drawing_png``, the section outlines of ``sections.plot.sections_png``).
 
 - One Agg renderer per size, resolution and thread (:func:`on_shared_renderer`): matplotlib keeps
   text measurements per renderer, so labels measured for one drawing are not measured again for
@@ -30,10 +31,10 @@ __all__ = ["layout", "on_shared_renderer", "reusing"]
 #: Agg renderers shared by the figures drawn and saved at once, by size, resolution and thread.
 _RENDERERS: dict[tuple[float, float, float, int], Any] = {}
 _RENDERERS_MAX = 8
-#: Figures kept for reuse by (kind, width, height, rows, thread): the figure, its axes, the
+#: Figures kept for reuse by (kind, width, height, rows, columns, thread): the figure, its axes, the
 #: figure's own ``stale_callback`` (``mark_content`` chains one onto it for each drawing) and
 #: matplotlib's settings when it was made (the axes took colours, fonts and ticks from them).
-_FIGURES: dict[tuple[str, float, float, int, int], tuple[Any, list[Any], Any, str]] = {}
+_FIGURES: dict[tuple[str, float, float, int, int, int], tuple[Any, list[Any], Any, str]] = {}
 _FIGURES_MAX = 8
 _STATE = threading.local()
 
@@ -77,20 +78,20 @@ def reusing() -> Iterator[None]:
         _STATE.on = before
 
 
-def layout(kind: str, w: float, h: float, rows: int, make: Callable[[], Any]) -> tuple[Any, list[Any]]:
-    """A figure from ``make()`` with ``rows`` axes in one column, and the axes. Inside
-    :func:`reusing`, the figure kept for ``kind`` at this size, emptied, when there is one."""
+def layout(kind: str, w: float, h: float, rows: int, make: Callable[[], Any], cols: int = 1) -> tuple[Any, list[Any]]:
+    """A figure from ``make()`` with a grid of ``rows`` x ``cols`` axes, and the axes row by row.
+    Inside :func:`reusing`, the figure kept for ``kind`` at this size, emptied, when there is one."""
     if not getattr(_STATE, "on", False):
         fig = make()
-        return fig, [fig.add_subplot(rows, 1, i + 1) for i in range(rows)]
-    key, settings = (kind, w, h, rows, threading.get_ident()), matplotlib_settings()
+        return fig, [fig.add_subplot(rows, cols, i + 1) for i in range(rows * cols)]
+    key, settings = (kind, w, h, rows, cols, threading.get_ident()), matplotlib_settings()
     kept = _FIGURES.get(key)
     if kept is not None and kept[3] == settings:
         fig, axes, callback, _ = kept
         _empty(fig, axes, callback)
         return fig, axes
     fig = on_shared_renderer(make())
-    axes = [fig.add_subplot(rows, 1, i + 1) for i in range(rows)]
+    axes = [fig.add_subplot(rows, cols, i + 1) for i in range(rows * cols)]
     _ticks_once_per_draw(fig, axes)
     _FIGURES.pop(key, None)
     while len(_FIGURES) >= _FIGURES_MAX:
