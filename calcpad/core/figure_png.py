@@ -155,15 +155,24 @@ def _encode(rgba: bytes, fig: Any, dpi: int) -> bytes | None:
     ``None`` when the pixels are not those of the figure's size."""
     from PIL import Image  # matplotlib's own PNG writer
 
-    width, height = int(fig.get_figwidth() * dpi), int(fig.get_figheight() * dpi)
-    if len(rgba) != 4 * width * height:
+    size = _pixel_size(len(rgba) // 4, fig.get_figwidth() * dpi, fig.get_figheight() * dpi)
+    if size is None or len(rgba) % 4:
         return None
+    width, height = size
     image = Image.frombuffer("RGBA", (width, height), rgba, "raw", "RGBA", 0, 1)
     if image.getchannel("A").getextrema() == (255, 255):
         image = image.convert("RGB")
     out = io.BytesIO()
     image.save(out, format="png", dpi=(dpi, dpi), compress_level=COMPRESS_LEVEL)
     return out.getvalue()
+
+
+def _pixel_size(pixels: int, width: float, height: float) -> tuple[int, int] | None:
+    """Width and height in pixels of a drawing of ``pixels`` pixels at about ``width`` x ``height``:
+    matplotlib truncates its own product of inches and dpi, which can land either side of a whole
+    number (8.2 in x 110 dpi: 902 pixels, 8.2 * 110 = 901.99...). ``None`` unless one pair fits."""
+    sizes = {(w, h) for w in {int(width), round(width)} for h in {int(height), round(height)} if w * h == pixels}
+    return sizes.pop() if len(sizes) == 1 else None
 
 
 def _matplotlib_png(fig: Any, dpi: int) -> bytes:

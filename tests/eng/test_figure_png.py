@@ -224,3 +224,16 @@ def test_a_kept_figure_is_not_reused_under_other_settings():
         assert _same_picture(other, _saved(draw_frame_diagram(res, "W", "N")))
     kept = [v[0] for v in _skeleton._FIGURES.values()]
     assert not any(draw_frame(fr, res, "W") is fig for fig in kept)  # a figure handed out is always new
+
+
+@pytest.mark.parametrize(("size", "dpi"), [((8.2, 1.22), 110), ((8.28, 2.5), 100), ((7.042, 4.515), 200), ((3.0, 2.0), 80)])
+def test_a_figure_whose_inches_times_dpi_miss_a_whole_number_is_written_whole(size, dpi):
+    """8.2 in x 110 dpi is 901.99... in floating point; matplotlib's canvas has 902 pixels. The
+    PNG must have matplotlib's size and pixels (and be written by figure_png, as RGB)."""
+    from matplotlib.figure import Figure
+
+    fig = Figure(figsize=size)
+    fig.add_subplot(1, 1, 1).plot([0, 1], [1, 0])
+    png = figure_png.figure_png(fig, dpi)
+    assert _same_picture(png, _saved(fig, dpi=dpi))
+    assert Image.open(io.BytesIO(png)).mode == "RGB"
