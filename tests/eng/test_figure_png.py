@@ -237,3 +237,24 @@ def test_a_figure_whose_inches_times_dpi_miss_a_whole_number_is_written_whole(si
     png = figure_png.figure_png(fig, dpi)
     assert _same_picture(png, _saved(fig, dpi=dpi))
     assert Image.open(io.BytesIO(png)).mode == "RGB"
+
+
+def test_text_drawn_with_kept_glyph_layouts_is_matplotlibs_text():
+    """The shared renderer keeps each text's glyph layout (``figure_reuse._renderer_class``): a
+    text drawn again, at another place or angle, and math text must look as matplotlib draws them."""
+    from matplotlib.figure import Figure
+
+    from calcpad.eng import figure_reuse
+
+    def figure(shift: float) -> Figure:
+        fig = Figure(figsize=(3.0, 2.0))
+        ax = fig.add_axes((0.15, 0.15, 0.8, 0.8))
+        for i, text in enumerate(["B1 mid L", "1,330 lbf", "−11,500", "8 kip·in", "B1 mid L"]):
+            ax.text(0.05 + shift, 0.1 + 0.17 * i, text, fontsize=7 + i, rotation=30 * (i == 2))
+        ax.set_title(r"$M_{max}$ = 40,300 lbf·in", fontsize=9)
+        return fig
+
+    for shift in (0.0, 0.013, 0.2):  # the second and third time from kept layouts
+        fig = figure_reuse.on_shared_renderer(figure(shift))
+        assert _same_picture(figure_png.figure_png(fig, 110), _saved(figure(shift)))
+    assert figure_reuse._LAYOUTS  # the layouts were kept
