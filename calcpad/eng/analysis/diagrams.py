@@ -9,7 +9,6 @@ notebooks alike and can go straight into ``Sheet.figure``.
 from __future__ import annotations
 
 import functools
-import threading
 from collections.abc import Callable
 from typing import TYPE_CHECKING, Any
 
@@ -18,6 +17,8 @@ import numpy as np
 from calcpad.core.errors import InputError
 from calcpad.core.figure_png import figure_png, mark_content, png_once
 from calcpad.core.units import format_number
+from calcpad.eng.analysis._arrows import arrow_row, straight
+from calcpad.eng.figure_reuse import layout, on_shared_renderer, reusing
 
 if TYPE_CHECKING:  # pragma: no cover
     from matplotlib.figure import Figure
@@ -90,6 +91,28 @@ def _support(ax: Any, x: float, y: float, kind: tuple[bool, bool, bool], s: floa
         ax.add_patch(Circle((x - 1.2 * s, y), 0.2 * s, fill=False, ec="k"))
 
 
+def _add_straight(ax: Any, Arrow: Any, tail: tuple[float, float], tip: tuple[float, float], **props: Any) -> None:
+    """``ax.add_patch(Arrow(tail, tip, **props))`` for a straight arrow, its two ends widening the
+    data limits. ``add_patch`` widens them by the arrow's outline as drawn in the axes' limits of
+    the moment (the shaft shrunk by 2 points: hundredths of a pixel in the final view) and draws
+    the arrow twice for it."""
+    arrow = ax.add_artist(Arrow(tail, tip, **props))
+    arrow._set_in_autoscale(True)  # as add_patch: counted when the limits are recomputed
+    ax.update_datalim([tail, tip])
+
+
+def _add_polygon(ax: Any, xy: np.ndarray, **props: Any) -> None:
+    """``ax.fill(x, y, **props)`` for one closed polygon of straight edges, whose corners are its
+    data limits (``ax.fill`` searches every edge for curve extrema: a tenth of a diagram's time)."""
+    from matplotlib.patches import Polygon
+
+    poly = Polygon(xy, facecolor=props.get("color"), fill=True, closed=True)
+    poly.set(**props)  # as ax.fill: "color" sets the edge too
+    ax.add_artist(poly)
+    poly._set_in_autoscale(True)
+    ax.update_datalim(xy)
+
+
 def draw_frame(
     frame: Frame,
     result: FrameResult | None = None,
@@ -102,26 +125,32 @@ def draw_frame(
     """Draw the frame model: members, node names, supports, end releases (open circles), the
     loads of ``case`` and, with ``result``, the deflected shape (magnified automatically to
     about 8 % of the frame size unless ``deflection_scale`` is given)."""
+    from matplotlib.collections import LineCollection
     from matplotlib.patches import FancyArrowPatch
 
-    fig = _figure()
-    ax = fig.add_subplot(1, 1, 1)
+    fig, (ax,) = layout("draw_frame", 7.0, 5.0, 1, _figure)
     ext = _extent(frame)
     s = 0.03 * ext
+    # one artist for all members, one for all releases, one for all nodes (an artist each was
+    # a third of the time it took to set up a frame drawing); each member still its own path
+    ax.add_collection(LineCollection([(frame.nodes[m.i], frame.nodes[m.j]) for m in frame.members.values()],
+                                     colors=_MEMBER, linewidths=2.5, capstyle="round", zorder=2))
+    releases: list[tuple[float, float]] = []
     for m in frame.members.values():
         (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
-        ax.plot([x1, x2], [y1, y2], "-", color=_MEMBER, lw=2.5, solid_capstyle="round", zorder=2)
         L = np.hypot(x2 - x1, y2 - y1)
         ux, uy = (x2 - x1) / L, (y2 - y1) / L
         # names below a beam and inside a post: loads are drawn on the other side
         ox, oy = uy * 1.3 * s, -ux * 1.3 * s
         ax.text((x1 + x2) / 2 + ox, (y1 + y2) / 2 + oy, m.name, fontsize=8, color=_MEMBER,
                 ha="left" if ox > 0.5 * abs(oy) else "right" if ox < -0.5 * abs(oy) else "center", va="center")
-        for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)):
-            if flag:
-                ax.plot(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s, "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
+        releases += [(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s)
+                     for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)) if flag]
+    if releases:
+        ax.plot(*zip(*releases, strict=True), "o", mfc="white", mec=_MEMBER, ms=7, zorder=4)
+    if frame.nodes:
+        ax.plot(*zip(*frame.nodes.values(), strict=True), "s", color="k", ms=3, zorder=3)
     for n, (x, y) in frame.nodes.items():
-        ax.plot(x, y, "s", color="k", ms=3, zorder=3)
         ax.text(x + 0.6 * s, y + 0.6 * s, n, fontsize=9, fontweight="bold")
         if n in frame.supports:
             _support(ax, x, y, frame.supports[n], s)
@@ -132,7 +161,7 @@ def draw_frame(
             cases = frame.combos[case]
         else:
             raise InputError(f"case {case!r} not found; expected one of {list(frame.cases) + list(frame.combos)}")
-        _draw_loads(ax, frame, cases, s, FancyArrowPatch)
+        _draw_loads(ax, frame, cases, s, functools.partial(FancyArrowPatch, connectionstyle=straight()))
     if result is not None and case is not None:
         dmax = 0.0
         dgs = [result.diagram(m, case, n=31) for m in frame.members]
@@ -142,12 +171,15 @@ def draw_frame(
             base = x0 + np.vstack([c * dg.x, sn * dg.x])
             dmax = max(dmax, float(np.abs(np.vstack([dg.xg, dg.yg]) - base).max()))
         scale = deflection_scale if deflection_scale is not None else (0.08 * ext / dmax if dmax > 0 else 1.0)
+        shapes = []
         for dg in dgs:
             m = frame.members[dg.member]
             x0, y0 = frame.nodes[m.i]
             c, sn = result.direction(dg.member)
             bx, by = x0 + c * dg.x, y0 + sn * dg.x
-            ax.plot(bx + scale * (dg.xg - bx), by + scale * (dg.yg - by), "--", color=_DEFL, lw=1.2, zorder=1)
+            shapes.append(np.column_stack([bx + scale * (dg.xg - bx), by + scale * (dg.yg - by)]))
+        ax.add_collection(LineCollection(shapes, colors=_DEFL, linewidths=1.2, linestyles="--", capstyle="butt",
+                                         joinstyle="round", zorder=1))
         ax.plot([], [], "--", color=_DEFL, label=f"deflected shape x{_num(scale)}")
         fig.legend(loc="lower right", fontsize=8, frameon=False)  # below the axes: no search for a spot
     ax.set_aspect("equal", adjustable="datalim")
@@ -196,10 +228,14 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             c, sn = (x2 - x1) / L, (y2 - y1) / L
             dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
             sign = np.sign(w * f) or 1.0
-            for t in np.linspace(0.05, 0.95, 7):
-                px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
-                ax.add_patch(Arrow((px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6), (px, py),
-                                   arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
+            t = np.linspace(0.05, 0.95, 7)
+            px, py = x1 + t * (x2 - x1), y1 + t * (y2 - y1)
+            tails = np.column_stack([px - sign * dx * L0 * 0.6, py - sign * dy * L0 * 0.6])
+            tips = np.column_stack([px, py])
+            ends = [(tuple(a), tuple(b)) for a, b in zip(tails.tolist(), tips.tolist(), strict=True)]
+            row = ax.add_artist(arrow_row(ends, arrowstyle="-|>", mutation_scale=8, color=_LOAD, lw=0.8))
+            row._set_in_autoscale(True)  # as add_patch
+            ax.update_datalim(np.vstack([tails, tips]))
             spread.setdefault((cn, _num(w), d), []).append(mname)
         for mname, P, a, d in case.point:
             m = frame.members[mname]
@@ -209,8 +245,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             dx, dy = {"x": (1.0, 0.0), "y": (0.0, 1.0), "local_x": (c, sn), "local_y": (-sn, c)}[d]
             sign = np.sign(P * f) or 1.0
             px, py = x1 + c * a, y1 + sn * a
-            ax.add_patch(Arrow((px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
-                               mutation_scale=12, color=_LOAD, lw=1.5))
+            _add_straight(ax, Arrow, (px - sign * dx * L0, py - sign * dy * L0), (px, py), arrowstyle="-|>",
+                          mutation_scale=12, color=_LOAD, lw=1.5)
             at = (px - sign * dx * L0 * 1.1, py - sign * dy * L0 * 1.1)
             labels.setdefault((round(at[0], 6), round(at[1], 6), "left"), []).append(f"{cn}: {_num(P)}")
     for (tx, ty, ha), lines in labels.items():  # loads of several cases at one place share one stacked label
@@ -224,8 +260,8 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
         mag = np.hypot(fx, fy)
         if mag > 0:
             ux, uy = fx / mag, fy / mag
-            ax.add_patch(Arrow((x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
-                               color=_LOAD, lw=1.8))
+            _add_straight(ax, Arrow, (x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
+                          color=_LOAD, lw=1.8)
             ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{_num(mag)} {frame.fu}", fontsize=8, color=_LOAD,
                     ha="center", va="center")
         if mz:
@@ -246,6 +282,8 @@ def draw_frame_diagram(
     """Draw ``N``, ``V`` or ``M`` of ``case`` on the frame, offset normal to each member (moment
     on the tension side: positive M drawn on the member's local -y side). ``members`` limits the
     diagram to some members (the others are drawn plain)."""
+    from matplotlib.collections import LineCollection
+
     if quantity not in ("N", "V", "M"):
         raise InputError(f"quantity: got {quantity!r}; expected 'N', 'V' or 'M'")
     frame = result.frame
@@ -253,8 +291,7 @@ def draw_frame_diagram(
     for m in chosen:
         if m not in frame.members:
             raise InputError(f"members: {m!r} not found; expected some of {list(frame.members)}")
-    fig = _figure()
-    ax = fig.add_subplot(1, 1, 1)
+    fig, (ax,) = layout("draw_frame_diagram", 7.0, 5.0, 1, _figure)
     ext = _extent(frame)
     for m in frame.members.values():
         if m.name not in chosen:
@@ -265,6 +302,7 @@ def draw_frame_diagram(
     k = scale if scale is not None else (0.12 * ext / vmax if vmax > 0 else 1.0)
     unit = result.units["moment"] if quantity == "M" else result.units["force"]
     sgn = -1.0 if quantity == "M" else 1.0
+    paths: list[np.ndarray] = []  # each member's axis, then its diagram's outline: one artist, a path each
     for dg in dgs:
         m = frame.members[dg.member]
         (x1, y1) = frame.nodes[m.i]
@@ -272,12 +310,13 @@ def draw_frame_diagram(
         bx, by = x1 + c * dg.x, y1 + sn * dg.x
         val = getattr(dg, quantity)
         ox, oy = bx + sgn * k * val * (-sn), by + sgn * k * val * c
-        ax.plot(bx, by, "-", color=_MEMBER, lw=2)
-        ax.fill(np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]], color=_LOAD, alpha=0.25, lw=0)
-        ax.plot(ox, oy, "-", color=_LOAD, lw=1)
+        paths += [np.column_stack([bx, by]), np.column_stack([ox, oy])]
+        _add_polygon(ax, np.column_stack([np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]]]), color=_LOAD, alpha=0.25, lw=0)
         for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
             if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
                 ax.text(ox[idx], oy[idx], f"{_num(val[idx])}", fontsize=7, color=_LOAD)
+    ax.add_collection(LineCollection(paths, colors=[_MEMBER, _LOAD] * len(dgs), linewidths=[2, 1] * len(dgs),
+                                     capstyle="projecting", joinstyle="round", zorder=2))
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
     ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
@@ -290,9 +329,9 @@ def _draw_frame_diagram_content(result: FrameResult, case: str, quantity: str = 
     return ("draw_frame_diagram", _solution(result), case, quantity, scale, None if members is None else list(members))
 
 
-def _three_panels(x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
-    fig = _figure(7.0, 2.1 * len(rows), rows=len(rows))
-    axes = [fig.add_subplot(len(rows), 1, i + 1) for i in range(len(rows))]
+def _three_panels(kind: str, x: np.ndarray, rows: list[tuple[str, np.ndarray, str]], title: str, xlabel: str) -> Figure:
+    n = len(rows)
+    fig, axes = layout(kind, 7.0, 2.1 * n, n, functools.partial(_figure, 7.0, 2.1 * n, rows=n))
     for ax, (lab, y, unit) in zip(axes, rows, strict=True):
         ax.plot(x, y, color=_MEMBER, lw=1.5)
         ax.fill_between(x, 0, y, color=_MEMBER, alpha=0.15)
@@ -314,7 +353,7 @@ def plot_beam(sol: BeamSolution, title: str = "Beam") -> Figure:
     rows = [("V", sol.V, u.get("force", "")), ("M", sol.M, u.get("moment", ""))]
     if sol.delta is not None:
         rows.append(("deflection (down +)", sol.delta, u.get("length", "")))
-    fig = _three_panels(sol.x, rows, title, f"x [{u.get('length', '')}]")
+    fig = _three_panels("plot_beam", sol.x, rows, title, f"x [{u.get('length', '')}]")
     return mark_content(fig, "plot_beam", sol.x, rows, title, u)
 
 
@@ -328,7 +367,7 @@ def plot_member(result: FrameResult, member: str, case: str, quantities: tuple[s
         if q not in units:
             raise InputError(f"quantities: {q!r}; expected some of {list(units)}")
         rows.append((q, getattr(dg, q), units[q]))
-    fig = _three_panels(dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
+    fig = _three_panels("plot_member", dg.x, rows, f"Member {member} - {case}", f"x from start node [{result.units['length']}]")
     return mark_content(fig, *_plot_member_content(result, member, case, quantities))
 
 
@@ -341,45 +380,17 @@ _CONTENT: dict[Callable[..., Figure], Callable[..., tuple[Any, ...]]] = {
     draw_frame: _draw_frame_content, draw_frame_diagram: _draw_frame_diagram_content, plot_member: _plot_member_content}
 
 
-#: Agg renderers shared by the figures :func:`drawing_png` draws, by size, resolution and thread.
-_RENDERERS: dict[tuple[float, float, float, int], Any] = {}
-_RENDERERS_MAX = 8
-
-
-@functools.cache
-def _shared_renderer_canvas() -> type:
-    """An Agg canvas class that draws with a renderer shared by the figures of one size and
-    resolution (in one thread): matplotlib keeps text measurements per renderer, so labels
-    measured for one drawing are not measured again for the next, and no new pixel buffer is
-    made. Only for figures drawn and saved at once (the shared buffer holds the last drawing)."""
-    from matplotlib.backends.backend_agg import FigureCanvasAgg, RendererAgg
-
-    class SharedRendererCanvas(FigureCanvasAgg):
-        def get_renderer(self) -> RendererAgg:
-            w, h = self.figure.bbox.size
-            key = (w, h, self.figure.dpi, threading.get_ident())
-            renderer = _RENDERERS.get(key)
-            if renderer is None:
-                while len(_RENDERERS) >= _RENDERERS_MAX:
-                    _RENDERERS.pop(next(iter(_RENDERERS)), None)
-                renderer = _RENDERERS[key] = RendererAgg(w, h, self.figure.dpi)
-            self.renderer, self._lastKey = renderer, key[:3]
-            return renderer
-
-    return SharedRendererCanvas
-
-
-def _on_shared_renderer(fig: Figure) -> Figure:
-    """``fig``, drawn from now on with a shared renderer (:func:`_shared_renderer_canvas`)."""
-    _shared_renderer_canvas()(fig)
-    return fig
-
-
 def drawing_png(draw: Callable[..., Figure], *args: Any, dpi: int = 110, **kwargs: Any) -> bytes:
     """PNG of ``draw(*args, **kwargs)`` (``draw_frame``, ``draw_frame_diagram`` or ``plot_member``) at
     ``dpi`` (110: as ``Sheet.figure`` saves a figure), drawn only when the same drawing was not made
-    before in this process (the inputs decide). For ``Sheet.figure``: the same bytes as passing the
-    figure, without building it again for a frame drawn before."""
+    before in this process (the inputs decide), on a figure and renderer kept from the last drawing
+    of its kind (:mod:`calcpad.eng.figure_reuse`). For ``Sheet.figure``: the same picture as
+    passing the figure, without building it again for a frame drawn before."""
     if draw not in _CONTENT:
         raise InputError(f"draw: got {getattr(draw, '__name__', draw)!r}; expected one of {[f.__name__ for f in _CONTENT]}")
-    return png_once(_CONTENT[draw](*args, **kwargs), lambda: _on_shared_renderer(draw(*args, **kwargs)), dpi)
+
+    def build() -> Figure:
+        with reusing():  # saved before the next drawing: a kept figure of this kind will do
+            return on_shared_renderer(draw(*args, **kwargs))
+
+    return png_once(_CONTENT[draw](*args, **kwargs), build, dpi)

@@ -2,12 +2,14 @@
 
 from __future__ import annotations
 
+import functools
 from collections.abc import Sequence
 from typing import Any
 
 import numpy as np
 
 from calcpad.core.figure_png import mark_content, png_once
+from calcpad.eng.figure_reuse import layout, on_shared_renderer, reusing
 
 __all__ = ["draw_sections", "sections_png"]
 
@@ -20,22 +22,27 @@ def _members(section: Any) -> list[tuple[str, list[Any]]]:
     return [(section.name, section.regions())]
 
 
+def _figure(w: float, h: float) -> Any:
+    """A figure with fixed margins (inches): the axis labels and the legend below each drawing; a
+    layout engine would cost a second pass over the drawing each time it is saved."""
+    from matplotlib.figure import Figure
+
+    fig = Figure(figsize=(w, h))
+    fig.subplots_adjust(left=0.6 / w, right=1 - 0.15 / w, bottom=1.05 / h, top=1 - 0.35 / h, wspace=0.3)
+    return fig
+
+
 def draw_sections(sections: Sequence[Any], titles: Sequence[str] | None = None, *, size: float = 3.2) -> Any:
     """Side-by-side drawings of shapes or built-up sections, each with its centroid marked.
 
     Returns a matplotlib ``Figure`` (for ``sheet.figure(...)`` or display); uses the ``Agg``
     canvas, so no display is needed.
     """
-    from matplotlib.figure import Figure
     from matplotlib.patches import PathPatch
     from matplotlib.path import Path
 
     w, h = size * len(sections), size + 0.4
-    fig = Figure(figsize=(w, h))
-    # fixed margins (inches): the axis labels and the legend below each drawing; a layout engine
-    # would cost a second pass over the drawing each time it is saved
-    fig.subplots_adjust(left=0.6 / w, right=1 - 0.15 / w, bottom=1.05 / h, top=1 - 0.35 / h, wspace=0.3)
-    axes = fig.subplots(1, len(sections), squeeze=False)[0]
+    fig, axes = layout("draw_sections", w, h, 1, functools.partial(_figure, w, h), cols=len(sections))
     for k, (ax, sec) in enumerate(zip(axes, sections, strict=True)):
         for i, (label, regions) in enumerate(_members(sec)):
             verts: list[np.ndarray] = []
@@ -61,6 +68,12 @@ def draw_sections(sections: Sequence[Any], titles: Sequence[str] | None = None, 
 
 def sections_png(sections: Sequence[Any], titles: Sequence[str] | None = None, *, size: float = 3.2, dpi: int = 100) -> bytes:
     """PNG of :func:`draw_sections` at ``dpi`` (for the notebook and ``Sheet.figure`` alike), drawn only
-    when the same sections were not drawn before in this process (their exact content decides)."""
+    when the same sections were not drawn before in this process (their exact content decides),
+    on a figure kept from the last drawing of as many sections (:mod:`calcpad.eng.figure_reuse`)."""
     content = ("draw_sections", list(sections), None if titles is None else list(titles), size)
-    return png_once(content, lambda: draw_sections(sections, titles, size=size), dpi)
+
+    def build() -> Any:
+        with reusing():  # saved before the next drawing: a kept figure of this layout will do
+            return on_shared_renderer(draw_sections(sections, titles, size=size))
+
+    return png_once(content, build, dpi)
