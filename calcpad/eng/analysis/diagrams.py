@@ -312,9 +312,9 @@ def draw_frame_diagram(
         ox, oy = bx + sgn * k * val * (-sn), by + sgn * k * val * c
         paths += [np.column_stack([bx, by]), np.column_stack([ox, oy])]
         _add_polygon(ax, np.column_stack([np.r_[bx, ox[::-1]], np.r_[by, oy[::-1]]]), color=_LOAD, alpha=0.25, lw=0)
-        for idx in {0, len(val) - 1, int(np.argmax(np.abs(val)))}:
+        for idx in sorted({0, len(val) - 1, int(np.argmax(np.abs(val)))}):
             if abs(val[idx]) > 1e-9 * max(vmax, 1e-300):
-                ax.text(ox[idx], oy[idx], f"{_num(val[idx])}", fontsize=7, color=_LOAD)
+                _value_label(ax, f"{_num(val[idx])}", (ox[idx], oy[idx]), (ox[idx] - bx[idx], oy[idx] - by[idx]))
     ax.add_collection(LineCollection(paths, colors=[_MEMBER, _LOAD] * len(dgs), linewidths=[2, 1] * len(dgs),
                                      capstyle="projecting", joinstyle="round", zorder=2))
     ax.set_aspect("equal", adjustable="datalim")
@@ -322,6 +322,17 @@ def draw_frame_diagram(
     ax.set_title(f"{quantity} [{unit}] - {case}", fontsize=10)
     ax.grid(alpha=0.2)
     return mark_content(fig, *_draw_frame_diagram_content(result, case, quantity, scale=scale, members=members))
+
+
+def _value_label(ax: Any, text: str, at: tuple[float, float], away: tuple[float, float]) -> None:
+    """A diagram value beside its point, on the side away from the member (``away``: from the
+    member's axis to the point), so the member line and the fill never run through the digits."""
+    dx, dy = float(away[0]), float(away[1])
+    norm = float(np.hypot(dx, dy)) or 1.0
+    across = abs(dx) >= abs(dy)  # the diagram stands beside a post: the label beside it
+    ax.annotate(text, at, xytext=(3 * dx / norm, 3 * dy / norm), textcoords="offset points", fontsize=7, color=_LOAD,
+                ha=("left" if dx > 0 else "right") if across else "center",
+                va="center" if across else ("bottom" if dy > 0 else "top"))
 
 
 def _draw_frame_diagram_content(result: FrameResult, case: str, quantity: str = "M", *, scale: float | None = None,
