@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import numpy as np
 import pytest
 
 from calcpad.core.errors import InputError
@@ -90,3 +91,37 @@ def test_drawings_are_figures() -> None:
         draw_frame(fr, None, "S")
     with pytest.raises(InputError, match="quantity"):
         draw_frame_diagram(res, "W", "T")
+
+
+def _portal() -> Frame:
+    # a pinned-base portal with a knee-braced beam load (invented numbers): moments on posts and beam
+    fr = Frame("kip", "in")
+    for name, x, y in (("A", 0, 0), ("B", 0, 90), ("C", 144, 90), ("D", 144, 0)):
+        fr.node(name, x, y)
+    for name, i, j in (("post L", "A", "B"), ("beam", "B", "C"), ("post R", "D", "C")):
+        fr.member(name, i, j, E=E, A=A, I=I)
+    fr.support("A", "fixed")
+    fr.support("D", "fixed")
+    fr.member_load("W", "beam", -0.01)
+    fr.node_load("W", "B", Fx=0.6)
+    return fr
+
+
+def test_diagram_values_stand_clear_of_the_members() -> None:
+    # every value printed on an M diagram lies off every member line (the line once ran through a digit)
+    from matplotlib.transforms import Bbox
+
+    res = _portal().solve()
+    fig = draw_frame_diagram(res, "W", "M")
+    fig.canvas.draw()
+    renderer = fig.canvas.get_renderer()
+    ax = fig.axes[0]
+    labels = [t for t in ax.texts if t.get_text()]
+    assert len(labels) >= 4
+    lines = [ax.transData.transform(np.array([res.frame.nodes[m.i], res.frame.nodes[m.j]])) for m in res.frame.members.values()]
+    for t in labels:
+        box = t.get_window_extent(renderer).shrunk(0.9, 0.9)
+        for (x1, y1), (x2, y2) in lines:
+            pts = np.linspace([x1, y1], [x2, y2], 400)
+            inside = (pts[:, 0] > box.x0) & (pts[:, 0] < box.x1) & (pts[:, 1] > box.y0) & (pts[:, 1] < box.y1)
+            assert not inside.any(), (t.get_text(), Bbox.from_extents(box.x0, box.y0, box.x1, box.y1))
