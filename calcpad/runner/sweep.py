@@ -37,6 +37,11 @@ __all__ = ["SweepResult", "SweepTooLargeError", "design_chart", "pass_fail_figur
 CHUNK_CASES = 250_000
 MAX_TABLE_CASES = 2_000_000
 MAX_CASES = 10_000_000_000
+#: Cases evaluated at a time inside a chunk: every temporary of a block (about 100 bytes a case)
+#: is reused from the allocator's heap; whole chunks of a million cases mapped fresh pages for
+#: each temporary, and the page faults (kernel time, slow on a busy machine) cost more than the
+#: arithmetic — above all on a Dask worker's first chunk.
+BLOCK_CASES = 65_536
 
 
 class SweepTooLargeError(InputError):
@@ -113,19 +118,21 @@ class _Plan:
         ok = np.ones(n, dtype=bool)
         worst = np.full(n, -np.inf)
         which = np.full(n, -1, dtype=np.int32)
+        rr = np.empty(n)
+        better = np.empty(n, dtype=bool)
         k = 0
         for comp, cols, limits in zip(self.compiled, self.columns, self.limits, strict=True):
             kwargs = {g: vals[idx[j]] for j, (g, vals) in enumerate(cols) if g}
             res = comp.ratios(**kwargs)
-            valid = np.broadcast_to(res.valid, (n,))
-            ok &= valid
+            ok &= np.broadcast_to(res.valid, (n,))
             for key, (_title, limit) in limits.items():
                 r = np.broadcast_to(res[key], (n,))
                 ok &= r <= limit
-                rr = np.where(np.isnan(r), np.inf, r)
-                better = rr > worst
-                worst = np.where(better, rr, worst)
-                which = np.where(better, k, which)
+                np.copyto(rr, r)  # NaN governs (as +inf); the first check of the largest ratio wins
+                np.copyto(rr, np.inf, where=np.isnan(rr))
+                np.greater(rr, worst, out=better)
+                np.copyto(worst, rr, where=better)
+                np.copyto(which, k, where=better)
                 k += 1
         return np.asarray(idx, dtype=np.int64).reshape(len(shape), n), ok, worst, which
 
@@ -144,20 +151,53 @@ def _plan(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], map
 
 def _chunk(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], mapping: dict[str, Any], start: int, stop: int,
            env_axis: int | None, env_vals: list[float] | None, want_table: bool) -> dict[str, Any]:
-    """One chunk of the grid (runs where it is sent: here or on a Dask worker)."""
+    """One chunk of the grid (runs where it is sent: here or on a Dask worker), evaluated
+    :data:`BLOCK_CASES` cases at a time: the pass count and the envelope are folded block by
+    block, so only the table (when asked for) is as large as the chunk."""
     plan = _plan(tpl, values, grid, mapping)
-    idx, ok, worst, which = plan.evaluate(start, stop)
-    out: dict[str, Any] = {"passed": int(ok.sum()), "checks": [t for lim in plan.limits for t, _l in lim.values()]}
-    if want_table:
-        out.update(idx=idx, ok=ok, worst=worst, which=which)
+    out: dict[str, Any] = {"passed": 0, "checks": [t for lim in plan.limits for t, _l in lim.values()]}
+    shape = [len(v) for v in grid.values()]
+    others = [j for j in range(len(shape)) if j != env_axis]
+    best = None
     if env_axis is not None:
-        shape = [len(v) for v in grid.values()]
-        others = [j for j in range(len(shape)) if j != env_axis]
-        flat = np.ravel_multi_index(tuple(idx[j] for j in others), tuple(shape[j] for j in others)) if others else np.zeros(len(ok), dtype=np.int64)
-        best = np.full(int(np.prod([shape[j] for j in others])) if others else 1, -np.inf)
-        np.maximum.at(best, flat[ok], np.asarray(env_vals)[idx[env_axis][ok]])
+        best = np.full(math.prod(shape[j] for j in others), -np.inf)
+        env_col = np.asarray(env_vals)
+    parts = []
+    for a in range(start, stop, BLOCK_CASES):
+        idx, ok, worst, which = plan.evaluate(a, min(a + BLOCK_CASES, stop))
+        out["passed"] += int(ok.sum())
+        if want_table:
+            parts.append((idx, ok, worst, which))
+        if best is not None:
+            flat = np.ravel_multi_index(tuple(idx[j][ok] for j in others), tuple(shape[j] for j in others)) if others else np.zeros(int(ok.sum()), dtype=np.int64)
+            np.maximum.at(best, flat, env_col[idx[env_axis][ok]])
+    if want_table:
+        out.update(idx=np.concatenate([p[0] for p in parts], axis=1), ok=np.concatenate([p[1] for p in parts]),
+                   worst=np.concatenate([p[2] for p in parts]), which=np.concatenate([p[3] for p in parts]))
+    if best is not None:
         out["envelope"] = best
     return out
+
+
+def _envelope_frame(ax: dict[str, list[Any]], build_axes: list[str], others: list[str], combos: list[tuple[Any, ...]],
+                    jobs: list[tuple[Any, ...]], results: list[dict[str, Any]], column: str) -> Any:
+    """The envelope table: a row per combination of the build axes and the other grid axes (in
+    grid order), with the largest passing value of the envelope axis (NaN where none passes)."""
+    import pandas as pd
+
+    per_combo: dict[Any, np.ndarray] = {}
+    for (combo, _args), r in zip(jobs, results, strict=True):
+        per_combo[combo] = np.maximum(per_combo[combo], r["envelope"]) if combo in per_combo else r["envelope"]
+    rest = list(zip(*itertools.product(*(ax[n] for n in others)), strict=True)) if others else []
+    n_rest = math.prod(len(ax[n]) for n in others)
+    cols: dict[str, list[Any]] = {n: [] for n in [*build_axes, *others]}
+    for combo in combos:
+        for j, n in enumerate(build_axes):
+            cols[n].extend([combo[j]] * n_rest)
+        for j, n in enumerate(others):
+            cols[n].extend(rest[j])
+    best = np.concatenate([per_combo[c] for c in combos])
+    return pd.DataFrame({**cols, column: np.where(np.isfinite(best), best, np.nan)})
 
 
 def sweep(
@@ -264,19 +304,8 @@ def sweep(
             frames.append(pd.DataFrame(cols, columns=[*ax, "governing ratio", "governing check", "pass"]))
         out.table = pd.concat(frames, ignore_index=True)
     if envelope is not None:
-        others = [n for n in grid_axes if n != envelope]
-        rows = []
-        per_combo: dict[Any, np.ndarray] = {}
-        for (combo, _args), r in zip(jobs, results, strict=True):
-            per_combo[combo] = np.maximum(per_combo[combo], r["envelope"]) if combo in per_combo else r["envelope"]
-        for combo in combos:
-            best = per_combo[combo]
-            for flat, idx in enumerate(itertools.product(*(range(len(ax[n])) for n in others))):
-                row = {n: combo[j] for j, n in enumerate(build_axes)}
-                row.update({n: ax[n][i] for n, i in zip(others, idx, strict=True)})
-                row[f"max {envelope} [{params[envelope].unit}]"] = best[flat] if np.isfinite(best[flat]) else np.nan
-                rows.append(row)
-        out.envelope = pd.DataFrame(rows)
+        out.envelope = _envelope_frame(ax, build_axes, [n for n in grid_axes if n != envelope], combos, jobs, results,
+                                       f"max {envelope} [{params[envelope].unit}]")
     return out
 
 

@@ -6,6 +6,7 @@ from pathlib import Path
 
 import pytest
 
+from calcpad.runner import sweep as sweep_module
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import load_job
 from calcpad.runner.record import UNSEALED_KEYS, job_record
@@ -49,16 +50,19 @@ def test_batch_on_the_cluster_equals_serial(client) -> None:
     assert len(seen) == len(job.calcs)
 
 
-def test_search_and_sweep_on_the_cluster_equal_serial(client) -> None:
+def test_search_and_sweep_on_the_cluster_equal_serial(client, monkeypatch) -> None:
     tpl = load_template(find_template("leg_bending"))
     base = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
     members = [(f"M{i}", {**base, "P": f"{40 + 30 * i} lbf", "L": f"{20 + 7 * i} in"}) for i in range(9)]
     settings = {"parameter": "leg", "family": "pipe"}
     assert search_on_cluster(client, tpl, members, settings, chunk_members=2) == search(tpl, members, settings)
     axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
-    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
     b = sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    # here each chunk runs in blocks of 7 cases (the last one short), on the workers in one block
+    monkeypatch.setattr(sweep_module, "BLOCK_CASES", 7)
+    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
     assert a.table.equals(b.table) and a.envelope.equals(b.envelope) and a.passed == b.passed
+    assert 0 < a.passed < a.cases and a.envelope.iloc[:, -1].notna().any() and a.envelope.iloc[:, -1].isna().any()
 
 
 def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_path: Path) -> None:
