@@ -113,3 +113,18 @@ def test_a_failed_batch_chunk_becomes_failed_calcs_naming_it(client) -> None:
     msg = failed[0].error["message"]
     assert "failed on the cluster after 3 tries" in msg and "MemoryError" in msg and f"members {', '.join(members)}" in msg
     assert all(o.error is None and o.sheets for o in outcomes if o.calc.member not in members)
+
+
+def _bound_on_worker(tpl) -> tuple[bool, bool]:
+    """Worker side: the template arrived pickled; is its upper bound on L one of calcpad's quantities?"""
+    from calcpad.core.units import Q_, ureg
+
+    upper = tpl.parameters["L"].upper.value
+    return upper._REGISTRY is ureg, bool(Q_(29, "ft") < upper <= Q_(360, "in"))
+
+
+def test_a_template_sent_to_a_worker_keeps_calcpads_unit_registry(client) -> None:
+    # leg_bending states L from 6 in to 30 ft; 30 ft = 360 in (unit fact). Unpickled quantities
+    # used to join a second registry of pint's (slow to build, not comparable with ours).
+    tpl = load_template(find_template("leg_bending"))
+    assert client.submit(_bound_on_worker, tpl, pure=False).result() == (True, True)
