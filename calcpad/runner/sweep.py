@@ -17,7 +17,6 @@ With a Dask ``client`` the chunks run on the cluster, generated on the workers.
 
 from __future__ import annotations
 
-import functools
 import itertools
 import math
 from collections.abc import Callable, Mapping, Sequence
@@ -27,7 +26,7 @@ from typing import Any
 import numpy as np
 
 from calcpad.core.errors import InputError
-from calcpad.core.units import parse_quantity, unit_symbol
+from calcpad.core.units import parse_quantity, unit_symbol, ureg
 from calcpad.runner.build import SheetBuilder, given_map
 from calcpad.runner.job import CONTEXT_PARAMETERS
 from calcpad.runner.template import Template
@@ -81,13 +80,21 @@ def steps(start: str, stop: str, count: int) -> list[str]:
     return [f"{float(v):.10g} {unit_symbol(unit, 'ascii')}" for v in np.linspace(float(a.magnitude), hi, count)]
 
 
-@functools.lru_cache(maxsize=64)
+_COLUMNS: dict[tuple[str, tuple[Any, ...], str], np.ndarray] = {}  # per process (see _column)
+
+
 def _column(name: str, values: tuple[Any, ...], unit: Any) -> np.ndarray:
     """An axis's values as magnitudes in ``unit``, parsed once per process (every plan of a
     sweep, one per section or grade, shares its grid axes; parsing thousands of value texts
-    was most of a plan's cost, paid again by each Dask worker for each plan)."""
-    col = np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in values])
-    col.setflags(write=False)
+    was most of a plan's cost). A Dask worker is given the client's columns (:func:`_plan`):
+    parsing them again was most of its first chunk."""
+    key = (name, values, str(ureg.Unit(unit)) if isinstance(unit, str) else str(unit))
+    col = _COLUMNS.get(key)
+    if col is None:
+        if len(_COLUMNS) >= 64:
+            _COLUMNS.clear()
+        col = _COLUMNS[key] = np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in values])
+        col.setflags(write=False)
     return col
 
 
@@ -140,21 +147,26 @@ class _Plan:
 _PLANS: dict[Any, _Plan] = {}  # per process (a Dask worker builds each plan once)
 
 
-def _plan(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], mapping: dict[str, Any]) -> _Plan:
+def _plan(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], mapping: dict[str, Any],
+          columns: dict[str, np.ndarray] | None = None) -> _Plan:
+    """The plan for ``values``, built once per process; ``columns``: the grid axes already parsed
+    in their parameter's unit (see :func:`_column`), by axis name."""
     key = (str(tpl.path), repr(sorted(values.items())), repr(grid))
     if key not in _PLANS:
         if len(_PLANS) > 64:
             _PLANS.clear()
+        for name, col in (columns or {}).items():
+            _COLUMNS.setdefault((name, tuple(grid[name]), str(ureg.Unit(tpl.parameters[name].unit))), col)
         _PLANS[key] = _Plan(SheetBuilder(tpl), values, grid, mapping)
     return _PLANS[key]
 
 
 def _chunk(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], mapping: dict[str, Any], start: int, stop: int,
-           env_axis: int | None, env_vals: list[float] | None, want_table: bool) -> dict[str, Any]:
+           env_axis: int | None, env_vals: list[float] | None, want_table: bool, columns: dict[str, np.ndarray] | None = None) -> dict[str, Any]:
     """One chunk of the grid (runs where it is sent: here or on a Dask worker), evaluated
     :data:`BLOCK_CASES` cases at a time: the pass count and the envelope are folded block by
-    block, so only the table (when asked for) is as large as the chunk."""
-    plan = _plan(tpl, values, grid, mapping)
+    block, so only the table (when asked for) is as large as the chunk. ``columns``: see :func:`_plan`."""
+    plan = _plan(tpl, values, grid, mapping, columns)
     out: dict[str, Any] = {"passed": 0, "checks": [t for lim in plan.limits for t, _l in lim.values()]}
     shape = [len(v) for v in grid.values()]
     others = [j for j in range(len(shape)) if j != env_axis]
@@ -282,11 +294,13 @@ def sweep(
             if progress is not None:
                 progress(jobs[i][1][5] - jobs[i][1][4])
 
-        # the template, the grid's axes and the envelope's values go to every worker once (each
-        # chunk would carry them, and rebuild the template, every time)
+        # the template, the grid's axes, the envelope's values and the grid axes parsed here once
+        # go to every worker once (each chunk would carry them, and rebuild the template, every
+        # time; each worker parsed the axes again on its first chunk)
         # (in one list: scatter() would split a dict or a list given alone into one future per item)
-        tpl_f, grid_f, env_f = client.scatter([template, grid, env_vals], broadcast=True, hash=False)
-        sent = [(tpl_f, a[1], grid_f, a[3], a[4], a[5], a[6], env_f, a[8]) for _c, a in jobs]
+        columns = {n: _column(n, tuple(grid[n]), params[n].unit) for n in grid_axes}
+        tpl_f, grid_f, env_f, cols_f = client.scatter([template, grid, env_vals, columns], broadcast=True, hash=False)
+        sent = [(tpl_f, a[1], grid_f, a[3], a[4], a[5], a[6], env_f, a[8], cols_f) for _c, a in jobs]
         results, failures = map_chunks(client, _chunk, sent, describe, tick)
         if failures:
             raise ChunkFailedError(failures)
