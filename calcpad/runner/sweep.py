@@ -17,6 +17,7 @@ With a Dask ``client`` the chunks run on the cluster, generated on the workers.
 
 from __future__ import annotations
 
+import contextlib
 import itertools
 import math
 from collections.abc import Callable, Mapping, Sequence
@@ -66,7 +67,24 @@ def _axis_values(tpl: Template, name: str, values: Sequence[Any]) -> list[Any]:
     if not values:
         raise InputError(f"sweep axis {name!r}: no values")
     p = tpl.parameters[name]
-    return [p.coerce(v, f"sweep axis {name}") for v in values]
+    where = f"sweep axis {name}"
+    if p.kind != "quantity":
+        return [p.coerce(v, where) for v in values]
+    # each value text read once: checked here and its magnitude kept for the grid (see _column)
+    default, unit = p.quantity, p.unit
+    out, magnitudes = [], []
+    for v in values:
+        q = None
+        if isinstance(v, str):
+            with contextlib.suppress(InputError):
+                q = parse_quantity(v, where)
+        if q is None or q.dimensionality != default.dimensionality:
+            v = p.coerce(v, where)  # a value of another form, or one refused with the parameter's message
+            q = parse_quantity(v, where)
+        out.append(v)
+        magnitudes.append(float(q.to(unit).magnitude))
+    _keep_column(name, tuple(out), unit, np.asarray(magnitudes))
+    return out
 
 
 def steps(start: str, stop: str, count: int) -> list[str]:
@@ -88,14 +106,22 @@ def _column(name: str, values: tuple[Any, ...], unit: Any) -> np.ndarray:
     sweep, one per section or grade, shares its grid axes; parsing thousands of value texts
     was most of a plan's cost). A Dask worker is given the client's columns (:func:`_plan`):
     parsing them again was most of its first chunk."""
-    key = (name, values, str(ureg.Unit(unit)) if isinstance(unit, str) else str(unit))
-    col = _COLUMNS.get(key)
+    col = _COLUMNS.get((name, values, _unit_key(unit)))
     if col is None:
-        if len(_COLUMNS) >= 64:
-            _COLUMNS.clear()
-        col = _COLUMNS[key] = np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in values])
-        col.setflags(write=False)
+        col = _keep_column(name, values, unit, np.asarray([float(parse_quantity(v, name).to(unit).magnitude) for v in values]))
     return col
+
+
+def _unit_key(unit: Any) -> str:
+    return str(ureg.Unit(unit)) if isinstance(unit, str) else str(unit)
+
+
+def _keep_column(name: str, values: tuple[Any, ...], unit: Any, col: np.ndarray) -> np.ndarray:
+    """Keep ``col`` as the column of ``values`` in ``unit`` (bounded; read-only)."""
+    if len(_COLUMNS) >= 64:
+        _COLUMNS.clear()
+    col.setflags(write=False)
+    return _COLUMNS.setdefault((name, values, _unit_key(unit)), col)
 
 
 class _Plan:
@@ -156,7 +182,7 @@ def _plan(tpl: Template, values: dict[str, Any], grid: dict[str, list[Any]], map
         if len(_PLANS) > 64:
             _PLANS.clear()
         for name, col in (columns or {}).items():
-            _COLUMNS.setdefault((name, tuple(grid[name]), str(ureg.Unit(tpl.parameters[name].unit))), col)
+            _keep_column(name, tuple(grid[name]), tpl.parameters[name].unit, col)
         _PLANS[key] = _Plan(SheetBuilder(tpl), values, grid, mapping)
     return _PLANS[key]
 
