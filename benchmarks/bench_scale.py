@@ -14,8 +14,10 @@ Run: ``.venv/bin/python benchmarks/bench_scale.py [--calcs 2000] [--sweep 200000
 running: read the ratios, not the absolutes; goal >= 1.6x; ``--repeat`` alternates serial and
 cluster runs and prints the range). Each cluster run starts a fresh cluster whose workers import
 calcpad and build the leg template (timed apart, not counted in the ratios); everything after
-that — the workers' first chunks included — is counted. ``--trace`` prints where a cluster run's
-time went, from Dask's task stream.
+that — the workers' first chunks included — is counted; the serial sweep forgets its plans
+first, as fresh workers have none. ``--trace`` prints where a cluster run's time went, from
+Dask's task stream, and the CPU seconds each process got (less than the wall time: the machine's
+other work had the cores).
 """
 
 from __future__ import annotations
@@ -157,6 +159,17 @@ def trace_line(stream: list[dict], t0: float, t1: float) -> str:
     return f"    wall {t1 - t0:.2f} s: client before the first task {first - t0:.2f} s; workers: {busy}; tail after the last task {t1 - last:.2f} s"
 
 
+def cold_sweep(run):
+    """``run()`` with this process's sweep plans and parsed axes forgotten: each cluster run has
+    fresh workers that build them, so the serial run builds them too (a later run would
+    otherwise reuse the first one's)."""
+    from calcpad.runner import sweep as sweep_module
+
+    sweep_module._PLANS.clear()
+    sweep_module._COLUMNS.clear()
+    return run()
+
+
 def main() -> None:
     ap = argparse.ArgumentParser()
     ap.add_argument("--calcs", type=int, default=2000)
@@ -188,23 +201,30 @@ def main() -> None:
             client.run(_warm)
             startup.append(time.perf_counter() - t)
             with get_task_stream(client) as stream:
+                cpu = client.run(time.process_time), time.process_time()
                 t0, t = time.time(), time.perf_counter()
                 out = fn(client)
                 seconds, t1 = time.perf_counter() - t, time.time()
+                cpu = {w: c - cpu[0][w] for w, c in client.run(time.process_time).items()}, time.process_time() - cpu[1]
             if args.trace:
                 print(trace_line(stream.data, t0, t1))
+                print(f"    CPU seconds: workers {', '.join(f'{c:.2f}' for c in cpu[0].values())}; this process (client and "
+                      f"scheduler) {cpu[1]:.2f}; serial run {serial_cpu[-1]:.2f} (less CPU than wall: other work had the cores)")
             return seconds, out
 
+    serial_cpu: list[float] = []
+
     def serial(fn):
-        t = time.perf_counter()
+        t, c = time.perf_counter(), time.process_time()
         out = fn()
+        serial_cpu.append(time.process_time() - c)
         return time.perf_counter() - t, out
 
     workloads = {
         "batch": (f"batch: {args.calcs} leg calcs, full rendering", lambda: run_job(job), lambda c: run_calcs_on_cluster(job, c),
                   lambda a, b: [o.sheets for o in a] == [o.sheets for o in b]),
         "sweep": (f"sweep: {math.prod(len(v) for v in axes.values()):,} cases, envelope",
-                  lambda: sweep(tpl, {}, axes, envelope="L", table=False, chunk_cases=1_000_000),
+                  lambda: cold_sweep(lambda: sweep(tpl, {}, axes, envelope="L", table=False, chunk_cases=1_000_000)),
                   lambda c: sweep(tpl, {}, axes, envelope="L", table=False, client=c, chunk_cases=1_000_000),
                   lambda a, b: a.passed == b.passed and a.envelope.equals(b.envelope)),
         "search": (f"search: {args.members} members x {n_sizes} pipe sizes", lambda: search(tpl, members, settings),
