@@ -116,10 +116,19 @@ def _unit_key(unit: Any) -> str:
     return str(ureg.Unit(unit)) if isinstance(unit, str) else str(unit)
 
 
+def _native(a: np.ndarray) -> np.ndarray:
+    """``a`` with numpy's own float64 dtype object. An unpickled array (one sent to a Dask
+    worker) carries a dtype equal to it but not the same object, and so does everything indexed
+    from it; ``np.maximum.at`` then leaves its fast loop (28x slower, measured: a fifth of a
+    worker's time on a sweep's envelope)."""
+    return np.asarray(a, dtype=np.float64)
+
+
 def _keep_column(name: str, values: tuple[Any, ...], unit: Any, col: np.ndarray) -> np.ndarray:
     """Keep ``col`` as the column of ``values`` in ``unit`` (bounded; read-only)."""
     if len(_COLUMNS) >= 64:
         _COLUMNS.clear()
+    col = _native(col)
     col.setflags(write=False)
     return _COLUMNS.setdefault((name, values, _unit_key(unit)), col)
 
@@ -211,6 +220,7 @@ def _chunk(shared: _Shared, values: dict[str, Any], start: int, stop: int, env_a
     best = None
     if env_axis is not None:
         best = np.full(math.prod(shape[j] for j in others), -np.inf)
+        env_col = _native(shared.env_vals)
     parts = []
     for a in range(start, stop, BLOCK_CASES):
         idx, ok, worst, which = plan.evaluate(a, min(a + BLOCK_CASES, stop))
@@ -219,7 +229,7 @@ def _chunk(shared: _Shared, values: dict[str, Any], start: int, stop: int, env_a
             parts.append((idx, ok, worst, which))
         if best is not None:
             flat = np.ravel_multi_index(tuple(idx[j][ok] for j in others), tuple(shape[j] for j in others)) if others else np.zeros(int(ok.sum()), dtype=np.int64)
-            np.maximum.at(best, flat, shared.env_vals[idx[env_axis][ok]])
+            np.maximum.at(best, flat, env_col[idx[env_axis][ok]])
     if want_table:
         out.update(idx=np.concatenate([p[0] for p in parts], axis=1), ok=np.concatenate([p[1] for p in parts]),
                    worst=np.concatenate([p[2] for p in parts]), which=np.concatenate([p[3] for p in parts]))

@@ -128,3 +128,16 @@ def test_a_template_sent_to_a_worker_keeps_calcpads_unit_registry(client) -> Non
     # used to join a second registry of pint's (slow to build, not comparable with ours).
     tpl = load_template(find_template("leg_bending"))
     assert client.submit(_bound_on_worker, tpl, pure=False).result() == (True, True)
+
+
+def test_columns_sent_to_a_worker_keep_numpys_own_float_dtype() -> None:
+    # An unpickled array's dtype equals float64 but is another object, and np.maximum.at (the
+    # sweep's envelope) then leaves its fast loop; what a worker keeps must be numpy's own.
+    import pickle
+
+    import numpy as np
+
+    col = pickle.loads(pickle.dumps(np.linspace(6.0, 160.0, 50)))
+    assert col.dtype == np.float64 and col.dtype is not np.dtype(np.float64)  # what arrives
+    kept = sweep_module._keep_column("L", tuple(f"{v} in" for v in col), "in", col)
+    assert kept.dtype is np.dtype(np.float64) and np.array_equal(kept, col) and not kept.flags.writeable
