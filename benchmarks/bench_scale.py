@@ -12,12 +12,15 @@ whose cores are busy with other work, two processes may not be faster than one).
 Run: ``.venv/bin/python benchmarks/bench_scale.py [--calcs 2000] [--sweep 20000000] [--members 1000]
 [--no-search] [--no-ideal] [--only sweep] [--repeat 5] [--trace]`` (2-core shared machine, other work
 running: read the ratios, not the absolutes; goal >= 1.6x; ``--repeat`` alternates serial and
-cluster runs and prints the range). Each cluster run starts a fresh cluster whose workers import
-calcpad and build the leg template (timed apart, not counted in the ratios); everything after
-that — the workers' first chunks included — is counted; the serial sweep forgets its plans
-first, as fresh workers have none. ``--trace`` prints where a cluster run's time went, from
-Dask's task stream, and the CPU seconds each process got (less than the wall time: the machine's
-other work had the cores).
+cluster runs and prints the range). Each cluster run starts a fresh cluster; every process timed
+(this one, each worker, each process of the ideal) is warmed up the same way first: calcpad
+imported, the leg template built, a 3 x 3 x 3 sweep run (start-up and warm-up timed apart, not
+counted in the ratios); everything after that — the workers' first chunks included — is counted;
+the serial sweep forgets its plans first, as fresh workers have none. Workers, and the processes
+of the ideal, run with ``MALLOC_TOP_PAD_`` (see ``scale.cluster_client``); this process runs as
+started (export it to compare like with like). ``--trace`` prints where a cluster run's time went,
+from Dask's task stream, and the CPU seconds each process got (less than the wall time: the
+machine's other work had the cores).
 """
 
 from __future__ import annotations
@@ -25,6 +28,7 @@ from __future__ import annotations
 import argparse
 import json
 import math
+import os
 import statistics
 import subprocess
 import sys
@@ -37,7 +41,7 @@ sys.path.insert(0, str(ROOT))
 from calcpad.runner.build import SheetBuilder  # noqa: E402
 from calcpad.runner.execute import run_job  # noqa: E402
 from calcpad.runner.job import Calc, Job, JobInfo  # noqa: E402
-from calcpad.runner.scale import cluster_client, run_calcs_on_cluster, search_on_cluster  # noqa: E402
+from calcpad.runner.scale import MALLOC_TOP_PAD, cluster_client, run_calcs_on_cluster, search_on_cluster  # noqa: E402
 from calcpad.runner.search import candidates, search  # noqa: E402
 from calcpad.runner.sweep import steps, sweep  # noqa: E402
 from calcpad.runner.template import find_template, load_template  # noqa: E402
@@ -58,9 +62,11 @@ def _members(n: int) -> list[tuple[str, dict]]:
 
 
 def _warm() -> None:
-    """Worker warm-up: import the engine and build the leg template once."""
+    """The warm-up of every process timed here (this one, each worker, each process of the
+    ideal): import the engine, build the leg template, and sweep a 3 x 3 x 3 grid."""
     tpl = load_template(find_template("leg_bending"))
     SheetBuilder(tpl).sheets({k: p.default for k, p in tpl.parameters.items()})
+    sweep(tpl, {}, {k: v[:3] for k, v in _sweep_axes(1000).items()}, envelope="L", table=False)
 
 
 #: A child process for the machine's ideal: imports and warms up, says "ready", waits for "go",
@@ -72,6 +78,7 @@ sys.path.insert(0, sys.argv[5] + "/benchmarks")
 import bench_scale as b
 kind, n, part, parts = sys.argv[1], int(sys.argv[2]), int(sys.argv[3]), int(sys.argv[4])
 work = b.ideal_part(kind, n, part, parts)
+b._warm()
 work(warm=True)
 print("ready", flush=True)
 sys.stdin.readline()
@@ -111,8 +118,9 @@ def ideal(kind: str, n: int, parts: int) -> tuple[float, float]:
     up before the clock starts."""
 
     def run(k: int) -> float:
+        env = dict(os.environ, MALLOC_TOP_PAD_=os.environ.get("MALLOC_TOP_PAD_", str(MALLOC_TOP_PAD)))  # as a worker's
         procs = [subprocess.Popen([sys.executable, "-c", IDEAL_CHILD, kind, str(n), str(i), str(k), str(ROOT)],
-                                  stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True) for i in range(k)]
+                                  stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True, env=env) for i in range(k)]
         try:
             for p in procs:
                 if p.stdout.readline().strip() != "ready":
@@ -182,6 +190,7 @@ def main() -> None:
     ap.add_argument("--no-ideal", action="store_true", help="skip the machine's ideal (independent serial processes)")
     ap.add_argument("--no-search", action="store_true", help="skip the design search workload")
     args = ap.parse_args()
+    pad_here = os.environ.get("MALLOC_TOP_PAD_", "unset")  # as this process started (Dask's nanny sets it later)
     only = args.only or ["batch", "sweep", *([] if args.no_search else ["search"])]
     tpl = load_template(find_template("leg_bending"))
     axes = _sweep_axes(args.sweep)
@@ -190,10 +199,11 @@ def main() -> None:
     settings = {"parameter": "leg", "family": "pipe"}
     n_sizes = len(candidates("pipe"))
     startup: list[float] = []
+    _warm()
 
     def on_cluster(fn):
-        """(seconds, result) of fn(client) on a fresh cluster whose workers have imported calcpad and
-        built the leg template once (start-up and warm-up not counted; printed apart)."""
+        """(seconds, result) of fn(client) on a fresh cluster whose workers are warmed up as this
+        process (start-up and warm-up not counted; printed apart)."""
         from distributed import get_task_stream
 
         t = time.perf_counter()
@@ -243,7 +253,8 @@ def main() -> None:
                 cases = args.members * n_sizes
                 print(f"design search throughput: serial {cases / t_serial:,.0f} cases/s ({args.members / t_serial:.0f} members/s), "
                       f"dask {cases / t_dask:,.0f} cases/s (each chosen size and runner-up re-checked by an ordinary build)")
-    print(f"cluster start-up and warm-up ({args.workers} workers, a fresh cluster per run): up to {max(startup):.1f} s (not counted below)")
+    print(f"cluster start-up and warm-up ({args.workers} workers, a fresh cluster per run): up to {max(startup):.1f} s (not counted below); "
+          f"MALLOC_TOP_PAD_ here: {pad_here}, on the workers: {MALLOC_TOP_PAD}")
     print(f"{'workload':44s} {'serial s':>9s} {'dask s':>9s} {'speed-up':>9s}  identical")
     for label, t_serial, t_dask, ok in rows:
         print(f"{label:44s} {t_serial:9.2f} {t_dask:9.2f} {t_serial / t_dask:8.2f}x  {ok}")
