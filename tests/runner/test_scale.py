@@ -115,6 +115,28 @@ def test_a_failed_batch_chunk_becomes_failed_calcs_naming_it(client) -> None:
     assert all(o.error is None and o.sheets for o in outcomes if o.calc.member not in members)
 
 
+def _sweep_chunk_failing_at_600(shared, values, start, stop, env_axis, want_table):
+    """A sweep chunk task that dies (as a worker crash would) for the chunks starting at grid case 600."""
+    if start == 600:
+        raise MemoryError("worker ran out of memory (simulated)")
+    return sweep_module._chunk(shared, values, start, stop, env_axis, want_table)
+
+
+def test_a_failed_sweep_chunk_is_reported_with_its_grid_cases(client, monkeypatch) -> None:
+    from calcpad.runner import scale
+
+    tpl = load_template(find_template("leg_bending"))
+    axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
+    real = scale.map_chunks
+    monkeypatch.setattr(scale, "map_chunks", lambda c, _func, chunks, *a, **k: real(c, _sweep_chunk_failing_at_600, chunks, *a, **k))
+    with pytest.raises(ChunkFailedError) as err:
+        sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    # 1,200 grid cases per pipe size in chunks of 300: the third chunk of each size fails
+    assert [f.index for f in err.value.failures] == [3, 7]
+    assert "chunk 3: {'leg': 'Pipe 1 Std'} grid cases 600-899 of 1200: MemoryError" in str(err.value)
+    assert "chunk 7: {'leg': 'Pipe 2 Std'} grid cases 600-899 of 1200: MemoryError" in str(err.value)
+
+
 def _bound_on_worker(tpl) -> tuple[bool, bool]:
     """Worker side: the template arrived pickled; is its upper bound on L one of calcpad's quantities?"""
     from calcpad.core.units import Q_, ureg
