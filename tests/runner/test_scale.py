@@ -63,6 +63,9 @@ def test_search_and_sweep_on_the_cluster_equal_serial(client, monkeypatch) -> No
     a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
     assert a.table.equals(b.table) and a.envelope.equals(b.envelope) and a.passed == b.passed
     assert 0 < a.passed < a.cases and a.envelope.iloc[:, -1].notna().any() and a.envelope.iloc[:, -1].isna().any()
+    # without a table the cluster's tasks are larger (2,400 cases / (2 workers x 8) = 150 per task, not 20)
+    c = sweep(tpl, {}, axes, envelope="L", table=False, chunk_cases=20, client=client)
+    assert c.envelope.equals(a.envelope) and c.passed == a.passed and c.table is None
 
 
 def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_path: Path) -> None:
