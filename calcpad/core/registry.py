@@ -46,6 +46,11 @@ ureg.define("plf = pound_force / foot")
 ureg.define("klf = kip / foot")
 ureg.define("pcf = pound / foot ** 3")
 ureg.define("kipf = kip")  # alias some engineers type
+# A quantity unpickled (a template sent to a Dask worker holds some in its parameter bounds) joins
+# pint's application registry: left unset, that is a second registry, parsed from pint's files
+# without the cache (0.1-0.7 s per process, measured on a worker's first chunk), whose quantities
+# cannot be compared with ours.
+pint.set_application_registry(ureg)
 
 Q_ = ureg.Quantity
 Quantity = pint.Quantity

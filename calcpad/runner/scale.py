@@ -29,6 +29,8 @@ __all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "
 RETRIES = 2
 #: Most calcs in one batch chunk (fewer when that leaves under four chunks per worker).
 CHUNK_CALCS = 100
+#: Free memory glibc keeps at the top of a worker's heap (``MALLOC_TOP_PAD_``), see :func:`cluster_client`.
+MALLOC_TOP_PAD = 64 * 2**20
 
 
 @dataclass
@@ -76,6 +78,11 @@ def cluster_client(workers: int | None = None, scheduler: str | None = None) -> 
     # mmap threshold: every large numpy temporary is then mmapped and page-faulted afresh, and a
     # sweep chunk ran 3.5x slower on a worker than in this process (measured). Leave it unset.
     environ = {k: v for k, v in dask.config.get("distributed.nanny.pre-spawn-environ", {}).items() if k != "MALLOC_TRIM_THRESHOLD_"}
+    # glibc returns the top of the heap to the system whenever enough of it is free, i.e. after
+    # each block of a sweep or calc; the next block faults those pages in again (kernel time).
+    # Keeping MALLOC_TOP_PAD bytes at the top made a sweep's chunks 20 % cheaper in a worker
+    # thread (measured; 64 MiB of the worker's memory at most).
+    environ.setdefault("MALLOC_TOP_PAD_", os.environ.get("MALLOC_TOP_PAD_", str(MALLOC_TOP_PAD)))
     # The workers' statistical profiler samples every task's stack every 10 ms (for the
     # dashboard); calcs are pure Python, so that is CPU taken from them. Off for our clusters.
     with dask.config.set({"distributed.nanny.pre-spawn-environ": environ, "distributed.worker.profile.enabled": False}):

@@ -6,6 +6,7 @@ from pathlib import Path
 
 import pytest
 
+from calcpad.runner import sweep as sweep_module
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import load_job
 from calcpad.runner.record import UNSEALED_KEYS, job_record
@@ -49,16 +50,22 @@ def test_batch_on_the_cluster_equals_serial(client) -> None:
     assert len(seen) == len(job.calcs)
 
 
-def test_search_and_sweep_on_the_cluster_equal_serial(client) -> None:
+def test_search_and_sweep_on_the_cluster_equal_serial(client, monkeypatch) -> None:
     tpl = load_template(find_template("leg_bending"))
     base = {n: p.default for n, p in tpl.parameters.items() if n not in ("member_mark", "calc_title")}
     members = [(f"M{i}", {**base, "P": f"{40 + 30 * i} lbf", "L": f"{20 + 7 * i} in"}) for i in range(9)]
     settings = {"parameter": "leg", "family": "pipe"}
     assert search_on_cluster(client, tpl, members, settings, chunk_members=2) == search(tpl, members, settings)
     axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
-    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
     b = sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    # here each chunk runs in blocks of 7 cases (the last one short), on the workers in one block
+    monkeypatch.setattr(sweep_module, "BLOCK_CASES", 7)
+    a = sweep(tpl, {}, axes, envelope="L", chunk_cases=300)
     assert a.table.equals(b.table) and a.envelope.equals(b.envelope) and a.passed == b.passed
+    assert 0 < a.passed < a.cases and a.envelope.iloc[:, -1].notna().any() and a.envelope.iloc[:, -1].isna().any()
+    # without a table the cluster's tasks are larger (2,400 cases / (2 workers x 8) = 150 per task, not 20)
+    c = sweep(tpl, {}, axes, envelope="L", table=False, chunk_cases=20, client=client)
+    assert c.envelope.equals(a.envelope) and c.passed == a.passed and c.table is None
 
 
 def test_a_failed_chunk_is_retried_then_reported_with_its_inputs(client, tmp_path: Path) -> None:
@@ -109,3 +116,53 @@ def test_a_failed_batch_chunk_becomes_failed_calcs_naming_it(client) -> None:
     msg = failed[0].error["message"]
     assert "failed on the cluster after 3 tries" in msg and "MemoryError" in msg and f"members {', '.join(members)}" in msg
     assert all(o.error is None and o.sheets for o in outcomes if o.calc.member not in members)
+
+
+def _sweep_chunk_failing_at_600(shared, values, start, stop, env_axis, want_table):
+    """A sweep chunk task that dies (as a worker crash would) for the chunks starting at grid case 600."""
+    if start == 600:
+        raise MemoryError("worker ran out of memory (simulated)")
+    return sweep_module._chunk(shared, values, start, stop, env_axis, want_table)
+
+
+def test_a_failed_sweep_chunk_is_reported_with_its_grid_cases(client, monkeypatch) -> None:
+    from calcpad.runner import scale
+
+    tpl = load_template(find_template("leg_bending"))
+    axes = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": steps("50 lbf", "400 lbf", 30), "L": steps("12 in", "96 in", 40)}
+    real = scale.map_chunks
+    monkeypatch.setattr(scale, "map_chunks", lambda c, _func, chunks, *a, **k: real(c, _sweep_chunk_failing_at_600, chunks, *a, **k))
+    with pytest.raises(ChunkFailedError) as err:
+        sweep(tpl, {}, axes, envelope="L", chunk_cases=300, client=client)
+    # 1,200 grid cases per pipe size in chunks of 300: the third chunk of each size fails
+    assert [f.index for f in err.value.failures] == [3, 7]
+    assert "chunk 3: {'leg': 'Pipe 1 Std'} grid cases 600-899 of 1200: MemoryError" in str(err.value)
+    assert "chunk 7: {'leg': 'Pipe 2 Std'} grid cases 600-899 of 1200: MemoryError" in str(err.value)
+
+
+def _bound_on_worker(tpl) -> tuple[bool, bool]:
+    """Worker side: the template arrived pickled; is its upper bound on L one of calcpad's quantities?"""
+    from calcpad.core.units import Q_, ureg
+
+    upper = tpl.parameters["L"].upper.value
+    return upper._REGISTRY is ureg, bool(Q_(29, "ft") < upper <= Q_(360, "in"))
+
+
+def test_a_template_sent_to_a_worker_keeps_calcpads_unit_registry(client) -> None:
+    # leg_bending states L from 6 in to 30 ft; 30 ft = 360 in (unit fact). Unpickled quantities
+    # used to join a second registry of pint's (slow to build, not comparable with ours).
+    tpl = load_template(find_template("leg_bending"))
+    assert client.submit(_bound_on_worker, tpl, pure=False).result() == (True, True)
+
+
+def test_columns_sent_to_a_worker_keep_numpys_own_float_dtype() -> None:
+    # An unpickled array's dtype equals float64 but is another object, and np.maximum.at (the
+    # sweep's envelope) then leaves its fast loop; what a worker keeps must be numpy's own.
+    import pickle
+
+    import numpy as np
+
+    col = pickle.loads(pickle.dumps(np.linspace(6.0, 160.0, 50)))
+    assert col.dtype == np.float64 and col.dtype is not np.dtype(np.float64)  # what arrives
+    kept = sweep_module._keep_column("L", tuple(f"{v} in" for v in col), "in", col)
+    assert kept.dtype is np.dtype(np.float64) and np.array_equal(kept, col) and not kept.flags.writeable
