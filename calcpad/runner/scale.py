@@ -24,7 +24,7 @@ from typing import Any
 
 from calcpad.core.errors import CalcpadError
 
-__all__ = ["ChunkFailedError", "ChunkFailure", "cluster_client", "map_chunks", "progress_bar", "run_calcs_on_cluster", "search_on_cluster", "split"]
+__all__ = ["ChunkFailedError", "ChunkFailure", "chunk_ranges", "cluster_client", "map_chunks", "progress_bar", "run_calcs_on_cluster", "search_on_cluster"]
 
 RETRIES = 2
 #: Most calcs in one batch chunk (fewer when that leaves under four chunks per worker).
@@ -110,11 +110,23 @@ def progress_bar(total: int, label: str) -> Iterator[Callable[[int], None]]:
         yield lambda n: bar.update(task, advance=n)
 
 
-def split(n: int, chunks: int) -> list[tuple[int, int]]:
-    """``chunks`` contiguous (start, stop) ranges covering ``range(n)`` (none empty)."""
-    chunks = max(1, min(chunks, n))
-    size = math.ceil(n / chunks) if n else 0
-    return [(a, min(a + size, n)) for a in range(0, n, size)] if n else []
+def chunk_ranges(n: int, size: int, workers: int = 1, tail: bool = True) -> list[tuple[int, int]]:
+    """Contiguous (start, stop) ranges covering ``range(n)``, none empty, none over ``size``.
+
+    With ``tail`` the last ones shrink (each at most the remaining work over twice the workers,
+    down to an eighth of ``size``): the scheduler hands chunks out as workers free up, and small
+    chunks at the end keep one worker from finishing a full chunk alone while the other waits."""
+    size = max(1, size)
+    smallest = max(1, size // 8)
+    ranges: list[tuple[int, int]] = []
+    a = 0
+    while a < n:
+        step = size
+        if tail:
+            step = max(smallest, min(size, math.ceil((n - a) / (2 * max(1, workers)))))
+        ranges.append((a, min(a + step, n)))
+        a = ranges[-1][1]
+    return ranges
 
 
 def map_chunks(
@@ -191,7 +203,7 @@ def run_calcs_on_cluster(
     calcs = list(job.calcs)
     workers = max(1, len(client.scheduler_info().get("workers", {})) or 1)
     size = chunk_calcs or max(1, min(CHUNK_CALCS, math.ceil(len(calcs) / (4 * workers))))
-    ranges = [(a, min(a + size, len(calcs))) for a in range(0, len(calcs), size)]
+    ranges = chunk_ranges(len(calcs), size, workers, tail=chunk_calcs is None)
 
     def describe(i: int) -> str:
         a, b = ranges[i]
@@ -248,7 +260,7 @@ def search_on_cluster(
     members = [(m, dict(v)) for m, v in members]
     workers = max(1, len(client.scheduler_info().get("workers", {})) or 1)
     size = chunk_members or max(1, math.ceil(len(members) / (2 * workers)))
-    ranges = [(a, min(a + size, len(members))) for a in range(0, len(members), size)]
+    ranges = chunk_ranges(len(members), size, tail=False)  # few chunks: each pays for its search plan
 
     def describe(i: int) -> str:
         a, b = ranges[i]
@@ -258,7 +270,10 @@ def search_on_cluster(
         if progress is not None:
             progress(ranges[i][1] - ranges[i][0])
 
-    results, failures = map_chunks(client, _search_chunk, [(template, members[a:b], dict(settings), sizes) for a, b in ranges], describe, tick)
+    # the template goes to every worker once: a chunk carrying its own copy would meet cold caches
+    # (keyed by the template's objects) and build and compile every candidate's sheets again
+    shared = client.scatter([template], broadcast=True, hash=False)[0]
+    results, failures = map_chunks(client, _search_chunk, [(shared, members[a:b], dict(settings), sizes) for a, b in ranges], describe, tick)
     if failures:
         raise ChunkFailedError(failures)
     return [r for chunk in results for r in chunk]

@@ -10,7 +10,7 @@ from calcpad.runner import sweep as sweep_module
 from calcpad.runner.execute import run_job
 from calcpad.runner.job import load_job
 from calcpad.runner.record import UNSEALED_KEYS, job_record
-from calcpad.runner.scale import ChunkFailedError, cluster_client, map_chunks, run_calcs_on_cluster, search_on_cluster
+from calcpad.runner.scale import ChunkFailedError, chunk_ranges, cluster_client, map_chunks, run_calcs_on_cluster, search_on_cluster
 from calcpad.runner.search import search
 from calcpad.runner.sweep import steps, sweep
 from calcpad.runner.template import find_template, load_template
@@ -166,3 +166,19 @@ def test_columns_sent_to_a_worker_keep_numpys_own_float_dtype() -> None:
     assert col.dtype == np.float64 and col.dtype is not np.dtype(np.float64)  # what arrives
     kept = sweep_module._keep_column("L", tuple(f"{v} in" for v in col), "in", col)
     assert kept.dtype is np.dtype(np.float64) and np.array_equal(kept, col) and not kept.flags.writeable
+
+
+@pytest.mark.parametrize(("n", "size", "workers"), [(0, 5, 2), (1, 5, 2), (7, 3, 1), (2000, 100, 2), (999, 64, 3), (10, 1, 4)])
+def test_chunk_ranges_cover_every_item_once_and_shrink_at_the_tail(n: int, size: int, workers: int) -> None:
+    for tail in (False, True):
+        ranges = chunk_ranges(n, size, workers, tail=tail)
+        assert [i for a, b in ranges for i in range(a, b)] == list(range(n))  # in order, each once
+        lengths = [b - a for a, b in ranges]
+        assert all(0 < k <= size for k in lengths)
+        if not tail:
+            assert all(k == size for k in lengths[:-1])
+        else:  # never growing, and never under an eighth of the size but for the last
+            assert lengths == sorted(lengths, reverse=True)
+            assert all(k >= max(1, size // 8) for k in lengths[:-1])
+    if n == 2000:  # 2 workers, 100 per chunk: the last chunks are smaller than the first
+        assert chunk_ranges(n, size, workers)[-2][1] - chunk_ranges(n, size, workers)[-2][0] < size
