@@ -136,7 +136,10 @@ def given_map(builder: SheetBuilder, values: Mapping[str, Any], names: list[str]
         found: list[str | None] | None = None
         for factor in (1.37, 0.73):
             moved = Q_(float(q.magnitude) * factor, q.units) if q.magnitude != 0 else Q_(1.0, q.units)
-            text = f"{float(moved.magnitude)!r} {p.unit or str(q.units)}"
+            # in the value's own units (``4 ft`` moves to ``5.48 ft``); the parameter's unit only
+            # for a plain number, which the parameter reads in its unit
+            unit = p.unit if (p.unit and q.unitless) else str(q.units)
+            text = f"{float(moved.magnitude)!r} {unit}"
             try:
                 sheets = builder.sheets({**values, name: text})
             except SheetBuildError:

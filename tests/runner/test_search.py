@@ -12,6 +12,7 @@ import pytest
 
 from calcpad.core.results import status_ok
 from calcpad.eng.sections.catalog import section_table
+from calcpad.runner.build import SheetBuilder, given_map
 from calcpad.runner.execute import run_calc_inprocess
 from calcpad.runner.job import Calc
 from calcpad.runner.search import search
@@ -80,6 +81,22 @@ def test_sweep_table_matches_scalar_runs_and_envelope() -> None:
         part = res.table[(res.table["leg"] == row["leg"]) & (res.table["P"] == row["P"]) & res.table["pass"]]
         longest = max((float(v.split()[0]) for v in part["L"]), default=np.nan)
         assert (np.isnan(longest) and np.isnan(row["max L [in]"])) or longest == row["max L [in]"]
+
+
+def test_an_axis_in_other_units_than_the_parameters_is_swept_on_the_grid() -> None:
+    """Leg lengths in feet sweep as lengths in inches do (1 ft = 12 in exactly: NIST SP 811, 2008,
+    Appendix B); before, a value in feet was moved in inches while mapping the axis, so L became a
+    build axis and an envelope over it was refused."""
+    tpl = load_template(find_template("leg_bending"))
+    common = {"leg": ["Pipe 1 Std", "Pipe 2 Std"], "P": ["80 lbf", "200 lbf"]}
+    feet = sweep(tpl, {"N": "100 lbf"}, {**common, "L": steps("1 ft", "5 ft", 5)}, envelope="L")
+    inches = sweep(tpl, {"N": "100 lbf"}, {**common, "L": steps("12 in", "60 in", 5)}, envelope="L")
+    assert list(feet.table["pass"]) == list(inches.table["pass"]) and 0 < feet.passed < feet.cases
+    np.testing.assert_allclose(feet.table["governing ratio"], inches.table["governing ratio"], rtol=1e-12)
+    assert feet.envelope.equals(inches.envelope)
+    builder = SheetBuilder(tpl)
+    defaults = {n: p.default for n, p in tpl.parameters.items()}
+    assert given_map(builder, {**defaults, "L": "4 ft", "P": "2 kN"}, ["L", "P"]) == {"L": ["L"], "P": ["P"]}
 
 
 def test_grid_too_large_for_a_table_is_refused_and_chunked_without_one() -> None:
