@@ -18,6 +18,7 @@ from __future__ import annotations
 import json
 import tempfile
 import threading
+import weakref
 import zlib
 from pathlib import Path
 from typing import IO, Any
@@ -94,6 +95,9 @@ class RunSpool:
         """``html=False``: no sheet HTML is kept (a re-run that only compares records)."""
         self._html = html
         self._file: IO[bytes] = tempfile.TemporaryFile(prefix="calcpad-spool-", dir=folder)
+        # a spool nobody closes (verify's: it lives as long as the record it fed) closes its file
+        # when it is collected, as a close() would, rather than leaving that to the file's finalizer
+        weakref.finalize(self, self._file.close)
         self._end = 0
         self._lock = threading.Lock()
         self._shas: dict[Path, str] = {}
