@@ -140,10 +140,6 @@ def draw_frame(
         (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
         L = np.hypot(x2 - x1, y2 - y1)
         ux, uy = (x2 - x1) / L, (y2 - y1) / L
-        # names below a beam and inside a post: loads are drawn on the other side
-        ox, oy = uy * 1.3 * s, -ux * 1.3 * s
-        ax.text((x1 + x2) / 2 + ox, (y1 + y2) / 2 + oy, m.name, fontsize=8, color=_MEMBER,
-                ha="left" if ox > 0.5 * abs(oy) else "right" if ox < -0.5 * abs(oy) else "center", va="center")
         releases += [(px + sgn * ux * 0.6 * s, py + sgn * uy * 0.6 * s)
                      for flag, (px, py), sgn in ((m.release_i, (x1, y1), 1), (m.release_j, (x2, y2), -1)) if flag]
     if releases:
@@ -151,7 +147,6 @@ def draw_frame(
     if frame.nodes:
         ax.plot(*zip(*frame.nodes.values(), strict=True), "s", color="k", ms=3, zorder=3)
     for n, (x, y) in frame.nodes.items():
-        ax.text(x + 0.6 * s, y + 0.6 * s, n, fontsize=9, fontweight="bold")
         if n in frame.supports:
             _support(ax, x, y, frame.supports[n], s)
     if show_loads and case is not None:
@@ -184,12 +179,121 @@ def draw_frame(
         fig.legend(loc="lower right", fontsize=8, frameon=False)  # below the axes: no search for a spot
     ax.set_aspect("equal", adjustable="datalim")
     ax.margins(0.15)
+    _draw_names(ax, frame, s)
     ax.set_xlabel(f"x [{frame.lu}]")
     ax.set_ylabel(f"y [{frame.lu}]")
     ax.set_title(title or ("Frame model" + (f" - {case}" if case else "")), fontsize=10)
     ax.grid(alpha=0.2)
     return mark_content(fig, *_draw_frame_content(frame, result, case, show_loads=show_loads,
                                                   deflection_scale=deflection_scale, title=title))
+
+
+def _halo() -> list[Any]:
+    """A white outline around a label's letters: a member, a load arrow or the deflected shape
+    drawn under it no longer runs through them."""
+    from matplotlib import patheffects
+
+    return [patheffects.withStroke(linewidth=2.5, foreground="white")]
+
+
+#: Where a member's name may go: (fraction of its length, side, distance from the member in
+#: drawing units ``s``), the usual spot first (mid-length, below a beam and inside a post, away
+#: from the loads drawn on the other side).
+_LABEL_SPOTS = tuple((frac, side, off) for off in (1.3, 2.6) for frac, side in
+                     ((0.5, 1), (0.5, -1), (0.3, 1), (0.7, 1), (0.3, -1), (0.7, -1)))
+
+
+def _draw_names(ax: Any, frame: Frame, s: float) -> None:
+    """Node and member names (:func:`_label_spots`), sized against the view the drawing ends up
+    with: the limits are settled first (everything else is drawn; names do not move them)."""
+    ax.autoscale_view()
+    ax.apply_aspect()
+    x0, x1 = ax.get_xlim()
+    width_pt = ax.get_position().width * ax.figure.get_figwidth() * 72
+    node_spots, member_spots = _label_spots(frame, s, abs(x1 - x0) / width_pt)
+    halo = _halo()
+    for name, (x, y, ha) in member_spots.items():
+        # under the members (zorder 2), over the deflected shape and the grid: a name that has to
+        # sit on a member still shows the member whole
+        ax.text(x, y, name, fontsize=8, color=_MEMBER, ha=ha, va="center", path_effects=halo, zorder=1.5)
+    for n, (x, y) in frame.nodes.items():
+        qx, qy = node_spots[n]
+        ax.text(x + qx * 0.6 * s, y + qy * 0.6 * s, n, fontsize=9, fontweight="bold", path_effects=halo, zorder=5,
+                ha="left" if qx > 0 else "right", va="bottom" if qy > 0 else "top")
+
+
+def _label_spots(frame: Frame, s: float, per_pt: float) -> tuple[dict[str, tuple[int, int]], dict[str, tuple[float, float, str]]]:
+    """Where the names go. Each node's name, ``node -> (qx, qy)``: the corner beside the node
+    (right-above first) whose box no member runs through. Each member's name, ``name -> (x, y,
+    ha)`` (``va`` centre): of the spots of :data:`_LABEL_SPOTS` beside the member, the first that
+    keeps its letters clear of the other members and of the names placed before it, else the one
+    that comes closest.
+
+    ``per_pt``: data units per typographic point in the drawing's view; text sizes are estimated
+    from it (DejaVu Sans: about 0.62 em per character). Short members meeting at a knee brace put
+    their names where there is room instead of on top of one another."""
+    char_w, line_h = 8 * 0.62 * per_pt, 8 * 1.25 * per_pt
+    # members as points sampled along their length
+    t = np.linspace(0.0, 1.0, 25)[:, None]
+    segs = {m.name: np.asarray(frame.nodes[m.i], float) + t * (np.asarray(frame.nodes[m.j], float) - np.asarray(frame.nodes[m.i], float))
+            for m in frame.members.values()}
+    every = np.vstack([*segs.values(), np.empty((0, 2))])
+    placed: list[tuple[float, float, float, float]] = []
+    nodes: dict[str, tuple[int, int]] = {}
+    for n, (x, y) in frame.nodes.items():
+        w, h = len(n) * char_w * 1.25, line_h * 1.1  # 9 pt bold
+        best_node: tuple[float, tuple[int, int], tuple[float, float, float, float]] | None = None
+        for qx, qy in ((1, 1), (-1, 1), (1, -1), (-1, -1)):
+            x0, y0 = x + qx * 0.6 * s, y + qy * 0.6 * s
+            box = (min(x0, x0 + qx * w), min(y0, y0 + qy * h), max(x0, x0 + qx * w), max(y0, y0 + qy * h))
+            gap = _box_gap(box, every)
+            if best_node is None or gap > best_node[0]:
+                best_node = (gap, (qx, qy), box)
+            if gap >= 0.3 * s:
+                break
+        assert best_node is not None
+        nodes[n] = best_node[1]
+        placed.append(best_node[2])
+    clear = 0.6 * s  # enough room around a name
+    members: dict[str, tuple[float, float, str]] = {}
+    for m in frame.members.values():
+        (x1, y1), (x2, y2) = frame.nodes[m.i], frame.nodes[m.j]
+        L = np.hypot(x2 - x1, y2 - y1) or 1.0
+        ux, uy = (x2 - x1) / L, (y2 - y1) / L
+        others = np.vstack([p for n, p in segs.items() if n != m.name] or [np.empty((0, 2))])
+        w = len(m.name) * char_w
+        best: tuple[float, tuple[float, float, str], tuple[float, float, float, float]] | None = None
+        for frac, side, off in _LABEL_SPOTS:
+            ox, oy = side * uy * off * s, -side * ux * off * s
+            x, y = x1 + frac * (x2 - x1) + ox, y1 + frac * (y2 - y1) + oy
+            ha = "left" if ox > 0.5 * abs(oy) else "right" if ox < -0.5 * abs(oy) else "center"
+            x0 = x if ha == "left" else x - w if ha == "right" else x - w / 2
+            box = (x0, y - line_h / 2, x0 + w, y + line_h / 2)
+            gap = min(_box_gap(box, others), *(_boxes_gap(box, b) for b in placed), np.inf)
+            if best is None or gap > best[0]:
+                best = (gap, (x, y, ha), box)
+            if gap >= clear:
+                break
+        assert best is not None
+        members[m.name] = best[1]
+        placed.append(best[2])
+    return nodes, members
+
+
+def _box_gap(box: tuple[float, float, float, float], points: np.ndarray) -> float:
+    """Distance from a box to the nearest of ``points`` (0 when one is inside; inf for none)."""
+    if not len(points):
+        return float("inf")
+    dx = np.maximum(np.maximum(box[0] - points[:, 0], points[:, 0] - box[2]), 0.0)
+    dy = np.maximum(np.maximum(box[1] - points[:, 1], points[:, 1] - box[3]), 0.0)
+    return float(np.hypot(dx, dy).min())
+
+
+def _boxes_gap(a: tuple[float, float, float, float], b: tuple[float, float, float, float]) -> float:
+    """Distance between two boxes (0 when they overlap)."""
+    dx = max(b[0] - a[2], a[0] - b[2], 0.0)
+    dy = max(b[1] - a[3], a[1] - b[3], 0.0)
+    return float(np.hypot(dx, dy))
 
 
 def _draw_frame_content(frame: Frame, result: FrameResult | None = None, case: str | None = None, *, show_loads: bool = True,
@@ -262,8 +366,10 @@ def _draw_loads(ax: Any, frame: Frame, factors: dict[str, float], s: float, Arro
             ux, uy = fx / mag, fy / mag
             _add_straight(ax, Arrow, (x - ux * L0, y - uy * L0), (x, y), arrowstyle="-|>", mutation_scale=14,
                           color=_LOAD, lw=1.8)
-            ax.text(x - ux * L0 * 1.15, y - uy * L0 * 1.15, f"{_num(mag)} {frame.fu}", fontsize=8, color=_LOAD,
-                    ha="center", va="center")
+            # beyond the tail, aligned away from the arrow (centred on it, the shaft ran through the text)
+            ax.text(x - ux * L0 * 1.1, y - uy * L0 * 1.1, f"{_num(mag)} {frame.fu}", fontsize=8, color=_LOAD,
+                    ha="right" if ux > 0.5 else "left" if ux < -0.5 else "center",
+                    va="top" if uy > 0.5 else "bottom" if uy < -0.5 else "center")
         if mz:
             ax.add_patch(Arrow((x + 1.5 * s, y - 1.0 * s), (x + 1.5 * s, y + 1.0 * s),
                                connectionstyle=f"arc3,rad={0.8 if mz > 0 else -0.8}", arrowstyle="-|>",
