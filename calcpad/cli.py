@@ -464,7 +464,7 @@ def _diff(args: argparse.Namespace) -> int:
     """``calcpad diff OLD NEW``: exit 0 when nothing changed, 1 when something did."""
     from rich.console import Console
 
-    from calcpad.runner.diff import diff_html, diff_records, diff_table
+    from calcpad.runner.diff import diff_html, diff_records, diff_table, no_changes_text
     from calcpad.runner.record import record_digest
     from calcpad.runner.recordfile import load_record
 
@@ -478,7 +478,16 @@ def _diff(args: argparse.Namespace) -> int:
         if not intact:
             out.print(f"warning: {path} does not match its record_digest (edited after it was written)", highlight=False, soft_wrap=True)
     diff = diff_records(old, new, rtol=args.rtol)
-    out.print(diff_table(diff, title=f"Changes from {old_path} (rev. {diff.old_label}) to {new_path} (rev. {diff.new_label})"), highlight=False)
+    heading = f"Changes from {old_path} (rev. {diff.old_label}) to {new_path} (rev. {diff.new_label})"
+    if diff.changed:
+        out.print(diff_table(diff, title=heading), highlight=False)
+        n = len(diff.rows())
+        out.print(f"{n} change{'s' if n != 1 else ''}; results compared to a relative tolerance of {diff.rtol:g}", highlight=False)
+    else:  # a sentence, not a table with no rows
+        out.print(heading, highlight=False, soft_wrap=True)
+        out.print(f"{no_changes_text(diff)} Results compared to a relative tolerance of {diff.rtol:g}.", highlight=False, soft_wrap=True)
+        if diff.versions:
+            out.print("versions: " + "; ".join(f"{c.item} {c.old} → {c.new}" for c in diff.versions), highlight=False, soft_wrap=True)
     if args.html:
         from calcpad.core.errors import CalcpadError
 

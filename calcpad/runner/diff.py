@@ -339,13 +339,18 @@ def diff_table(diff: RecordDiff, title: str | None = None) -> Any:
     return t
 
 
+def no_changes_text(diff: RecordDiff) -> str:
+    """The sentence that stands for an empty table of changes."""
+    return f"No changes in inputs, results, check status, calcs, templates or data since revision {diff.old_label}."
+
+
 def diff_html(diff: RecordDiff, heading_level: int = 2) -> str:
     """An HTML fragment "Changes since revision X" (a section with one table; text escaped)."""
     e = html.escape
     h = f"h{heading_level}"
     parts = [f'<section class="changes"><{h}>Changes since revision {e(diff.old_label)}</{h}>']
     if not diff.changed:
-        parts.append(f"<p>No changes in inputs, results, check status, calcs, templates or data since revision {e(diff.old_label)}.</p>")
+        parts.append(f"<p>{e(no_changes_text(diff))}</p>")
     else:
         parts.append(
             f"<table><thead><tr><th>What</th><th>Calc</th><th>Item</th><th>Rev. {e(diff.old_label)}</th>"

@@ -110,10 +110,14 @@ def test_cli_diff_exit_codes_and_html(revisions: dict[str, Any], tmp_path: Path,
     a = write_record(revisions["a"], tmp_path / "a")
     b = write_record(revisions["b"], tmp_path / "b")
     assert main(["diff", str(a), str(a)]) == 0
+    out = capsys.readouterr().out  # a sentence, not an empty table
+    assert "No changes in inputs, results, check status, calcs, templates or data since revision A." in out
+    assert "┏" not in out and "What" not in out
     html = tmp_path / "changes.html"
     assert main(["diff", str(a), str(b / "record.json"), "--html", str(html)]) == 1
     out = capsys.readouterr().out
     assert "calc added" in out and "status flipped" in out and "P3 (leg_bending)" in out
+    assert "8 changes; results compared to a relative tolerance of" in out and "No changes" not in out
     text = html.read_text()
     assert "Changes since revision A" in text and text.count("<tr>") == 1 + 8
     mask = os.umask(0)
