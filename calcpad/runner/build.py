@@ -21,12 +21,11 @@ from calcpad.core.errors import CalcpadError, InputError
 from calcpad.core.sheet import Sheet
 from calcpad.runner.execute import sheets_bound
 from calcpad.runner.job import CONTEXT_PARAMETERS
+from calcpad.runner.nodisplay import NO_DISPLAY_ENV, no_display
 from calcpad.runner.template import Template
 
 __all__ = ["NO_DISPLAY_ENV", "SheetBuildError", "SheetBuilder", "given_map", "sheet_signature"]
 
-#: While set, the widgets' ``show()`` displays nothing (sheets built for a search or sweep).
-NO_DISPLAY_ENV = "CALCPAD_NO_DISPLAY"
 
 
 class SheetBuildError(InputError):
@@ -58,17 +57,8 @@ class SheetBuilder:
                 ns.setdefault(n, "")
         os.environ.setdefault("MPLBACKEND", "Agg")
         sink = io.StringIO()
-        # Templates call widgets.show(sh); in a notebook that would display every sheet built. The
-        # runner does not import the widgets face; show() displays nothing while NO_DISPLAY_ENV is set.
-        before = os.environ.get(NO_DISPLAY_ENV)
-        os.environ[NO_DISPLAY_ENV] = "1"
-        try:
+        with no_display():  # in a notebook, show(sh) would display every sheet built
             self._run(ns, sink)
-        finally:
-            if before is None:
-                os.environ.pop(NO_DISPLAY_ENV, None)
-            else:
-                os.environ[NO_DISPLAY_ENV] = before
         plt = sys.modules.get("matplotlib.pyplot")
         if plt is not None:
             plt.close("all")

@@ -38,6 +38,7 @@ from calcpad.core.results import status_ok
 from calcpad.core.sheet import SYSTEM_ENV
 from calcpad.eng.sections.shop import ENV_PATH, ENV_SHA256, shop_table_in_use
 from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job
+from calcpad.runner.nodisplay import no_display
 from calcpad.runner.progress import RunProgress, in_notebook
 
 __all__ = ["MODES", "CalcOutcome", "SheetItem", "collect_sheets", "numbers_digest", "run_calc_inprocess", "run_job", "sheets_bound"]
@@ -291,7 +292,8 @@ def run_calc_inprocess(calc: Calc, text: bool = False, html: bool | str = True) 
     sink = io.StringIO()
     widgets, views = _widget_ids(), _live_views()
     try:
-        with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink):
+        # no_display: run from a notebook, the template's show(sh) would display each calc's sheets there
+        with contextlib.redirect_stdout(sink), contextlib.redirect_stderr(sink), no_display():
             for index, code in tpl.body():
                 try:
                     exec(code, namespace)  # template code (trusted); job values are data in `namespace`

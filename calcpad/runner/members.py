@@ -478,6 +478,7 @@ def run_table(
     """
     from calcpad.runner.execute import run_job
     from calcpad.runner.job import CONTEXT_PARAMETERS, Calc, Job, JobError, JobInfo
+    from calcpad.runner.progress import notebook_progress
     from calcpad.runner.template import Template as _Template
     from calcpad.runner.template import find_template, load_template
 
@@ -501,10 +502,18 @@ def run_table(
         raise JobError(str(path), problems)
     calcs = [Calc(i, f"table row {r.row}", tpl, r.mark, r.inputs, "", r.typed, table=data.name, row=r.row) for i, r in enumerate(rows, start=1)]
     job = Job(JobInfo("-", tpl.title), calcs, str(path), None, (), tables={data.name: data})
-    if client is None:  # no HTML, and each outcome slimmed as it finishes: memory flat in the number of rows
-        outcomes = run_job(job, progress=lambda o: o.slim(), html=False)
-    else:
-        from calcpad.runner.scale import run_calcs_on_cluster
+    with notebook_progress(len(calcs), f"member table {data.name}") as bar:  # in a notebook, after 2 s
 
-        outcomes = run_calcs_on_cluster(job, client)
+        def done(o: Any) -> None:
+            if client is None:
+                o.slim()
+            if bar is not None:
+                bar.advance(f"{data.name}: {o.calc.member}")
+
+        if client is None:  # no HTML, and each outcome slimmed as it finishes: memory flat in the number of rows
+            outcomes = run_job(job, progress=done, html=False)
+        else:
+            from calcpad.runner.scale import run_calcs_on_cluster
+
+            outcomes = run_calcs_on_cluster(job, client, progress=done)
     return results_frame(outcomes)

@@ -2,17 +2,20 @@
 ``after`` seconds, so a short run prints nothing.
 
 The CLI shows it on stderr when that is a terminal (never with ``--json``);
-:func:`~calcpad.runner.execute.run_job` shows it in a Jupyter notebook (rich draws it in an
-output widget there) when no other progress callback is given.
+:func:`~calcpad.runner.execute.run_job`, :func:`~calcpad.runner.members.run_table` and
+:func:`~calcpad.runner.sweep.sweep` show it in a Jupyter notebook (rich draws it in an output
+widget there) when no other progress callback is given.
 """
 
 from __future__ import annotations
 
 import sys
 import time
+from collections.abc import Iterator
+from contextlib import contextmanager
 from typing import Any
 
-__all__ = ["AFTER", "RunProgress", "in_notebook"]
+__all__ = ["AFTER", "RunProgress", "in_notebook", "notebook_progress"]
 
 #: Seconds a run goes before its bar appears.
 AFTER = 2.0
@@ -51,9 +54,9 @@ class RunProgress:
         """The console the bar draws on (print messages through it so they appear above the bar)."""
         return self.bar.console
 
-    def advance(self, text: str) -> None:
-        """One more calc done; ``text`` names it."""
-        self.bar.update(self.task, advance=1, description=text)
+    def advance(self, text: str, n: int = 1) -> None:
+        """``n`` more done (calcs, or a sweep's cases); ``text`` names the last."""
+        self.bar.update(self.task, advance=n, description=text)
         if not self.shown and time.perf_counter() - self.start > self.after:
             self.bar.start()
             self.shown = True
@@ -61,3 +64,18 @@ class RunProgress:
     def close(self) -> None:
         """Remove the bar (if it was shown)."""
         self.bar.stop()
+
+
+@contextmanager
+def notebook_progress(total: int, label: str) -> Iterator[RunProgress | None]:
+    """In a Jupyter notebook a :class:`RunProgress` of ``total`` (shown once the work has gone on
+    for :data:`AFTER` seconds, removed at the end, also on an error); elsewhere None (scripts,
+    tests and the CLI, which draws its own)."""
+    if not in_notebook():
+        yield None
+        return
+    bar = RunProgress(total, label=label)
+    try:
+        yield bar
+    finally:
+        bar.close()

@@ -282,8 +282,9 @@ def sweep(
 
     ``envelope``: a quantity axis set through one given; the result's ``envelope`` holds its
     largest passing value per combination of the other axes (NaN where none passes).
-    ``progress``: a callable given the number of cases each finished chunk held, or True for a
-    progress bar.
+    ``progress``: a callable given the number of cases each finished chunk held, True for a
+    progress bar, False for none; None (default): a bar in a notebook once the sweep has gone on
+    for 2 s, none elsewhere.
     """
     if progress is True:
         from calcpad.runner.scale import progress_bar
@@ -292,6 +293,15 @@ def sweep(
         with progress_bar(total, f"sweep of {template.name}") as advance:
             return sweep(template, fixed, axes, envelope=envelope, table=table, chunk_cases=chunk_cases,
                          max_table_cases=max_table_cases, client=client, progress=advance)
+    if progress is None:  # in a notebook, a bar once the sweep has gone on for 2 s
+        from calcpad.runner.progress import notebook_progress
+
+        total = math.prod(len(v) for v in axes.values())
+        with notebook_progress(total, f"sweep of {template.name}") as bar:
+            if bar is not None:
+                return sweep(template, fixed, axes, envelope=envelope, table=table, chunk_cases=chunk_cases,
+                             max_table_cases=max_table_cases, client=client,
+                             progress=lambda n: bar.advance(f"sweep of {template.name}", n))
     if progress is False:
         progress = None
     import pandas as pd
