@@ -16,7 +16,7 @@ import time
 
 import calcpad.runner.execute  # heavy imports before "ready"
 import calcpad.runner.outfolder  # noqa: F401
-from calcpad.cli import main
+from calcpad.cli import exit_with, main
 
 _replace = os.replace
 
@@ -31,15 +31,15 @@ if __name__ == "__main__":
     os.replace = _slow_replace
     if sys.argv[1] == "issue":
         print("ready", flush=True)
-        sys.exit(main(["issue", sys.argv[2], "--revision", sys.argv[3], "--by", sys.argv[4]]))
+        exit_with(main(["issue", sys.argv[2], "--revision", sys.argv[3], "--by", sys.argv[4]]))
     loops, out, jobs = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
     print("ready", flush=True)
     try:
         for i in range(loops):
             rc = main(["run", jobs[i % len(jobs)], "--out", out, "--wait", "60", "--no-pdf"])
             if rc:
-                sys.exit(rc)
+                exit_with(rc)  # as the console script ends
     except KeyboardInterrupt:  # a signal between two runs of this harness loop, outside calcpad's main()
         print("calcpad: interrupted", file=sys.stderr)
-        sys.exit(130)
+        exit_with(130)
     sys.exit(0)
