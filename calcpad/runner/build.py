@@ -27,7 +27,6 @@ from calcpad.runner.template import Template
 __all__ = ["NO_DISPLAY_ENV", "SheetBuildError", "SheetBuilder", "given_map", "sheet_signature"]
 
 
-
 class SheetBuildError(InputError):
     """A template could not build its sheets with the given values (names the cell and the message)."""
 
